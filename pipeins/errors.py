@@ -1,0 +1,36 @@
+"""The one exception for bad input, and the warning record that travels with results."""
+
+from __future__ import annotations
+
+import difflib
+
+__all__ = ["InputError", "closest_names"]
+
+
+class InputError(ValueError):
+    """Bad input: names the input and says what is allowed.
+
+    The message is one line, written for the person who typed the input, e.g.
+    ``--rh: 120 is outside 0 to 100 %``.  The CLI prints it as ``Error: …`` and exits
+    with status 2; the library never prints.
+    """
+
+    def __init__(self, name: str, message: str):
+        self.name = name
+        self.message = message
+        super().__init__(f"{name}: {message}" if name else message)
+
+
+def closest_names(word: str, names, n: int = 3) -> str:
+    """A hint listing the catalogue names closest to *word*, for an 'unknown name' error.
+
+    >>> closest_names("glas wool", ["glass wool", "mineral wool", "cellular glass"])
+    'did you mean "glass wool"?'
+    """
+    names = list(names)
+    close = difflib.get_close_matches(word.lower(), [x.lower() for x in names], n=n, cutoff=0.5)
+    by_lower = {x.lower(): x for x in names}
+    if close:
+        return "did you mean " + " or ".join(f'"{by_lower[c]}"' for c in close) + "?"
+    shown = ", ".join(names[:12]) + (", …" if len(names) > 12 else "")
+    return f"known: {shown}"
