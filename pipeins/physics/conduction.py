@@ -1,0 +1,155 @@
+"""Conduction through a layer whose conductivity depends on temperature.
+
+The conductivity of an insulation material is published at a few mean temperatures.
+We fit those points with a polynomial in temperature (°C) of degree
+``min(2, number of points - 1)`` by least squares, valid over the material's usable
+range; outside that range the conductivity is held at its value at the nearer end.
+
+Heat flow through a layer then follows from the Kirchhoff transform.  With the
+potential :math:`\\Theta(T) = \\int_0^T k(\\tau)\\,d\\tau` [W/m], the steady heat flow
+through a layer between temperatures :math:`T_1` (inner face) and :math:`T_2` (outer
+face) is, exactly for any k(T),
+
+.. math::
+
+    q' = \\frac{2\\pi\\,[\\Theta(T_1) - \\Theta(T_2)]}{\\ln(r_2 / r_1)}
+    \\quad\\text{(cylinder, W/m)}, \\qquad
+    q'' = \\frac{\\Theta(T_1) - \\Theta(T_2)}{L} \\quad\\text{(flat, W/m}^2).
+
+Reference: Carslaw and Jaeger, *Conduction of Heat in Solids*, 2nd ed. (1959), §1.7
+(the Kirchhoff transformation); ASTM C680-19, §7 uses the same integral of k(T).
+A constant conductivity is the one-point case, where :math:`\\Theta = kT`.
+"""
+
+from __future__ import annotations
+
+import functools
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+__all__ = ["Conductivity", "conductivity_of", "cylinder_shape_m", "critical_radius_m"]
+
+
+@dataclass(frozen=True)
+class Conductivity:
+    """k(T) = c0 + c1·T + c2·T² [W/(m·K)], T in °C, held constant outside [t_lo_c, t_hi_c].
+
+    >>> k = Conductivity.constant(0.040)
+    >>> float(k.potential(100.0) - k.potential(20.0))
+    3.2
+    >>> k = Conductivity.from_points([(10, 0.033), (50, 0.037), (100, 0.043)], -20, 250)
+    >>> round(float(k.conductivity(50.0)), 4)
+    0.037
+    """
+
+    coefficients: tuple[float, float, float]
+    t_lo_c: float
+    t_hi_c: float
+
+    @classmethod
+    def constant(cls, k_w_mk: float) -> "Conductivity":
+        return cls((float(k_w_mk), 0.0, 0.0), -273.15, 5000.0)
+
+    @classmethod
+    def from_points(cls, points, t_lo_c: float, t_hi_c: float) -> "Conductivity":
+        """Least-squares polynomial through (mean temperature °C, k W/(m·K)) points.
+
+        The degree is ``min(2, n - 1)``; if the quadratic is not positive over the range
+        the degree drops to a straight line, which keeps k(T) > 0 for catalogue data.
+        """
+        pts = np.asarray(points, dtype=float).reshape(-1, 2)
+        if len(pts) == 1:
+            return cls.constant(pts[0, 1])
+        lo, hi = float(t_lo_c), float(t_hi_c)
+        for degree in range(min(2, len(pts) - 1), 0, -1):
+            c = np.polynomial.polynomial.polyfit(pts[:, 0], pts[:, 1], degree)
+            c = tuple(float(x) for x in np.pad(c, (0, 3 - len(c))))
+            fit = cls(c, lo, hi)
+            if np.all(fit.conductivity(np.linspace(lo, hi, 200)) > 0):
+                return fit
+        raise ValueError(f"conductivity points {points} give no positive fit over {lo} to {hi} °C")
+
+    def conductivity(self, temp_c):
+        """k at *temp_c* [W/(m·K)]."""
+        c0, c1, c2 = self.coefficients
+        t = np.clip(temp_c, self.t_lo_c, self.t_hi_c)
+        return c0 + t * (c1 + t * c2)
+
+    def _poly_potential(self, t):
+        c0, c1, c2 = self.coefficients
+        return t * (c0 + t * (c1 / 2 + t * c2 / 3))
+
+    def potential(self, temp_c):
+        """Kirchhoff potential Θ(T) = ∫₀ᵀ k dτ [W/m] (k held at the range ends outside it)."""
+        t = np.asarray(temp_c, dtype=float)
+        inside = np.clip(t, self.t_lo_c, self.t_hi_c)
+        below = np.minimum(t - self.t_lo_c, 0.0) * self._end_k[0]
+        above = np.maximum(t - self.t_hi_c, 0.0) * self._end_k[1]
+        return self._poly_potential(inside) + below + above
+
+    @functools.cached_property
+    def _end_k(self) -> tuple[float, float]:
+        return float(self.conductivity(self.t_lo_c)), float(self.conductivity(self.t_hi_c))
+
+    @functools.cached_property
+    def _grid(self) -> tuple[np.ndarray, np.ndarray]:
+        t = np.linspace(self.t_lo_c, self.t_hi_c, 65)
+        return t, self.potential(t)
+
+    def temperature(self, potential_w_per_m):
+        """Inverse of :meth:`potential`: the temperature [°C] whose potential is given.
+
+        Θ is strictly increasing, so the grid cell holding the target brackets the root;
+        Newton steps are kept inside that cell and stop at machine precision (at most 8).
+        """
+        theta = np.asarray(potential_w_per_m, dtype=float)
+        if self.coefficients[1] == 0.0 and self.coefficients[2] == 0.0:
+            return theta / self.coefficients[0]
+        t_grid, th_grid = self._grid
+        k_lo, k_hi = self._end_k
+        t = np.interp(theta, th_grid, t_grid)
+        t = np.where(theta < th_grid[0], self.t_lo_c + (theta - th_grid[0]) / k_lo, t)
+        t = np.where(theta > th_grid[-1], self.t_hi_c + (theta - th_grid[-1]) / k_hi, t)
+        inside = (theta >= th_grid[0]) & (theta <= th_grid[-1])
+        if not np.any(inside):
+            return t
+        cell = np.clip(np.searchsorted(th_grid, theta, side="right") - 1, 0, len(t_grid) - 2)
+        lo, hi = t_grid[cell], t_grid[cell + 1]
+        scale = np.abs(th_grid).max() + 1.0
+        for _ in range(8):
+            err = self.potential(t) - theta
+            if np.all(np.abs(err[inside]) <= 4e-16 * scale):
+                break
+            t = np.where(inside, np.clip(t - err / self.conductivity(t), lo, hi), t)
+        return t
+
+
+@functools.cache
+def _conductivity_cached(points: tuple, t_lo_c: float, t_hi_c: float) -> Conductivity:
+    return Conductivity.from_points(points, t_lo_c, t_hi_c)
+
+
+def conductivity_of(material) -> Conductivity:
+    """The fitted k(T) of a catalogue material (anything with ``points``, ``min_temp_c``,
+    ``max_temp_c``), computed once per material."""
+    return _conductivity_cached(tuple(map(tuple, material.points)), float(material.min_temp_c),
+                                float(material.max_temp_c))
+
+
+def cylinder_shape_m(inner_radius_m, outer_radius_m):
+    """ln(r2/r1)/(2π) [-]: the per-metre conduction factor of a cylindrical shell, so that
+    q' = ΔΘ / factor (for a flat layer the factor is its thickness in metres)."""
+    return np.log(np.asarray(outer_radius_m) / np.asarray(inner_radius_m)) / (2 * math.pi)
+
+
+def critical_radius_m(conductivity_w_mk, outer_coefficient_w_m2k):
+    """Critical insulation radius r_c = k/h [m] (Incropera et al., 6th ed., Eq. 3.56).
+
+    Below r_c, adding insulation to a cylinder raises its heat flow.
+
+    >>> round(critical_radius_m(0.055, 5.0) * 1000, 1)
+    11.0
+    """
+    return np.asarray(conductivity_w_mk) / np.asarray(outer_coefficient_w_m2k)

@@ -1,0 +1,105 @@
+"""The result of a solve: arrays in SI, the inputs that produced them, and warnings."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Any
+
+import numpy as np
+
+__all__ = ["Result"]
+
+
+def _plain(x):
+    """numpy → JSON-ready Python (scalars stay scalars, arrays become nested lists)."""
+    if x is None:
+        return None
+    arr = np.asarray(x)
+    if arr.dtype == bool:
+        return arr.tolist()
+    return np.round(arr.astype(float), 9).tolist()
+
+
+@dataclass
+class Result:
+    """Heat flow and temperatures of solved cases; every array has the cases' shape.
+
+    ``heat_flow_w_per_m`` is per metre of pipe (per m² of face for a flat wall) and
+    positive when heat leaves the fluid.  ``interface_temps_c`` stacks, along its first
+    axis: the bore (inner wall face), the pipe's outside, then the outer face of each
+    layer; the last equals ``surface_temp_c``.
+    """
+
+    heat_flow_w_per_m: np.ndarray
+    outer_heat_flux_w_m2: np.ndarray
+    surface_temp_c: np.ndarray
+    interface_temps_c: np.ndarray
+    h_conv_w_m2k: np.ndarray
+    h_rad_w_m2k: np.ndarray
+    outer_diameter_m: np.ndarray | None
+    residual_w_per_m: float
+    iterations: int
+    dew_point_c: np.ndarray | None
+    touch_limit_c: float | None
+    geometry: str
+    warnings: list[str] = field(default_factory=list)
+    inputs: dict[str, Any] = field(default_factory=dict, repr=False)
+
+    @property
+    def shape(self) -> tuple[int, ...]:
+        return np.shape(self.heat_flow_w_per_m)
+
+    @property
+    def surface_below_dew_point(self) -> np.ndarray | None:
+        if self.dew_point_c is None:
+            return None
+        return self.surface_temp_c < self.dew_point_c
+
+    @property
+    def over_touch_limit(self) -> np.ndarray | None:
+        if self.touch_limit_c is None:
+            return None
+        return self.surface_temp_c > self.touch_limit_c
+
+    def layer_heat_flows_w_per_m(self) -> np.ndarray:
+        """Heat flow through the wall and every layer, recomputed from the interface
+        temperatures (an energy-balance check: each equals ``heat_flow_w_per_m``)."""
+        from .physics import conduction
+
+        pipe, layers = self.inputs["pipe"], self.inputs["layers"]
+        temps = self.interface_temps_c
+        flat = self.geometry == "flat"
+        if flat:
+            factors = [np.asarray(pipe.wall_m)] + [np.asarray(l.thickness_m) for l in layers]
+        else:
+            radii = [np.asarray(pipe.outer_diameter_m) / 2 - np.asarray(pipe.wall_m),
+                     np.asarray(pipe.outer_diameter_m) / 2]
+            for layer in layers:
+                radii.append(radii[-1] + np.asarray(layer.thickness_m))
+            factors = [conduction.cylinder_shape_m(radii[j], radii[j + 1]) for j in range(len(radii) - 1)]
+        flows = [(temps[0] - temps[1]) * np.asarray(pipe.wall_conductivity_w_mk) / factors[0]]
+        for j, layer in enumerate(layers):
+            fit = conduction.conductivity_of(layer.material)
+            flows.append((fit.potential(temps[j + 1]) - fit.potential(temps[j + 2])) / factors[j + 1])
+        return np.stack([np.broadcast_to(f, self.shape) for f in flows])
+
+    def to_dict(self) -> dict[str, Any]:
+        """JSON-ready dict in SI (scalars for a single case, nested lists for arrays)."""
+        interfaces = np.moveaxis(self.interface_temps_c, 0, -1)
+        return {
+            "heat_flow_w_per_m" if self.geometry == "cylinder" else "heat_flow_w_per_m2":
+                _plain(self.heat_flow_w_per_m),
+            "heat_flux_w_m2": _plain(self.outer_heat_flux_w_m2),
+            "surface_temp_c": _plain(self.surface_temp_c),
+            "interface_temps_c": _plain(interfaces),
+            "h_conv_w_m2k": _plain(self.h_conv_w_m2k),
+            "h_rad_w_m2k": _plain(self.h_rad_w_m2k),
+            "outer_diameter_m": _plain(self.outer_diameter_m),
+            "dew_point_c": _plain(self.dew_point_c),
+            "surface_below_dew_point": _plain(self.surface_below_dew_point),
+            "touch_limit_c": self.touch_limit_c,
+            "over_touch_limit": _plain(self.over_touch_limit),
+            "iterations": self.iterations,
+            "residual_w_per_m": self.residual_w_per_m,
+            "warnings": list(self.warnings),
+        }
