@@ -1,0 +1,35 @@
+"""``pipeins check``: heat flow and temperatures of one line."""
+
+from __future__ import annotations
+
+import click
+
+from .options import emit, line_options, output_options, spec_from_options
+
+
+@click.command()
+@line_options
+@output_options
+def check(fmt, units, output, **opts):
+    """Heat flow and temperatures of one insulated (or bare) line.
+
+    Solves the resistance network from the fluid outward: inner film, pipe wall, each
+    layer with its conductivity varying with temperature, and the outer surface losing
+    heat by convection and radiation. Prints the heat flow per metre, the surface and
+    interface temperatures, the outer film coefficients, the dew point (with --rh) and
+    warnings. JSON output is SI whatever --units says.
+
+    \b
+    Example:
+      pipeins check --pipe "NPS 4" --fluid-temp 180C --ambient-temp 25C \\
+          --layer "mineral wool:50mm" --finish "aluminium jacket, oxidised"
+      pipeins check --pipe DN50 --fluid-temp 6C --ambient-temp 28C --rh 75 \\
+          --layer "flexible elastomeric foam:19mm" --format json
+    """
+    from ..reports.check import check_report
+    from ..runs import run_extras
+
+    spec = spec_from_options(opts, units)
+    result = spec.solve()
+    rows, data, warnings = run_extras(spec, result, units)
+    emit(check_report(spec, result, units, rows, data, warnings), fmt, units, output)

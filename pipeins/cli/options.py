@@ -1,0 +1,163 @@
+"""Options shared by the commands, and the one place that writes output.
+
+Option values stay text until the command runs: a bare number is read in the unit
+system chosen by ``--units``, which click may parse after the number itself.
+"""
+
+from __future__ import annotations
+
+import os
+import tempfile
+
+import click
+
+__all__ = ["line_options", "output_options", "spec_from_options", "emit", "parse_layer"]
+
+
+def _opt(*names, **kw):
+    return click.option(*names, **kw)
+
+
+LINE_OPTIONS = [
+    _opt("--pipe", help='Catalogue size: "NPS 2", DN50, "copper L 1-1/8".'),
+    _opt("--schedule", help="Steel schedule (default 40): 5S, 10S, 10, 20, 30, 40, STD, 80, XS, 120, 160, XXS."),
+    _opt("--od", help="Outside diameter of a pipe not in the catalogues, e.g. 60.3mm."),
+    _opt("--wall", help="Wall thickness with --od, e.g. 3.91mm."),
+    _opt("--pipe-material", help="Pipe wall material (default by pipe kind), e.g. stainless steel."),
+    _opt("--fluid-temp", help="Fluid temperature, e.g. 82C, 180F."),
+    _opt("--steam-pressure", help="Saturated steam pressure instead of --fluid-temp, e.g. 10barg, 150psig."),
+    _opt("--fluid", help='Fluid for the inner film and runs: water, "30% ethylene glycol", a CoolProp name.'),
+    _opt("--velocity", help="Mean fluid velocity, e.g. 1.5m/s."),
+    _opt("--flow", help="Fluid flow, e.g. 5m3/h, 2L/s, 1.2kg/s, 20gpm, 5000lb/h."),
+    _opt("--inner-h", help="Fixed inner film coefficient, W/(m²·K) (or with a unit)."),
+    _opt("--ambient-temp", default=None, help="Air temperature (default 20 °C)."),
+    _opt("--surroundings-temp", help="Mean radiant temperature of the surroundings (default: the air's)."),
+    _opt("--rh", help="Relative humidity of the air, percent (gives the dew point)."),
+    _opt("--wind", default=None, help="Wind speed across the pipe (default still air), e.g. 3m/s, 7mph."),
+    _opt("--orientation", type=click.Choice(["horizontal", "vertical"]), default="horizontal",
+         show_default=True, help="Run orientation."),
+    _opt("--height", help="Height of a vertical run, e.g. 6m."),
+    _opt("--air-pressure", help="Air pressure, e.g. 95kPa (default 101.325 kPa)."),
+    _opt("--altitude", help="Site altitude instead of --air-pressure (standard atmosphere), e.g. 1500m."),
+    _opt("--layer", "layers", multiple=True, metavar="MATERIAL:THICKNESS",
+         help='Insulation layer, inner to outer, repeatable: "mineral wool:50mm", "k=0.040:2in".'),
+    _opt("--finish", help='Outer finish from the catalogue, e.g. "aluminium jacket, oxidised".'),
+    _opt("--emittance", help="Outer surface emittance (0 to 1) instead of or over --finish."),
+    _opt("--outer-h", help="Fixed combined outer coefficient, W/(m²·K): replaces convection and radiation."),
+    _opt("--touch-limit", help="Surface temperature limit (default 60 °C, common practice)."),
+    _opt("--length", help="Run length, e.g. 120m (totals, temperature change)."),
+]
+
+
+def line_options(func):
+    for option in reversed(LINE_OPTIONS):
+        func = option(func)
+    return func
+
+
+def output_options(func):
+    func = click.option("--output", "-o", type=click.Path(dir_okay=False, writable=True),
+                        help="Write to this file (written whole, or not at all).")(func)
+    func = click.option("--units", type=click.Choice(["si", "us"]), default="si", show_default=True,
+                        help="Default units of bare numbers and units shown.")(func)
+    func = click.option("--format", "fmt", default="text", show_default=True,
+                        help="Output format: text, json, csv or markdown.")(func)
+    return func
+
+
+def _q(opts, name, kind, units):
+    from ..units import parse_quantity
+
+    text = opts.get(name)
+    if text is None:
+        return None
+    return parse_quantity(text, kind, "--" + name.replace("_", "-"), units)
+
+
+def parse_layer(text: str, units: str, option: str = "--layer") -> tuple[str, float]:
+    """``MATERIAL:THICKNESS`` → (material, thickness_m)."""
+    from ..errors import InputError
+    from ..units import parse_quantity
+
+    if ":" not in text:
+        raise InputError(option, f'"{text}" needs MATERIAL:THICKNESS, e.g. "mineral wool:50mm" or "k=0.040:2in"')
+    material, thickness = text.rsplit(":", 1)
+    value = parse_quantity(thickness, "thickness", option, units)
+    if value <= 0:
+        raise InputError(option, f'thickness of "{material.strip()}" must be greater than zero')
+    return material.strip(), value
+
+
+def spec_from_options(opts: dict, units: str):
+    """A :class:`pipeins.line.LineSpec` from the line options (text, with units)."""
+    from ..errors import InputError
+    from ..line import LineSpec
+    from ..model import pressure_at_altitude_pa
+    from ..units import parse_quantity
+
+    q = lambda name, kind: _q(opts, name, kind, units)  # noqa: E731
+    if opts.get("air_pressure") and opts.get("altitude"):
+        raise InputError("--altitude", "give --air-pressure or --altitude, not both")
+    pressure = q("air_pressure", "pressure")
+    if opts.get("altitude"):
+        pressure = float(pressure_at_altitude_pa(q("altitude", "length")))
+    flow = None
+    if opts.get("flow"):
+        flow = parse_quantity(opts["flow"], "flow", "--flow", units)
+        if flow.value_si <= 0:
+            raise InputError("--flow", "flow must be greater than zero")
+    velocity = q("velocity", "speed")
+    if velocity is not None and velocity <= 0:
+        raise InputError("--velocity", "velocity must be greater than zero")
+    rh = q("rh", "percent")
+    emittance = opts.get("emittance")
+    if emittance is not None:
+        try:
+            emittance = float(emittance)
+        except ValueError:
+            raise InputError("--emittance", f'cannot read "{emittance}" as an emittance; use a number above 0 and at most 1') from None
+    ambient = q("ambient_temp", "temperature")
+    touch = q("touch_limit", "temperature")
+    kw = dict(
+        pipe=opts.get("pipe"), schedule=opts.get("schedule"),
+        outer_diameter_m=q("od", "diameter"), wall_m=q("wall", "thickness"),
+        pipe_material=opts.get("pipe_material"),
+        layers=tuple(parse_layer(text, units) for text in opts.get("layers") or ()),
+        fluid_temp_c=q("fluid_temp", "temperature"), steam_pressure_pa=q("steam_pressure", "pressure"),
+        fluid=opts.get("fluid"), velocity_m_s=velocity, flow=flow,
+        inner_h_w_m2k=q("inner_h", "heat_transfer_coefficient"),
+        air_temp_c=20.0 if ambient is None else ambient,
+        surroundings_temp_c=q("surroundings_temp", "temperature"),
+        rh_percent=rh, wind_m_s=q("wind", "speed") or 0.0,
+        orientation=opts.get("orientation") or "horizontal", height_m=q("height", "length"),
+        finish=opts.get("finish"), emittance=emittance,
+        outer_h_w_m2k=q("outer_h", "heat_transfer_coefficient"),
+        length_m=q("length", "length"),
+    )
+    if pressure is not None:
+        kw["pressure_pa"] = pressure
+    if touch is not None:
+        kw["touch_limit_c"] = touch
+    if kw["length_m"] is not None and kw["length_m"] <= 0:
+        raise InputError("--length", "run length must be greater than zero")
+    return LineSpec(**kw)
+
+
+def emit(report, fmt: str, units: str, output: str | None) -> None:
+    """Render *report* and print it, or write it whole to *output* (atomically)."""
+    from ..reports import render
+
+    text = render(report, fmt, units)
+    if output is None:
+        click.echo(text, nl=False)
+        return
+    folder = os.path.dirname(os.path.abspath(output))
+    fd, tmp = tempfile.mkstemp(dir=folder, prefix=".pipeins-", suffix=".tmp")
+    try:
+        with os.fdopen(fd, "w", encoding="utf-8") as fh:
+            fh.write(text)
+        os.replace(tmp, output)
+    except BaseException:
+        if os.path.exists(tmp):
+            os.unlink(tmp)
+        raise

@@ -1,0 +1,126 @@
+"""The report of one solved line: inputs echoed, results, temperatures through the wall."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from . import Column, Report, Table
+from .cautions import cautions_for
+
+__all__ = ["check_report", "check_data", "describe_line"]
+
+
+def _f(x):
+    return None if x is None else float(np.asarray(x).ravel()[0])
+
+
+def describe_line(spec, result, units: str) -> list[list[str]]:
+    """(item, description) rows echoing what was solved, in display units."""
+    from ..units import format_quantity as fq
+
+    pipe, layers = result.inputs["pipe"], result.inputs["layers"]
+    fluid, air, surface = result.inputs["fluid"], result.inputs["surroundings"], result.inputs["surface"]
+    rows = []
+    label = pipe.label or "custom pipe"
+    rows.append(["pipe", f"{label}: OD {fq(_f(pipe.outer_diameter_m), 'diameter', units)}, "
+                         f"wall {fq(_f(pipe.wall_m), 'diameter', units)}, {pipe.wall_material}"])
+    if spec.steam_pressure_pa is not None:
+        what = (f"saturated steam at {fq(spec.steam_pressure_pa, 'pressure', units)} abs, "
+                f"{fq(_f(fluid.temp_c), 'temperature', units)}")
+    else:
+        what = f"{spec.fluid or 'fluid'} at {fq(_f(fluid.temp_c), 'temperature', units)}"
+    film = ("no inner film (bore at fluid temperature)" if fluid.film_coefficient_w_m2k is None else
+            f"inner film {fq(_f(fluid.film_coefficient_w_m2k), 'heat_transfer_coefficient', units)}")
+    rows.append(["fluid", f"{what}; {film}"])
+    if layers:
+        for j, layer in enumerate(layers, 1):
+            rows.append([f"layer {j}", f"{layer.material.name}, {fq(_f(layer.thickness_m), 'thickness', units)}"])
+    else:
+        rows.append(["layers", "none (bare pipe)"])
+    if surface.fixed_coefficient_w_m2k is not None:
+        rows.append(["outer surface", "fixed combined coefficient "
+                     f"{fq(_f(surface.fixed_coefficient_w_m2k), 'heat_transfer_coefficient', units)}"])
+    else:
+        rows.append(["outer surface", f"{surface.name}, emittance {_f(surface.emittance):.2f}"])
+    wind = _f(air.wind_speed_m_s)
+    air_text = (f"air {fq(_f(air.air_temp_c), 'temperature', units)}, radiant "
+                f"{fq(_f(air.radiant_temp_c), 'temperature', units)}, "
+                + ("still air" if wind == 0 else f"wind {fq(wind, 'speed', units)}")
+                + f", {fq(_f(air.pressure_pa), 'pressure', units)}, {air.orientation}")
+    if air.orientation == "vertical":
+        air_text += f" over {fq(_f(air.height_m), 'length', units)}"
+    if air.relative_humidity_percent is not None:
+        air_text += f", RH {_f(air.relative_humidity_percent):.0f} %"
+    rows.append(["surroundings", air_text])
+    return rows
+
+
+def check_data(spec, result, extra: dict | None = None) -> dict:
+    """The JSON payload of a check (SI)."""
+    data = {"line": spec_summary(spec, result)}
+    data.update(result.to_dict())
+    if extra:
+        data.update(extra)
+    return data
+
+
+def spec_summary(spec, result) -> dict:
+    pipe = result.inputs["pipe"]
+    return {
+        "pipe": pipe.label,
+        "outer_diameter_m": _f(pipe.outer_diameter_m),
+        "wall_m": _f(pipe.wall_m),
+        "wall_material": pipe.wall_material,
+        "layers": [{"material": l.material.name, "thickness_m": _f(l.thickness_m)}
+                   for l in result.inputs["layers"]],
+        "fluid_temp_c": _f(result.inputs["fluid"].temp_c),
+        "air_temp_c": _f(result.inputs["surroundings"].air_temp_c),
+        "surroundings_temp_c": _f(result.inputs["surroundings"].radiant_temp_c),
+        "wind_m_s": _f(result.inputs["surroundings"].wind_speed_m_s),
+        "emittance": _f(result.inputs["surface"].emittance),
+    }
+
+
+def check_report(spec, result, units: str = "si", extra_rows=(), extra_data=None,
+                 extra_warnings=(), title: str | None = None) -> Report:
+    """The report of a single solved line."""
+    layers = result.inputs["layers"]
+    q = _f(result.heat_flow_w_per_m)
+    main = Table("Results", [
+        Column("heat flow", "heat_flow_per_length"),
+        Column("outer heat flux", "heat_flux"),
+        Column("surface", "temperature"),
+        Column("h conv", "heat_transfer_coefficient"),
+        Column("h rad", "heat_transfer_coefficient"),
+        Column("dew point", "temperature"),
+    ], [[q, _f(result.outer_heat_flux_w_m2), _f(result.surface_temp_c), _f(result.h_conv_w_m2k),
+         _f(result.h_rad_w_m2k), _f(result.dew_point_c)]],
+        note=("heat flow is positive out of the fluid (loss); negative means heat gain"
+              if q < 0 else ""))
+    pipe = result.inputs["pipe"]
+    od = _f(pipe.outer_diameter_m)
+    diameters = [od - 2 * _f(pipe.wall_m), od]
+    for layer in layers:
+        diameters.append(diameters[-1] + 2 * _f(layer.thickness_m))
+    names = ["bore", "pipe outside"] + [f"outside layer {j} ({l.material.name})" for j, l in enumerate(layers, 1)]
+    temps = [_f(t) for t in result.interface_temps_c]
+    wall = Table("Temperatures through the wall", [Column("position"), Column("diameter", "diameter"),
+                                                   Column("temperature", "temperature")],
+                 [[n, d, t] for n, d, t in zip(names, diameters, temps)])
+    line = Table("Line", [Column("item"), Column("description")], describe_line(spec, result, units))
+    tables = [line, main, wall]
+    if extra_rows:
+        tables.append(Table("Along the run and over time", [Column("item"), Column("value")], list(extra_rows)))
+    warnings = list(result.warnings) + list(extra_warnings)
+    surface = _f(result.surface_temp_c)
+    if result.touch_limit_c is not None and surface > result.touch_limit_c:
+        warnings.append(f"surface {surface:.1f} °C is above the touch limit of {result.touch_limit_c:g} °C")
+    if result.dew_point_c is not None and surface < _f(result.dew_point_c):
+        warnings.append(f"surface {surface:.1f} °C is below the dew point {_f(result.dew_point_c):.1f} °C: "
+                        "it will sweat")
+    report = Report(title or f"Heat flow check: {pipe.label or 'custom pipe'}", tables,
+                    check_data(spec, result, extra_data), warnings,
+                    cautions_for(spec, result), csv_table=1)
+    report.data["warnings"] = warnings
+    report.data["cautions"] = report.cautions
+    return report
