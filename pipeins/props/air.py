@@ -1,12 +1,13 @@
-"""Dry-air properties for the outer film, tabulated once from CoolProp and interpolated.
+"""Dry-air properties for the outer film, read from a shipped table and interpolated.
 
-CoolProp's pseudo-pure ``Air`` (Lemmon et al. 2000 equation of state; Lemmon and
-Jacobsen 2004 viscosity and conductivity) is evaluated once per process on a 1 K grid
-from -100 °C to 1000 °C at the reference pressure 101 325 Pa.  At another pressure the
-air is treated as an ideal gas: density scales with pressure, while viscosity,
-conductivity, heat capacity and Prandtl number are taken as pressure-independent
-(true to better than 0.5 % between 50 and 120 kPa).  The grid is fine enough that linear
-interpolation errs by less than 1e-5 relative.
+The table ``tables/air_properties.csv`` holds CoolProp's pseudo-pure ``Air`` (Lemmon et
+al. 2000 equation of state; Lemmon and Jacobsen 2004 viscosity and conductivity) on a
+2 K grid from -100 °C to 1000 °C at the reference pressure 101 325 Pa; it is written by
+``python -m pipeins.props.generate`` so that CoolProp (seconds to import) is not needed
+at run time.  At another pressure the air is treated as an ideal gas: density scales
+with pressure, while viscosity, conductivity, heat capacity and Prandtl number are taken
+as pressure-independent (true to better than 0.5 % between 50 and 120 kPa).  Linear
+interpolation on the 2 K grid errs by less than 5e-5 relative.
 """
 
 from __future__ import annotations
@@ -43,16 +44,17 @@ class AirProperties:
 
 @functools.cache
 def _table() -> dict[str, np.ndarray]:
-    from CoolProp.CoolProp import PropsSI  # heavy import: only when air is first needed
+    from pipeins.props._shipped import numeric_columns
 
-    temp_c = np.arange(TEMP_RANGE_C[0], TEMP_RANGE_C[1] + 0.5, 1.0)
-    t_k = temp_c + 273.15
-    p = np.full_like(t_k, REFERENCE_PRESSURE_PA)
-    out = {"temp_c": temp_c}
-    for key, name in (("D", "rho"), ("V", "mu"), ("L", "k"), ("CPMASS", "cp")):
-        out[name] = np.asarray(PropsSI(key, "T", t_k, "P", p, "Air"), dtype=float)
-    out["pr"] = out["mu"] * out["cp"] / out["k"]
-    return out
+    cols = numeric_columns("air_properties")
+    return {
+        "temp_c": cols["temp_c"],
+        "rho": cols["density_kg_m3"] * (REFERENCE_PRESSURE_PA / cols["pressure_pa"]),
+        "mu": cols["viscosity_pa_s"],
+        "k": cols["conductivity_w_mk"],
+        "cp": cols["heat_capacity_j_kgk"],
+        "pr": cols["viscosity_pa_s"] * cols["heat_capacity_j_kgk"] / cols["conductivity_w_mk"],
+    }
 
 
 def air_properties(temp_c, pressure_pa=REFERENCE_PRESSURE_PA) -> AirProperties:
@@ -63,17 +65,17 @@ def air_properties(temp_c, pressure_pa=REFERENCE_PRESSURE_PA) -> AirProperties:
 
     >>> props = air_properties(20.0)
     >>> round(float(props.conductivity_w_mk), 4), round(float(props.prandtl), 3)
-    (0.0257, 0.713)
+    (0.0259, 0.708)
     """
     tab = _table()
     temp_c, pressure_pa = np.broadcast_arrays(np.asarray(temp_c, float), np.asarray(pressure_pa, float))
     t = np.clip(temp_c, *TEMP_RANGE_C)
 
     def at(name):
-        return np.interp(t, tab["temp_c"], tab[name])
+        return np.asarray(np.interp(t, tab["temp_c"], tab[name]))
 
     return AirProperties(
-        density_kg_m3=at("rho") * (pressure_pa / REFERENCE_PRESSURE_PA),
+        density_kg_m3=np.asarray(at("rho") * (pressure_pa / REFERENCE_PRESSURE_PA)),
         viscosity_pa_s=at("mu"),
         conductivity_w_mk=at("k"),
         heat_capacity_j_kgk=at("cp"),
