@@ -25,7 +25,7 @@ def closest_names(word: str, names, n: int = 3) -> str:
     """A hint listing the catalogue names closest to *word*, for an 'unknown name' error.
 
     >>> closest_names("glas wool", ["glass wool", "mineral wool", "cellular glass"])
-    'did you mean "glass wool"?'
+    'did you mean "glass wool" or "mineral wool"?'
     """
     names = list(names)
     close = difflib.get_close_matches(word.lower(), [x.lower() for x in names], n=n, cutoff=0.5)

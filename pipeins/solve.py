@@ -48,7 +48,7 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
     >>> r = solve(Pipe(0.0603, 0.0039), [Layer(lookup_material("k=0.040"), 0.040)],
     ...           Fluid(80.0), Surroundings(20.0))
     >>> round(float(r.heat_flow_w_per_m), 1), round(float(r.surface_temp_c), 1)
-    (16.0, 23.2)
+    (16.5, 24.6)
     """
     flat = isinstance(pipe, FlatWall)
     radiant_c = surroundings.radiant_temp_c

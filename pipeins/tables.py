@@ -20,7 +20,10 @@ def _tables_dir():
     packaged = resources.files("pipeins").joinpath("tables")
     if packaged.is_dir():
         return packaged
-    return Path(__file__).resolve().parent.parent / "tables"
+    checkout = Path(__file__).resolve().parent.parent
+    if (checkout / "pyproject.toml").is_file() and (checkout / "tables").is_dir():
+        return checkout / "tables"
+    raise FileNotFoundError("pipeins: reference tables not found; reinstall the package")
 
 
 def table_path(name: str):

@@ -9,6 +9,7 @@ one line ``Error: …`` on standard error and exit status 2.
 from __future__ import annotations
 
 import importlib
+import importlib.util
 import sys
 
 import click

@@ -149,7 +149,7 @@ def critical_radius_m(conductivity_w_mk, outer_coefficient_w_m2k):
 
     Below r_c, adding insulation to a cylinder raises its heat flow.
 
-    >>> round(critical_radius_m(0.055, 5.0) * 1000, 1)
+    >>> round(float(critical_radius_m(0.055, 5.0)) * 1000, 1)
     11.0
     """
     return np.asarray(conductivity_w_mk) / np.asarray(outer_coefficient_w_m2k)
