@@ -97,11 +97,20 @@ class LineSpec:
             raise InputError("--pipe", "give a pipe size (NPS 2, DN50, copper L 1-1/8) or both --od and --wall")
         return pipes.custom_pipe(self.outer_diameter_m, self.wall_m)
 
-    def build_pipe(self) -> Pipe:
-        from .catalog.materials import lookup_wall_material
+    def build_pipe(self, sizes=None) -> Pipe:
+        """The pipe; with *sizes* (a list of catalogue sizes) one row per size, shape (n, 1)."""
+        from .catalog.materials import default_wall_material, lookup_wall_material
 
-        wall = lookup_wall_material(self.pipe_material) if self.pipe_material else None
-        return Pipe.from_size(self.pipe_size(), wall)
+        if sizes is None:
+            sizes = [self.pipe_size()]
+            shape = ()
+        else:
+            shape = (len(sizes), 1)
+        wall = lookup_wall_material(self.pipe_material) if self.pipe_material else default_wall_material(sizes[0].kind)
+        od = np.reshape([s.outer_diameter_m for s in sizes], shape or ())
+        walls = np.reshape([s.wall_m for s in sizes], shape or ())
+        label = sizes[0].label if len(sizes) == 1 else f"{sizes[0].label} to {sizes[-1].label}"
+        return Pipe(od, walls, wall.conductivity_w_mk, label, wall.name)
 
     def build_layers(self) -> list[Layer]:
         from .catalog.materials import lookup_material
@@ -139,7 +148,10 @@ class LineSpec:
         return Surroundings(self.air_temp_c, self.surroundings_temp_c, self.wind_m_s, self.rh_percent,
                             self.pressure_pa, self.orientation, self.height_m)
 
-    def build_surface(self) -> Surface:
+    def build_surface(self, insulated: bool | None = None) -> Surface:
+        """The outer surface: the finish, the emittance, or a fixed coefficient.  Without
+        either, a bare pipe (no layers, unless *insulated*) is oxidised steel and an
+        insulated one a painted or plastic jacket (emittance 0.9)."""
         from .catalog.finishes import lookup_finish
 
         if self.outer_h_w_m2k is not None:
@@ -152,8 +164,8 @@ class LineSpec:
             return surface
         if self.emittance is not None:
             return Surface(self.emittance, f"surface of emittance {self.emittance:g}")
-        if not self.layers:
-            return Surface.from_finish(lookup_finish("bare oxidised steel"))
+        if not (self.layers or insulated):
+            return Surface.from_finish(lookup_finish("bare_steel_oxidised"))
         return Surface()
 
     def with_outer_thickness(self, thickness_m) -> "LineSpec":
@@ -163,8 +175,12 @@ class LineSpec:
         name, _ = self.layers[-1]
         return replace(self, layers=self.layers[:-1] + ((name, thickness_m),))
 
+    def build_model(self, sizes=None, insulated: bool | None = None):
+        """(pipe, layers, fluid, surroundings, surface) ready for :func:`pipeins.solve.solve`."""
+        pipe = self.build_pipe(sizes)
+        return (pipe, self.build_layers(), self.build_fluid(pipe), self.build_surroundings(),
+                self.build_surface(insulated))
+
     def solve(self):
         """Solve the line (arrays broadcast as in :func:`pipeins.solve.solve`)."""
-        pipe = self.build_pipe()
-        return solve(pipe, self.build_layers(), self.build_fluid(pipe), self.build_surroundings(),
-                     self.build_surface(), touch_limit_c=self.touch_limit_c)
+        return solve(*self.build_model(), touch_limit_c=self.touch_limit_c)

@@ -88,6 +88,11 @@ class Criterion:
         """A plain sentence saying by how much the criterion misses at *thickness_m*."""
         raise NotImplementedError
 
+    def state(self, problem: SizingProblem, result, index: int) -> str:
+        """How the solved case *index* stands against the criterion (for reports)."""
+        margin = np.ravel(self.margin(problem, result, None))[index]
+        return f"margin {margin:.3g}"
+
 
 @dataclass
 class TouchSafety(Criterion):
@@ -104,6 +109,10 @@ class TouchSafety(Criterion):
     def describe(self):
         return f"surface at or below {self.limit_c:g} °C ({self.source})" if self.source else \
             f"surface at or below {self.limit_c:g} °C"
+
+    def state(self, problem, result, index):
+        ts = float(np.ravel(result.surface_temp_c)[index])
+        return f"surface {ts:.1f} °C, {self.limit_c - ts:.1f} K below the {self.limit_c:g} °C limit"
 
     def miss(self, margin, thickness_m):
         return (f"touch safety cannot be met: with {thickness_m * 1000:.0f} mm the surface is still "
@@ -125,6 +134,11 @@ class Condensation(Criterion):
 
     def describe(self):
         return f"surface at least {self.margin_k:g} K above the dew point"
+
+    def state(self, problem, result, index):
+        ts = float(np.ravel(result.surface_temp_c)[index])
+        dew = float(np.ravel(np.broadcast_to(result.dew_point_c, result.shape))[index])
+        return f"surface {ts:.1f} °C, {ts - dew:.1f} K above the dew point {dew:.1f} °C"
 
     def miss(self, margin, thickness_m):
         return (f"condensation control cannot be met: with {thickness_m * 1000:.0f} mm the surface is still "
@@ -170,6 +184,11 @@ class HeatFlowCap(Criterion):
             parts.append(f"at least {100 * self.min_reduction:g} % below the bare line")
         return " and ".join(parts)
 
+    def state(self, problem, result, index):
+        q = abs(float(np.ravel(result.heat_flow_w_per_m)[index]))
+        cap = float(np.ravel(np.broadcast_to(self.cap(problem), result.shape))[index])
+        return f"|heat flow| {q:.1f} W/m, {100 * (cap - q) / cap:.0f} % under the cap of {cap:.1f} W/m"
+
     def miss(self, margin, thickness_m):
         return (f"heat-flow cap cannot be met: with {thickness_m * 1000:.0f} mm the heat flow is still "
                 f"{-100 * margin:.1f} % above the cap")
@@ -185,6 +204,8 @@ class CriterionOutcome:
     required_m: np.ndarray
     feasible: np.ndarray
     messages: list[str]
+    commercial_m: np.ndarray | None = None
+    source: str = ""
 
 
 @dataclass
@@ -208,6 +229,14 @@ class SizingOutcome:
             value = c.required_m[index]
             out[c.key] = None if not np.isfinite(value) else round(float(value) * 1000, 2)
         return out
+
+
+def _least_passing(passes, totals):
+    """Per row, the least total from which on every larger one passes (nan if none)."""
+    fail = ~passes
+    last = np.where(fail.any(axis=1), totals.size - 1 - np.argmax(fail[:, ::-1], axis=1), -1)
+    ok = last < totals.size - 1
+    return np.where(ok, totals[np.clip(last + 1, 0, totals.size - 1)], np.nan)
 
 
 def _margins(criteria, problem, thickness):
@@ -264,23 +293,30 @@ def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequen
     # Commercial: single layers of the series, then sums of two (same material, so a
     # two-layer build-up conducts like one layer of the sum).
     if max_layers >= 2:
-        pairs = sorted({(a, b) for a in series for b in series if b <= a} , key=lambda p: (p[0] + p[1], -p[0]))
-        totals = np.array([a + b for a, b in pairs])
-        keep = totals > series[-1]
-        options = [(t,) for t in series] + [p for p, k in zip(pairs, keep) if k]
+        # Per total, the most even pair (joints staggered in two similar layers is the usual practice).
+        best = {}
+        for a in series:
+            for b in series[series <= a]:
+                total = round(float(a + b), 9)
+                if total > series[-1] and (total not in best or a - b < best[total][0] - best[total][1]):
+                    best[total] = (float(a), float(b))
+        options = [(float(t),) for t in series] + list(best.values())
     else:
         options = [(t,) for t in series]
-    option_totals = np.array([sum(o) for o in options])
+    option_totals = np.array([round(sum(o), 9) for o in options])
     order = np.argsort(option_totals, kind="stable")
     options = [options[i] for i in order]
     option_totals = option_totals[order]
     option_margins, _ = _margins(criteria, problem, np.broadcast_to(option_totals, (n, option_totals.size)))
     passes = np.ones((n, option_totals.size), dtype=bool)
-    for m in option_margins:
+    for outcome, m in zip(outcomes, option_margins):
+        outcome.commercial_m = _least_passing(m >= 0, option_totals)
         passes &= m >= 0
     for extra in extra_required:
         need = np.where(np.isfinite(extra.required_m), extra.required_m, np.inf)
-        passes &= option_totals[None, :] >= need[:, None] - 1e-9
+        ok = option_totals[None, :] >= need[:, None] - 1e-9
+        extra.commercial_m = _least_passing(ok, option_totals)
+        passes &= ok
     # least option from which on every thicker one passes
     fail_any = ~passes
     last_fail = np.where(fail_any.any(axis=1),

@@ -1,0 +1,80 @@
+"""Options shared by ``size`` and ``table``: the layer to size, the series and the criteria."""
+
+from __future__ import annotations
+
+import re
+
+import click
+
+__all__ = ["sizing_options", "requirements_from_options", "parse_series"]
+
+SIZING_OPTIONS = [
+    click.option("--material", required=True,
+                 help='The layer to size (outermost): a catalogue material or "k=0.040".'),
+    click.option("--series", help="Thickness series name (see `pipeins list series`) or a list, e.g. "
+                                  '"25,40,50,80mm" or "1,1.5,2in". Default: the material\'s series.'),
+    click.option("--no-touch-check", is_flag=True, help="Do not size for touch safety on hot lines."),
+    click.option("--contact-time", help="Pick the touch limit from burn thresholds for this contact "
+                                        "time (1 s to 8 h) and the finish's kind of surface."),
+    click.option("--dew-margin", help="Surface margin above the dew point on cold lines (default 1 K, "
+                                      "common practice)."),
+    click.option("--max-heat-flow", help="Cap on the magnitude of the heat flow, e.g. 30W/m."),
+    click.option("--min-reduction", help="Least reduction against the bare line, e.g. 90%."),
+    click.option("--max-temp-change", help="Cap on the fluid temperature change over --length at --flow."),
+    click.option("--hold-time", help="Still water must stay above 0 °C this long, e.g. 8h."),
+    click.option("--ice-fraction", help="With --hold-time: the ice fraction allowed to form (default 0)."),
+]
+
+
+def sizing_options(func):
+    for option in reversed(SIZING_OPTIONS):
+        func = option(func)
+    return func
+
+
+def parse_series(text: str | None, units: str):
+    """A series name, or a comma list of thicknesses (a unit on the last item applies to
+    the bare ones before it), as a tuple in metres."""
+    from ..units import parse_quantity
+
+    if text is None:
+        return None
+    items = [x.strip() for x in text.split(",") if x.strip()]
+    if len(items) == 1 and not re.match(r"^[\d.]", items[0]):
+        return items[0]
+    if not items:
+        from ..errors import InputError
+
+        raise InputError("--series", "the thickness series needs at least one thickness above zero")
+    unit = re.sub(r"^[\d.\s/-]+", "", items[-1])
+    values = [parse_quantity(x if re.search(r"[A-Za-z\"]", x) else x + unit, "thickness", "--series", units)
+              for x in items]
+    return tuple(values)
+
+
+def requirements_from_options(opts: dict, units: str):
+    from ..criteria import Requirements
+    from ..units import parse_quantity
+
+    def q(name, kind):
+        text = opts.get(name)
+        return None if text is None else parse_quantity(text, kind, "--" + name.replace("_", "-"), units)
+
+    kw = {}
+    if opts.get("touch_limit") is not None:
+        kw["touch_limit_c"] = q("touch_limit", "temperature")
+    if opts.get("contact_time") is not None:
+        kw["contact_time_s"] = q("contact_time", "time")
+    if opts.get("dew_margin") is not None:
+        kw["dew_margin_k"] = q("dew_margin", "temperature_difference")
+    reduction = q("min_reduction", "percent")
+    ice = q("ice_fraction", "percent")
+    return Requirements(
+        touch=not opts.get("no_touch_check"),
+        max_heat_flow_w_per_m=q("max_heat_flow", "heat_flow_per_length"),
+        min_reduction=None if reduction is None else reduction / 100,
+        max_temp_change_k=q("max_temp_change", "temperature_difference"),
+        hold_time_s=q("hold_time", "time"),
+        ice_fraction=0.0 if ice is None else ice / 100,
+        **kw,
+    )

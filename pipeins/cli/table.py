@@ -1,0 +1,57 @@
+"""``pipeins table``: the thickness table per pipe size for one service."""
+
+from __future__ import annotations
+
+import click
+
+from .options import emit, line_options, output_options, spec_from_options
+from .sizing_options import parse_series, requirements_from_options, sizing_options
+
+
+@click.command()
+@click.option("--sizes", required=True,
+              help='Size range or list: "NPS 1/2..NPS 12", DN15..DN300, "copper L 1/2..4", "NPS 1, NPS 2".')
+@click.option("--matrix", type=click.Choice(["heat-flow", "surface-temp"]),
+              help="Instead: this quantity for every size at every thickness of the series.")
+@line_options
+@sizing_options
+@output_options
+def table(fmt, units, output, sizes, matrix, material, series, **opts):
+    """Thickness table per pipe size for one service.
+
+    One row per size: the outside diameter, the least thickness each active criterion
+    needs, the selected commercial thickness, the governing criterion, and the heat flow
+    and surface temperature at that thickness. With --matrix, the heat flow per metre (or
+    the surface temperature) of every size at every thickness of the series instead, as
+    handbooks print it. Every table ends with the design conditions and the cautions.
+
+    \b
+    Example:
+      pipeins table --sizes "NPS 1/2..NPS 12" --fluid-temp 82C --ambient-temp 20C \\
+          --material "mineral wool" --max-heat-flow 25W/m --units us
+      pipeins table --sizes DN15..DN300 --fluid-temp 7C --ambient-temp 30C --rh 75 \\
+          --material "flexible elastomeric foam" --matrix surface-temp --format csv
+    """
+    from ..catalog.pipes import pipe_range
+    from ..errors import InputError
+    from ..reports.sizing import CRITERION_OPTIONS, matrix_report, table_report
+    from ..selection import select
+
+    if opts.get("pipe") or opts.get("od") or opts.get("wall"):
+        raise InputError("--sizes", "a table takes its pipes from --sizes, not --pipe/--od/--wall")
+    size_list = pipe_range(sizes, opts.get("schedule"))
+    opts = {**opts, "pipe": size_list[0].label}
+    spec = spec_from_options(opts, units)
+    req = requirements_from_options(opts, units)
+    selection = select(spec, material, req, parse_series(series, units), units, sizes=size_list)
+    if matrix:
+        report = matrix_report(selection, matrix.replace("-", "_").replace("surface_temp", "surface_temp"), units)
+    else:
+        out = selection.outcome
+        if not out.feasible.any():
+            failed = next((c for c in out.criteria if not c.feasible.any()), None)
+            if failed is not None:
+                raise InputError(CRITERION_OPTIONS.get(failed.key, "--series"),
+                                 f"{failed.messages[-1]} (largest size {selection.sizes[-1].label}); no size can meet it")
+        report = table_report(selection, units)
+    emit(report, fmt, units, output)

@@ -1,0 +1,97 @@
+"""From what the engineer asks for to the criterion objects the sizing search uses.
+
+:class:`Requirements` holds the sizing options in SI.  :func:`build_criteria` decides
+which criteria apply to a line:
+
+* touch safety on every line whose fluid is hotter than the touch limit (default 60 °C,
+  common practice after ASTM C1055; or a burn threshold from ``tables/touch_limits.csv``
+  for a contact time and the kind of outer surface); ``touch=False`` turns it off;
+* condensation control on lines colder than the air, when the relative humidity is given;
+* a heat-flow cap or a minimum reduction against the bare line, when given;
+* the temperature change along a run and the freeze hold time, when given.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .errors import InputError
+from .reports.cautions import TOUCH_DEFAULT_SOURCE
+from .sizing import DEFAULT_DEW_MARGIN_K, Condensation, HeatFlowCap, TouchSafety
+
+__all__ = ["Requirements", "build_criteria", "touch_limit_for"]
+
+
+@dataclass(frozen=True)
+class Requirements:
+    """Sizing options, SI.  ``None`` means not asked for."""
+
+    touch: bool = True
+    touch_limit_c: float | None = None
+    contact_time_s: float | None = None
+    dew_margin_k: float = DEFAULT_DEW_MARGIN_K
+    max_heat_flow_w_per_m: float | None = None
+    min_reduction: float | None = None
+    max_temp_change_k: float | None = None
+    hold_time_s: float | None = None
+    ice_fraction: float = 0.0
+
+
+def touch_limit_for(req: Requirements, surface_kind: str) -> tuple[float, str]:
+    """The touch limit [°C] and where it comes from."""
+    if req.touch_limit_c is not None:
+        if req.contact_time_s is not None:
+            raise InputError("--contact-time", "give --touch-limit or --contact-time, not both")
+        return req.touch_limit_c, "given"
+    if req.contact_time_s is not None:
+        from .catalog.touch import touch_limit
+
+        limit, source = touch_limit(surface_kind, req.contact_time_s)
+        return float(limit), f"{surface_kind.replace('_', ' ')} surface, {req.contact_time_s:g} s contact: {source}"
+    from .solve import DEFAULT_TOUCH_LIMIT_C
+
+    return DEFAULT_TOUCH_LIMIT_C, TOUCH_DEFAULT_SOURCE
+
+
+def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_kind: str):
+    """The criteria that apply, and notes on criteria that were asked for but do not apply."""
+    fluid_hot = float(np.max(fluid_temp_c))
+    fluid_cold = float(np.min(fluid_temp_c))
+    air = np.asarray(air_temp_c, dtype=float)
+    criteria, notes = [], []
+    limit, source = touch_limit_for(req, surface_kind)
+    if req.touch:
+        if limit <= float(np.max(air)):
+            raise InputError("--touch-limit", f"the touch limit {limit:g} °C must be above the air "
+                                              f"temperature {float(np.max(air)):g} °C")
+        if fluid_hot > limit:
+            criteria.append(TouchSafety(limit, source))
+        elif req.touch_limit_c is not None or req.contact_time_s is not None:
+            notes.append(f"touch safety: the fluid ({fluid_hot:g} °C) is not above the limit ({limit:g} °C); "
+                         "no insulation is needed for it")
+    if fluid_cold < float(np.min(air)):
+        if spec.rh_percent is not None:
+            if req.dew_margin_k < 0:
+                raise InputError("--dew-margin", "the dew-point margin must be zero or more")
+            criteria.append(Condensation(req.dew_margin_k))
+        else:
+            notes.append("condensation not checked: the line is colder than the air; give --rh")
+    if req.max_heat_flow_w_per_m is not None or req.min_reduction is not None:
+        criteria.append(HeatFlowCap(req.max_heat_flow_w_per_m, req.min_reduction))
+    if req.max_temp_change_k is not None:
+        from .runs import TempChange
+
+        if req.max_temp_change_k <= 0:
+            raise InputError("--max-temp-change", "the temperature change limit must be greater than zero")
+        if spec.flow is None or spec.length_m is None or not spec.fluid:
+            raise InputError("--max-temp-change", "needs --fluid, --flow and --length")
+        criteria.append(TempChange(req.max_temp_change_k, spec.fluid, flow=spec.flow, length_m=spec.length_m))
+    if req.hold_time_s is not None:
+        from .freezing import FreezeHold
+
+        if req.hold_time_s <= 0:
+            raise InputError("--hold-time", "the hold time must be greater than zero")
+        criteria.append(FreezeHold(req.hold_time_s, req.ice_fraction))
+    return criteria, notes

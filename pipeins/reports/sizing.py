@@ -1,0 +1,205 @@
+"""Reports of a sizing: one line (``size``) and the thickness table per size (``table``)."""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+import numpy as np
+
+from . import Column, Report, Table
+from .cautions import CODE, COLD, FREEZE, GENERAL, HOT, METAL_JACKET
+
+__all__ = ["size_report", "table_report", "matrix_report", "CRITERION_OPTIONS", "layers_text"]
+
+CRITERION_OPTIONS = {
+    "surface_temp": "--touch-limit",
+    "condensation": "--dew-margin",
+    "heat_flow": "--max-heat-flow",
+    "temp_change": "--max-temp-change",
+    "freeze": "--hold-time",
+    "economic": "--energy-price",
+    "code": "--code",
+}
+ALL_KEYS = ("surface_temp", "condensation", "heat_flow", "temp_change", "freeze", "economic", "code")
+
+
+def _mm(x):
+    return None if x is None or not np.isfinite(x) else round(float(x) * 1000, 2)
+
+
+def layers_text(split, units: str) -> str:
+    from ..units import format_quantity
+
+    if not split:
+        return "–"
+    if len(split) == 1:
+        return format_quantity(split[0], "thickness", units)
+    return " + ".join(format_quantity(t, "thickness", units) for t in split) + " (two layers)"
+
+
+def required_mm(selection, index: int) -> dict:
+    """Every criterion key → continuous least thickness in mm, null when not active."""
+    out = {key: None for key in ALL_KEYS[:3]}
+    for c in selection.outcome.criteria:
+        out[c.key] = _mm(c.required_m[index])
+    return out
+
+
+def _cautions(selection) -> list[str]:
+    spec = selection.spec
+    fluid = np.asarray(selection.problem.fluid.temp_c, dtype=float)
+    air = np.asarray(selection.problem.surroundings.air_temp_c, dtype=float)
+    out = []
+    keys = {c.key for c in selection.outcome.criteria}
+    if float(fluid.max()) > 45.0:
+        out.append(HOT)
+        if selection.problem.surface.surface_kind in ("metal_jacket", "bare_metal") or "surface_temp" in keys:
+            out.append(METAL_JACKET)
+    if float(fluid.min()) < float(air.min()):
+        out.append(COLD)
+    if float(air.min()) < 0 or "freeze" in keys:
+        out.append(FREEZE)
+    if "code" in keys:
+        out.append(CODE)
+    out.append(GENERAL)
+    return out
+
+
+def _criteria_rows(selection, index: int, units: str):
+    from ..units import format_quantity
+
+    out = selection.outcome
+    rows = []
+    for c, crit in zip(out.criteria, list(selection.criteria) + [None] * len(out.criteria)):
+        state = ""
+        if crit is not None and hasattr(crit, "state"):
+            state = crit.state(selection.problem, out.result, index)
+        elif c.messages[index]:
+            state = c.messages[index]
+        rows.append([c.label, c.description, c.required_m[index],
+                     c.commercial_m[index] if c.commercial_m is not None else None,
+                     state or c.messages[index]])
+    return rows
+
+
+def size_report(selection, check, units: str = "si") -> Report:
+    """*check* is the check report of the line at the selected thickness."""
+    out = selection.outcome
+    crit = Table("Criteria", [Column("criterion"), Column("requirement"),
+                              Column("least thickness", "thickness", 2), Column("commercial", "thickness"),
+                              Column("at the selected thickness")],
+                 _criteria_rows(selection, 0, units))
+    gov = out.governing[0]
+    gov_label = next((c.label for c in out.criteria if c.key == gov), "–")
+    pick = Table("Selection", [Column("material"), Column("series"), Column("selected", "thickness"),
+                               Column("layers"), Column("governing")],
+                 [[selection.material.name, selection.series_name, out.selected_m[0],
+                   layers_text(out.layer_split_m[0], units), gov_label]])
+    tables = [crit, pick] + check.tables
+    touch = next((c for c in selection.criteria if c.key == "surface_temp"), None)
+    footer = []
+    if touch is not None:
+        footer.append(f"touch limit {touch.limit_c:g} °C: {touch.source}")
+    footer.append(f"least thickness found to 0.01 mm; commercial pick from {selection.series_name}")
+    data = {
+        "required_thickness_mm": required_mm(selection, 0),
+        "selected_thickness_mm": _mm(out.selected_m[0]),
+        "layers_mm": [_mm(t) for t in out.layer_split_m[0]],
+        "governing": gov,
+        "feasible": bool(out.feasible[0]),
+        "material": selection.material.name,
+        "series": selection.series_name,
+        "criteria": [{"key": c.key, "requirement": c.description, "required_mm": _mm(c.required_m[0]),
+                      "commercial_mm": _mm(c.commercial_m[0]) if c.commercial_m is not None else None}
+                     for c in out.criteria],
+        "result": check.data,
+    }
+    warnings = list(selection.notes) + list(out.messages[0]) + list(check.warnings)
+    data["warnings"] = warnings
+    cautions = _cautions(selection)
+    data["cautions"] = cautions
+    title = f"Insulation sizing: {selection.sizes[0].label}, {selection.material.name}"
+    return Report(title, tables, data, warnings, cautions, footer, csv_table=0)
+
+
+def conditions_footer(selection, units: str) -> list[str]:
+    from ..units import format_quantity as fq
+
+    p = selection.problem
+    air = p.surroundings
+    fluid = float(np.max(p.fluid.temp_c))
+    lines = [f"fluid {fq(fluid, 'temperature', units)}; air {fq(float(np.max(air.air_temp_c)), 'temperature', units)}"
+             + (f", RH {float(np.max(air.relative_humidity_percent)):.0f} %" if air.relative_humidity_percent is not None else "")
+             + (f", wind {fq(float(np.max(air.wind_speed_m_s)), 'speed', units)}" if float(np.max(air.wind_speed_m_s)) else ", still air")
+             + f", radiant {fq(float(np.max(air.radiant_temp_c)), 'temperature', units)}",
+             f"material {selection.material.name} ({selection.material.source}); series {selection.series_name}",
+             f"outer surface {p.surface.name}, emittance {float(np.max(p.surface.emittance)):.2f}"]
+    if p.fixed_layers:
+        lines.append("fixed inner layers: " + "; ".join(
+            f"{l.material.name} {fq(float(np.max(l.thickness_m)), 'thickness', units)}" for l in p.fixed_layers))
+    for c in selection.criteria:
+        lines.append(f"{c.label}: {c.describe()}")
+    return lines
+
+
+def table_report(selection, units: str = "si") -> Report:
+    out = selection.outcome
+    keys = [c.key for c in out.criteria]
+    columns = [Column("size"), Column("OD", "diameter")]
+    columns += [Column(c.label, "thickness", 1) for c in out.criteria]
+    columns += [Column("selected", "thickness"), Column("layers"), Column("governing"),
+                Column("heat flow", "heat_flow_per_length"), Column("surface", "temperature")]
+    rows, json_rows = [], []
+    q = np.ravel(out.result.heat_flow_w_per_m)
+    ts = np.ravel(out.result.surface_temp_c)
+    labels = {c.key: c.label for c in out.criteria}
+    for i, size in enumerate(selection.sizes):
+        feasible = bool(out.feasible[i])
+        row = [size.label, size.outer_diameter_m] + [c.required_m[i] for c in out.criteria]
+        row += [out.selected_m[i], layers_text(out.layer_split_m[i], units) if feasible else "cannot be met",
+                labels.get(out.governing[i], "–"), q[i] if feasible else None, ts[i] if feasible else None]
+        rows.append(row)
+        json_rows.append({
+            "size": size.label, "od_mm": round(size.outer_diameter_m * 1000, 3),
+            "required_thickness_mm": required_mm(selection, i),
+            "selected_thickness_mm": _mm(out.selected_m[i]),
+            "layers_mm": [_mm(t) for t in out.layer_split_m[i]],
+            "governing": out.governing[i], "feasible": feasible,
+            "heat_flow_w_per_m": float(q[i]) if feasible else None,
+            "surface_temp_c": float(ts[i]) if feasible else None,
+            "messages": out.messages[i],
+        })
+    warnings = list(selection.notes)
+    for i, size in enumerate(selection.sizes):
+        warnings += [f"{size.label}: {m}" for m in out.messages[i]]
+    warnings += list(dict.fromkeys(out.result.warnings))
+    cautions = _cautions(selection)
+    footer = conditions_footer(selection, units)
+    title = f"Thickness table: {selection.material.name}, {selection.sizes[0].label} to {selection.sizes[-1].label}"
+    data = {"rows": json_rows, "criteria": keys, "material": selection.material.name,
+            "series": selection.series_name, "conditions": footer, "warnings": warnings, "cautions": cautions}
+    return Report(title, [Table("Thickness per size", columns, rows)], data, warnings, cautions, footer)
+
+
+def matrix_report(selection, quantity: str, units: str = "si") -> Report:
+    """Heat flow per metre (or surface temperature) of every size at every series thickness."""
+    series = np.array(selection.outcome.series_m)
+    result = selection.problem.solve(np.broadcast_to(series, (len(selection.sizes), series.size)))
+    values = result.heat_flow_w_per_m if quantity == "heat_flow" else result.surface_temp_c
+    kind = "heat_flow_per_length" if quantity == "heat_flow" else "temperature"
+    from ..units import format_quantity
+
+    columns = [Column("size"), Column("OD", "diameter")] + [
+        Column(format_quantity(t, "thickness", units), kind) for t in series]
+    rows = [[s.label, s.outer_diameter_m] + list(values[i]) for i, s in enumerate(selection.sizes)]
+    what = "heat flow per metre" if quantity == "heat_flow" else "surface temperature"
+    data = {"quantity": quantity, "thickness_mm": [_mm(t) for t in series],
+            "rows": [{"size": s.label, "od_mm": round(s.outer_diameter_m * 1000, 3),
+                      ("heat_flow_w_per_m" if quantity == "heat_flow" else "surface_temp_c"):
+                          [float(v) for v in values[i]]} for i, s in enumerate(selection.sizes)]}
+    footer = conditions_footer(selection, units)
+    cautions = _cautions(selection)
+    data.update({"conditions": footer, "cautions": cautions, "warnings": list(dict.fromkeys(result.warnings))})
+    return Report(f"{what.capitalize()} by size and thickness: {selection.material.name}",
+                  [Table(f"{what} at each thickness", columns, rows)], data,
+                  list(dict.fromkeys(result.warnings)), cautions, footer)
