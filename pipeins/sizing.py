@@ -312,8 +312,8 @@ def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequen
     for outcome, m in zip(outcomes, option_margins):
         outcome.commercial_m = _least_passing(m >= 0, option_totals)
         passes &= m >= 0
-    for extra in extra_required:
-        need = np.where(np.isfinite(extra.required_m), extra.required_m, np.inf)
+    for extra in extra_required:  # a requirement that does not apply (nan) sets no bound
+        need = np.where(np.isfinite(extra.required_m), extra.required_m, 0.0)
         ok = option_totals[None, :] >= need[:, None] - 1e-9
         extra.commercial_m = _least_passing(ok, option_totals)
         passes &= ok

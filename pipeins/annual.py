@@ -1,0 +1,113 @@
+"""Over the year: energy, cost and CO2 of a line, bare against insulated, and the
+economic thickness.
+
+:class:`EnergyBasis` gathers the money side (operating hours, the heat source's
+efficiency or the chiller's COP, the energy price and emission factor, the discount rate,
+life and escalation, and the installed-cost table).  The heat flows come from the solver;
+the finance from :mod:`pipeins.economics`.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from .economics import (CostTable, EmissionFactor, EnergyPrice, annual_co2_kg, annual_cost, annual_energy_j,
+                        economic_thickness, simple_payback_years)
+from .errors import InputError
+
+__all__ = ["EnergyBasis", "annual_figures", "economic_outcome", "EconomicCurve"]
+
+
+@dataclass(frozen=True)
+class EnergyBasis:
+    """The money side of a line.  ``efficiency`` applies to heat losses (boiler, heat
+    exchanger; 0 < η ≤ 1); ``cop`` to heat gains on chilled lines (> 0)."""
+
+    hours_per_year: float = 8760.0
+    price: EnergyPrice | None = None
+    efficiency: float = 1.0
+    cop: float | None = None
+    emission: EmissionFactor | None = None
+    discount_rate: float = 0.05
+    years: float = 20.0
+    escalation: float = 0.0
+    maintenance_fraction: float = 0.0
+    cost_table: CostTable | None = None
+
+    def purchased_energy_j(self, heat_flow_w):
+        """Energy bought per year [J] for a heat flow [W] (loss: / efficiency; gain: / COP)."""
+        q = np.asarray(heat_flow_w, dtype=float)
+        if self.cop is not None and np.any(q < 0):
+            gains = annual_energy_j(np.where(q < 0, q, 0.0), self.hours_per_year, cop=self.cop)
+            losses = annual_energy_j(np.where(q >= 0, q, 0.0), self.hours_per_year, efficiency=self.efficiency)
+            return gains + losses
+        return annual_energy_j(q, self.hours_per_year, efficiency=self.efficiency)
+
+
+def annual_figures(heat_flow_w, basis: EnergyBasis) -> dict:
+    """Energy [J], cost [currency] and CO2 [kg] per year of a heat flow [W]."""
+    energy = basis.purchased_energy_j(heat_flow_w)
+    out = {"energy_j": energy, "cost": None, "co2_kg": None}
+    if basis.price is not None:
+        out["cost"] = annual_cost(energy, basis.price)
+    if basis.emission is not None:
+        out["co2_kg"] = annual_co2_kg(energy, basis.emission)
+    return out
+
+
+@dataclass
+class EconomicCurve:
+    """The cost curve of one size: every candidate thickness with its installed cost,
+    present value of energy and total (per metre)."""
+
+    size: str
+    thickness_m: np.ndarray
+    installed_per_m: np.ndarray
+    energy_pv_per_m: np.ndarray
+    total_per_m: np.ndarray
+    best_index: int
+    warnings: list[str] = field(default_factory=list)
+
+
+def economic_outcome(problem, sizes, basis: EnergyBasis):
+    """The economic thickness per size (ISO 12241 / VDI 2055 approach: least installed cost
+    plus present value of the energy cost), over the thicknesses the cost table lists.
+
+    Returns a :class:`~pipeins.sizing.CriterionOutcome` (key ``economic``) and the curves.
+    """
+    from .sizing import CriterionOutcome
+
+    if basis.cost_table is None:
+        raise InputError("--cost-table", "the economic thickness needs a cost table (CSV of installed cost per metre)")
+    if basis.price is None:
+        raise InputError("--energy-price", "the economic thickness needs the energy price, e.g. 0.09/kWh")
+    lists = [basis.cost_table.thicknesses_m(s.label) for s in sizes]
+    width = max(len(t) for t in lists)
+    grid = np.full((len(sizes), width), np.nan)
+    for i, t in enumerate(lists):
+        grid[i, : len(t)] = t
+    solved = problem.solve(np.where(np.isfinite(grid), grid, grid[:, :1]))
+    q = np.abs(np.asarray(solved.heat_flow_w_per_m))
+    annual = annual_figures(q, basis)["cost"]
+    required, curves, messages = np.full(len(sizes), np.nan), [], []
+    for i, size in enumerate(sizes):
+        n = len(lists[i])
+        installed = basis.cost_table.cost_per_m(size.label, lists[i])
+        result = economic_thickness(lists[i], installed, annual[i, :n], basis.discount_rate, basis.years,
+                                    basis.escalation, basis.maintenance_fraction)
+        required[i] = float(result.best_thickness_m)
+        curves.append(EconomicCurve(size.label, lists[i], np.asarray(installed),
+                                    np.asarray(result.energy_pv_per_m + result.maintenance_pv_per_m),
+                                    np.asarray(result.total_per_m), int(result.best_index), list(result.warnings)))
+        messages.append("")
+    description = (f"least installed cost + energy over {basis.years:g} years at {100 * basis.discount_rate:g} %"
+                   + (f", energy price rising {100 * basis.escalation:g} %/year" if basis.escalation else ""))
+    outcome = CriterionOutcome("economic", "economic thickness", description, required,
+                               np.ones(len(sizes), dtype=bool), messages)
+    return outcome, curves
+
+
+def payback_years(installed_cost, annual_saving):
+    return simple_payback_years(installed_cost, annual_saving)
