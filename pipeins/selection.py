@@ -9,7 +9,7 @@ builds the (vectorised) sizing problem, the criteria and the series, runs
 >>> spec = LineSpec(pipe="NPS 4", fluid_temp_c=180.0, air_temp_c=25.0)
 >>> sel = select(spec, "mineral wool", Requirements())
 >>> sel.outcome.governing[0], float(sel.outcome.selected_m[0])
-('surface_temp', 0.03)
+('surface_temp', 0.02)
 """
 
 from __future__ import annotations
