@@ -163,7 +163,7 @@ class LineSpec:
                 surface = replace(surface, emittance=self.emittance)
             return surface
         if self.emittance is not None:
-            return Surface(self.emittance, f"surface of emittance {self.emittance:g}")
+            return Surface(self.emittance, "surface of given emittance")
         if not (self.layers or insulated):
             return Surface.from_finish(lookup_finish("bare_steel_oxidised"))
         return Surface()

@@ -76,6 +76,8 @@ def _criteria_rows(selection, index: int, units: str):
             state = crit.state(selection.problem, out.result, index)
         elif c.messages[index]:
             state = c.messages[index]
+        elif np.isfinite(c.required_m[index]):
+            state = "met" + (f" ({c.source})" if c.source else "")
         rows.append([c.label, c.description, c.required_m[index],
                      c.commercial_m[index] if c.commercial_m is not None else None,
                      state or c.messages[index]])

@@ -1,0 +1,85 @@
+"""Start-up and single-run speed of the ``pipeins`` command, timed as subprocesses.
+
+Times ``pipeins --help`` (target < 0.3 s) and one ``pipeins check`` of an insulated line in
+still air (target < 1 s), best of ``--runs`` runs each, and exits 1 when one misses its target
+(``--no-fail`` only reports).  ``--imports`` adds the five costliest top-level imports of the
+check run, from ``python -X importtime``.
+
+    python benchmarks/bench_cli.py [--runs 5] [--imports] [--no-fail]
+"""
+
+from __future__ import annotations
+
+import argparse
+import shutil
+import subprocess
+import sys
+import time
+
+HELP_TARGET_S = 0.3
+CHECK_TARGET_S = 1.0
+CHECK_ARGS = ["check", "--pipe", "NPS 4", "--fluid-temp", "180C", "--ambient-temp", "25C",
+              "--layer", "mineral wool:50mm", "--finish", "aluminium jacket, oxidised"]
+_IN_PROCESS = "import sys; from pipeins.cli import main; main(sys.argv[1:])"
+
+
+def command() -> list[str]:
+    """The installed console script, else the same entry point through this interpreter."""
+    script = shutil.which("pipeins")
+    return [script] if script else [sys.executable, "-c", _IN_PROCESS]
+
+
+def best_time(argv: list[str], runs: int) -> float:
+    best = float("inf")
+    for _ in range(runs):
+        start = time.perf_counter()
+        done = subprocess.run(argv, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+        elapsed = time.perf_counter() - start
+        if done.returncode != 0:
+            raise SystemExit(f"{' '.join(argv)} failed ({done.returncode}):\n{done.stderr}")
+        best = min(best, elapsed)
+    return best
+
+
+def top_imports(args: list[str], n: int = 5) -> list[tuple[float, float, str]]:
+    """(cumulative ms, self ms, module) of the *n* costliest top-level imports of one run."""
+    done = subprocess.run([sys.executable, "-X", "importtime", "-c", _IN_PROCESS, *args],
+                          stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, text=True)
+    rows = []
+    for line in done.stderr.splitlines():
+        if not line.startswith("import time:") or "[us]" in line:
+            continue
+        self_us, cumulative_us, name = (part for part in line[len("import time:"):].split("|"))
+        if name.startswith(" ") and not name.startswith("  "):  # top level: one space of indent
+            rows.append((int(cumulative_us) / 1e3, int(self_us) / 1e3, name.strip()))
+    return sorted(rows, reverse=True)[:n]
+
+
+def main(argv=None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--runs", type=int, default=5, help="runs per command (best is kept)")
+    parser.add_argument("--imports", action="store_true", help="show the 5 costliest imports of check")
+    parser.add_argument("--no-fail", action="store_true", help="report only; exit 0 on a miss")
+    opts = parser.parse_args(argv)
+
+    base = command()
+    cases = [("pipeins --help", base + ["--help"], HELP_TARGET_S),
+             ("pipeins check (still air)", base + CHECK_ARGS, CHECK_TARGET_S)]
+    print(f"{' '.join(base)}; best of {opts.runs} runs")
+    print(f"{'command':<28} {'time [s]':>9} {'target [s]':>11}  verdict")
+    missed = False
+    for label, argv, target in cases:
+        elapsed = best_time(argv, opts.runs)
+        ok = elapsed < target
+        missed |= not ok
+        print(f"{label:<28} {elapsed:>9.3f} {'< ' + format(target, 'g'):>11}  {'ok' if ok else 'MISSED'}")
+    if opts.imports:
+        print("\nCostliest top-level imports of pipeins check (python -X importtime, one run)")
+        print(f"{'cumulative [ms]':>16} {'self [ms]':>10}  module")
+        for cumulative, self_ms, name in top_imports(CHECK_ARGS):
+            print(f"{cumulative:>16.1f} {self_ms:>10.1f}  {name}")
+    return 1 if missed and not opts.no_fail else 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
