@@ -111,3 +111,17 @@ def economic_outcome(problem, sizes, basis: EnergyBasis):
 
 def payback_years(installed_cost, annual_saving):
     return simple_payback_years(installed_cost, annual_saving)
+
+
+def price_from_text(text: str, currency: str = "", option: str = "--energy-price") -> EnergyPrice:
+    """An :class:`EnergyPrice` from text such as ``"0.09/kWh"`` or ``"1.05 per therm"``."""
+    from .units import parse_money_per_energy
+
+    return EnergyPrice(parse_money_per_energy(text, option) * 3.6e6, "kWh", currency)
+
+
+def emission_from_text(text: str, option: str = "--co2-factor") -> EmissionFactor:
+    """An :class:`EmissionFactor` from text such as ``"0.20/kWh"`` (kg CO2 per unit)."""
+    from .units import parse_money_per_energy
+
+    return EmissionFactor(parse_money_per_energy(text, option) * 3.6e6, "kWh")

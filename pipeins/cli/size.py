@@ -5,14 +5,17 @@ from __future__ import annotations
 import click
 
 from .options import emit, line_options, output_options, spec_from_options
+from .energy_options import basis_from_options, code_options, energy_options
 from .sizing_options import parse_series, requirements_from_options, sizing_options
 
 
 @click.command()
 @line_options
 @sizing_options
+@code_options
+@energy_options
 @output_options
-def size(fmt, units, output, material, series, **opts):
+def size(fmt, units, output, material, series, code, code_table, **opts):
     """The least insulation thickness that meets each criterion, for one line.
 
     The layer given by --material is the outermost; any --layer options are fixed inner
@@ -38,7 +41,10 @@ def size(fmt, units, output, material, series, **opts):
 
     spec = spec_from_options(opts, units)
     req = requirements_from_options(opts, units)
-    selection = select(spec, material, req, parse_series(series, units), units)
+    basis = basis_from_options(opts, units)
+    economic = basis if basis is not None and basis.cost_table is not None else None
+    selection = select(spec, material, req, parse_series(series, units), units, code=code, economic=economic,
+                       code_paths=code_table)
     out = selection.outcome
     if not out.feasible[0]:
         failed = [c for c in out.criteria if not c.feasible[0]]

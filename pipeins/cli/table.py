@@ -5,6 +5,7 @@ from __future__ import annotations
 import click
 
 from .options import emit, line_options, output_options, spec_from_options
+from .energy_options import basis_from_options, code_options, energy_options
 from .sizing_options import parse_series, requirements_from_options, sizing_options
 
 
@@ -15,8 +16,10 @@ from .sizing_options import parse_series, requirements_from_options, sizing_opti
               help="Instead: this quantity for every size at every thickness of the series.")
 @line_options
 @sizing_options
+@code_options
+@energy_options
 @output_options
-def table(fmt, units, output, sizes, matrix, material, series, **opts):
+def table(fmt, units, output, sizes, matrix, material, series, code, code_table, **opts):
     """Thickness table per pipe size for one service.
 
     One row per size: the outside diameter, the least thickness each active criterion
@@ -43,7 +46,10 @@ def table(fmt, units, output, sizes, matrix, material, series, **opts):
     opts = {**opts, "pipe": size_list[0].label}
     spec = spec_from_options(opts, units)
     req = requirements_from_options(opts, units)
-    selection = select(spec, material, req, parse_series(series, units), units, sizes=size_list)
+    basis = basis_from_options(opts, units)
+    economic = basis if basis is not None and basis.cost_table is not None else None
+    selection = select(spec, material, req, parse_series(series, units), units, sizes=size_list, code=code,
+                       economic=economic, code_paths=code_table)
     if matrix:
         report = matrix_report(selection, matrix.replace("-", "_").replace("surface_temp", "surface_temp"), units)
     else:

@@ -1,0 +1,41 @@
+"""``pipeins cost``: annual energy, cost and CO2; bare against insulated; economic thickness."""
+
+from __future__ import annotations
+
+import click
+
+from .energy_options import basis_from_options, energy_options
+from .options import emit, line_options, output_options, spec_from_options
+
+
+@click.command()
+@line_options
+@click.option("--valves", default=0, type=click.IntRange(min=0), help="Bare valves on the run (count).")
+@click.option("--flanges", default=0, type=click.IntRange(min=0), help="Bare flange pairs on the run (count).")
+@click.option("--strainers", default=0, type=click.IntRange(min=0), help="Bare strainers on the run (count).")
+@energy_options
+@output_options
+def cost(fmt, units, output, valves, flanges, strainers, **opts):
+    """Annual energy, cost and CO2 of a line: bare against insulated, and the economic thickness.
+
+    The line is solved bare and with its --layer build-up; the difference over the run
+    (--length, default 1 m) and the operating hours gives the energy saved, its cost and
+    CO2, and with --cost-table the installed cost and simple payback. With --cost-table the
+    cost curve of the outer layer's material over the thicknesses the table lists is
+    printed too (installed cost, present value of energy over --years at
+    --discount-rate, and total), so the flat bottom of the curve is visible. Bare valves,
+    flanges and strainers count as equivalent lengths of bare pipe.
+
+    \b
+    Example:
+      pipeins cost --pipe "NPS 4" --fluid-temp 82C --ambient-temp 15C --length 120m \\
+          --layer "mineral wool:50mm" --hours 5000h --energy-price 0.09/kWh --efficiency 0.88 \\
+          --co2-factor 0.20/kWh --cost-table examples/costs_demo.csv --currency EUR
+    """
+    from ..costing import cost_study
+    from ..reports.cost import cost_report
+
+    spec = spec_from_options(opts, units)
+    basis = basis_from_options(opts, units, need_price=True)
+    study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers})
+    emit(cost_report(study, units), fmt, units, output)
