@@ -90,7 +90,11 @@ class Criterion:
 
     def state(self, problem: SizingProblem, result, index: int) -> str:
         """How the solved case *index* stands against the criterion (for reports)."""
-        margin = np.ravel(self.margin(problem, result, None))[index]
+        thickness = result.inputs["layers"][-1].thickness_m
+        margin = float(np.ravel(self.margin(problem, result, thickness))[index])
+        return self.state_text(margin)
+
+    def state_text(self, margin: float) -> str:
         return f"margin {margin:.3g}"
 
 
