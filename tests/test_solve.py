@@ -174,3 +174,28 @@ def test_more_insulation_beyond_critical_radius_never_raises_loss(material, od, 
     r = solve(Pipe(od, 0.0028), [Layer(mat, thickness)], Fluid(fluid), Surroundings(20.0, wind_speed_m_s=wind))
     # 20 mm of insulation puts every case here past its critical radius (k/h < 20 mm).
     assert np.all(np.diff(r.heat_flow_w_per_m) < 0)
+
+
+def test_flat_face_matches_plane_wall_resistances():
+    # Plane wall in series with films: q'' = ΔT / (1/h_i + L_w/k_w + L/k + 1/h_o)
+    # (Incropera et al., 6th ed., Eq. 3.19, the composite plane wall).
+    from pipeins.model import FlatWall
+
+    wall = FlatWall(wall_m=0.001, wall_conductivity_w_mk=50.0, length_m=1.0)
+    r = solve(wall, [Layer(lookup_material("k=0.04"), 0.05)], Fluid(60.0, 30.0), Surroundings(20.0),
+              Surface(fixed_coefficient_w_m2k=8.0))
+    expected = 40.0 / (1 / 30.0 + 0.001 / 50.0 + 0.05 / 0.04 + 1 / 8.0)
+    assert float(r.heat_flow_w_per_m) == pytest.approx(expected, rel=1e-9)
+    assert "heat_flow_w_per_m2" in r.to_dict()
+
+
+def test_flat_faces_lose_more_facing_up_when_hot():
+    # Physical fact: a hot face looking up sheds more heat by natural convection than one looking
+    # down (Incropera et al., 6th ed., Eqs. 9.30-9.32).
+    from pipeins.model import FlatWall
+
+    flows = {face: float(solve(FlatWall(length_m=0.5, face=face), [Layer(lookup_material("k=0.04"), 0.03)],
+                               Fluid(120.0), Surroundings(20.0)).heat_flow_w_per_m)
+             for face in ("top", "vertical", "bottom")}
+    assert flows["top"] > flows["bottom"]
+    assert flows["top"] > 0 and flows["bottom"] > 0
