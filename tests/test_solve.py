@@ -70,7 +70,7 @@ def test_incropera_example_3_5_critical_radius():
 
 def test_kirchhoff_layer_matches_mean_conductivity_for_linear_k():
     # For k linear in T, the Kirchhoff integral equals k at the arithmetic mean temperature of the
-    # layer times ΔT (exact; Incropera et al., 6th ed., Eq. 3.24 and Problem set-up of k(T)).
+    # layer times ΔT (exact for linear k; Incropera et al., 6th ed., section 3.2 on k(T) in a wall, from memory).
     mat = lookup_material("mineral wool")
     k = Conductivity.from_points([(0.0, 0.030), (100.0, 0.040)], -50.0, 400.0)
     t1, t2 = 250.0, 40.0
