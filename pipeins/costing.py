@@ -45,11 +45,22 @@ class CostStudy:
         return {k: (None if self.bare[k] is None else self.bare[k] - self.insulated[k]) for k in self.bare}
 
 
-def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None) -> CostStudy:
+def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=None) -> CostStudy:
+    """*profile*, optional: ``[(fluid_temp_c, hours), ...]`` operating conditions over the year,
+    replacing the spec's fluid temperature and the basis's hours; energy is summed over them
+    and the heat flows reported are their hours-weighted means."""
     from .catalog.fittings import equivalent_length_m
-    from .line import LineSpec
     from .solve import solve
 
+    weights = None
+    if profile:
+        temps = np.array([float(t) for t, _ in profile])
+        hours = np.array([float(h) for _, h in profile])
+        if hours.sum() <= 0:
+            raise InputError("--profile", "the profile needs some operating hours")
+        spec = replace(spec, fluid_temp_c=temps, steam_pressure_pa=None)
+        basis = replace(basis, hours_per_year=hours)
+        weights = hours / hours.sum()
     if not spec.layers:
         raise InputError("--layer", "a cost study compares the bare line with its insulation: give --layer")
     fittings = {k: int(v) for k, v in (fittings or {}).items() if v}
@@ -60,13 +71,18 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None) -> CostSt
     bare_surface = bare_spec.build_surface()
     bare = solve(pipe, [], fluid, air, bare_surface)
     insulated = solve(pipe, layers, fluid, air, surface)
-    q_bare, q_ins = float(bare.heat_flow_w_per_m), float(insulated.heat_flow_w_per_m)
+    q_bare, q_ins = np.asarray(bare.heat_flow_w_per_m), np.asarray(insulated.heat_flow_w_per_m)
     fit_len = sum(n * float(equivalent_length_m(kind, size.outer_diameter_m)) for kind, n in fittings.items())
     bare_w = q_bare * (length + fit_len)
     ins_w = q_ins * length + q_bare * fit_len
-    study = CostStudy(spec, basis, length, fittings, fit_len, q_bare, q_ins, bare_w, ins_w,
-                      annual_figures(bare_w, basis), annual_figures(ins_w, basis),
+
+    def mean(x):
+        return float(x) if weights is None else float(np.sum(weights * x))
+
+    study = CostStudy(spec, basis, length, fittings, fit_len, mean(q_bare), mean(q_ins), mean(bare_w),
+                      mean(ins_w), annual_figures(bare_w, basis), annual_figures(ins_w, basis),
                       warnings=list(insulated.warnings))
+    study.profile = profile
     if fit_len:
         study.warnings.append(f"bare fittings count as {fit_len:.1f} m of bare pipe; insulating them "
                               "(removable covers) saves most of their share")
@@ -90,7 +106,9 @@ def _curve(spec, basis, size, pipe, fluid, air, surface, length, fit_len, q_bare
     table = basis.cost_table
     thicknesses = table.thicknesses_m(size.label)
     fixed = [Layer(lookup_material(name), t) for name, t in spec.layers[:-1]]
-    outer = Layer(lookup_material(spec.layers[-1][0]), thicknesses)
+    # thickness along the first axis; a profile's conditions along the last
+    outer = Layer(lookup_material(spec.layers[-1][0]),
+                  thicknesses if np.ndim(fluid.temp_c) == 0 else thicknesses[:, None])
     r = solve(pipe, fixed + [outer], fluid, air, surface)
     q = np.abs(np.asarray(r.heat_flow_w_per_m))  # per metre; fittings do not change with thickness
     yearly = annual_figures(q, basis)["cost"]

@@ -87,3 +87,14 @@ def test_cost_bad_input(run, args, line):
     assert err.startswith("Error: --" + args[0][2:])
     if line:
         assert err.strip() == line
+
+
+def test_profile_energy_is_the_sum_of_its_conditions():
+    # Definition: E = Σ |Q_j|·h_j / η over the operating conditions (hand arithmetic; two single studies).
+    basis = EnergyBasis(hours_per_year=1.0, price=EnergyPrice(0.09, "kWh", "EUR"), efficiency=0.88)
+    both = cost_study(SPEC, basis, profile=[(82.0, 3000.0), (70.0, 2500.0)])
+    parts = [cost_study(LineSpec(**{**SPEC.__dict__, "fluid_temp_c": t}), EnergyBasis(
+        hours_per_year=h, price=EnergyPrice(0.09, "kWh", "EUR"), efficiency=0.88)) for t, h in ((82.0, 3000.0), (70.0, 2500.0))]
+    assert float(both.insulated["energy_j"]) == pytest.approx(sum(float(p.insulated["energy_j"]) for p in parts), rel=1e-9)
+    assert both.bare_w == pytest.approx((3000 * parts[0].bare_w + 2500 * parts[1].bare_w) / 5500, rel=1e-9)
+    assert both.curve is None

@@ -13,9 +13,11 @@ from .options import emit, line_options, output_options, spec_from_options
 @click.option("--valves", default=0, type=click.IntRange(min=0), help="Bare valves on the run (count).")
 @click.option("--flanges", default=0, type=click.IntRange(min=0), help="Bare flange pairs on the run (count).")
 @click.option("--strainers", default=0, type=click.IntRange(min=0), help="Bare strainers on the run (count).")
+@click.option("--profile", help='Operating profile instead of --fluid-temp/--hours: "TEMP:HOURS,…", '
+                                 'e.g. "82C:3000h,70C:2500h,55C:1500h".')
 @energy_options
 @output_options
-def cost(fmt, units, output, valves, flanges, strainers, **opts):
+def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
     """Annual energy, cost and CO2 of a line: bare against insulated, and the economic thickness.
 
     The line is solved bare and with its --layer build-up; the difference over the run
@@ -35,7 +37,22 @@ def cost(fmt, units, output, valves, flanges, strainers, **opts):
     from ..costing import cost_study
     from ..reports.cost import cost_report
 
+    from ..errors import InputError
+    from ..units import parse_quantity
+
+    conditions = None
+    if profile:
+        if opts.get("fluid_temp") or opts.get("steam_pressure") or opts.get("hours"):
+            raise InputError("--profile", "a profile replaces --fluid-temp, --steam-pressure and --hours")
+        conditions = []
+        for item in profile.split(","):
+            temp, sep, hours = item.partition(":")
+            if not sep:
+                raise InputError("--profile", f'"{item.strip()}" needs TEMP:HOURS, e.g. 82C:3000h')
+            conditions.append((parse_quantity(temp, "temperature", "--profile", units),
+                               parse_quantity(hours, "time", "--profile", units) / 3600.0))
+        opts = {**opts, "fluid_temp": f"{conditions[0][0]}C"}
     spec = spec_from_options(opts, units)
     basis = basis_from_options(opts, units, need_price=True)
-    study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers})
+    study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers}, conditions)
     emit(cost_report(study, units), fmt, units, output)

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import math
 
+import numpy as np
+
 from . import Column, Report, Table
 from .cautions import GENERAL
 
@@ -69,7 +71,14 @@ def cost_report(study, units: str = "si") -> Report:
         }
     warnings = list(study.warnings) + (list(curve.warnings) if curve is not None else [])
     basis = study.basis
-    footer = [f"{basis.hours_per_year:g} h per year; "
+    hours = np.asarray(basis.hours_per_year, dtype=float)
+    profile = getattr(study, "profile", None)
+    if profile:
+        footer_hours = "profile " + ", ".join(
+            f"{fq(t, 'temperature', units)} for {h:g} h" for t, h in profile) + " (heat flows shown are hours-weighted means)"
+    else:
+        footer_hours = f"{float(hours):g} h per year"
+    footer = [footer_hours + "; "
               + (f"heat source efficiency {basis.efficiency:g}" if basis.cop is None else
                  f"efficiency {basis.efficiency:g}, chiller COP {basis.cop:g}")
               + (f"; energy {basis.price.price_per_unit:g} {cur}/{basis.price.unit}" if basis.price else ""),
