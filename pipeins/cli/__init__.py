@@ -66,8 +66,8 @@ def main(argv=None):
 
     try:
         cli.main(args=argv, prog_name="pipeins", standalone_mode=False)
-    except InputError as exc:
-        click.echo(f"Error: {exc}", err=True)
+    except InputError as exc:  # a project file may carry several problems, one line each
+        click.echo("\n".join(f"Error: {p}" for p in getattr(exc, "problems", None) or [str(exc)]), err=True)
         sys.exit(2)
     except click.exceptions.Abort:
         click.echo("Aborted.", err=True)
