@@ -64,7 +64,7 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
     from .catalog.materials import lookup_material
     from .criteria import build_criteria
 
-    material = lookup_material(material_name)
+    material = lookup_material(material_name, option="--material")
     name, series_m = series_for(material, series, units)
     pipe, fixed, fluid, surroundings, surface = spec.build_model(sizes, insulated=True)
     n = 1 if sizes is None else len(sizes)

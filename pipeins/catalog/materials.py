@@ -149,23 +149,26 @@ def _walls() -> dict[str, WallMaterial]:
 
 
 def _match(spec: str, catalogue: dict) -> object | None:
+    """By key or name; else by the leading words of one name only ("flexible elastomeric
+    foam" finds "flexible elastomeric foam tube")."""
     wanted = _norm(spec)
     for key, item in catalogue.items():
         if wanted in (_norm(key), _norm(item.name)):
             return item
-    return None
+    leading = [item for item in catalogue.values() if _norm(item.name).startswith(wanted + " ")]
+    return leading[0] if len(leading) == 1 else None
 
 
-def _constant_k(spec: str) -> InsulationMaterial:
+def _constant_k(spec: str, option: str = "--layer") -> InsulationMaterial:
     text = spec.split("=", 1)[1].strip()
     allowed = (f"conductivity in W/(m·K) above 0 and at most {MAX_CONSTANT_CONDUCTIVITY_W_MK:g}, "
                'e.g. "k=0.040"')
     try:
         value = float(text)
     except ValueError:
-        raise InputError("--layer", f'"{spec.strip()}": give a {allowed}') from None
+        raise InputError(option, f'"{spec.strip()}": give a {allowed}') from None
     if not math.isfinite(value) or value <= 0.0 or value > MAX_CONSTANT_CONDUCTIVITY_W_MK:
-        raise InputError("--layer", f'"{spec.strip()}": give a {allowed}')
+        raise InputError(option, f'"{spec.strip()}": give a {allowed}')
     return InsulationMaterial(
         key=f"k={text}",
         name=f"constant conductivity {value:g} W/(m·K)",
@@ -178,7 +181,7 @@ def _constant_k(spec: str) -> InsulationMaterial:
     )
 
 
-def lookup_material(spec: str) -> InsulationMaterial:
+def lookup_material(spec: str, option: str = "--layer") -> InsulationMaterial:
     """The insulation material named by *spec*, or a constant-conductivity layer.
 
     Parameters
@@ -195,7 +198,7 @@ def lookup_material(spec: str) -> InsulationMaterial:
     Raises
     ------
     InputError
-        ``--layer`` for an unknown name or a bad ``k=`` value.
+        *option* (default ``--layer``) for an unknown name or a bad ``k=`` value.
 
     Examples
     --------
@@ -207,11 +210,11 @@ def lookup_material(spec: str) -> InsulationMaterial:
     """
     spec = str(spec)
     if re.match(r"\s*k\s*=", spec, re.I):
-        return _constant_k(spec)
+        return _constant_k(spec, option)
     found = _match(spec, _insulation())
     if found is None:
         names = [_norm(key) for key in _insulation()]
-        raise InputError("--layer", f'unknown material "{spec.strip()}"; '
+        raise InputError(option, f'unknown material "{spec.strip()}"; '
                                     f"{near_hint(_norm(spec), names)}")
     return found
 
