@@ -14,7 +14,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from .economics import (CostTable, EmissionFactor, EnergyPrice, annual_co2_kg, annual_cost, annual_energy_j,
-                        economic_thickness, simple_payback_years)
+                        economic_thickness)
 from .errors import InputError
 
 __all__ = ["EnergyBasis", "annual_figures", "economic_outcome", "EconomicCurve"]
@@ -108,9 +108,6 @@ def economic_outcome(problem, sizes, basis: EnergyBasis):
                                np.ones(len(sizes), dtype=bool), messages)
     return outcome, curves
 
-
-def payback_years(installed_cost, annual_saving):
-    return simple_payback_years(installed_cost, annual_saving)
 
 
 def price_from_text(text: str, currency: str = "", option: str = "--energy-price") -> EnergyPrice:

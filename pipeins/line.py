@@ -16,7 +16,7 @@ True
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, replace
 from typing import Any
 
 import numpy as np
@@ -82,7 +82,6 @@ class LineSpec:
     outer_h_w_m2k: float | None = None
     touch_limit_c: float = DEFAULT_TOUCH_LIMIT_C
     length_m: float | None = None
-    notes: dict = field(default_factory=dict, compare=False)
 
     # -- the pieces -------------------------------------------------------------------
     def pipe_size(self):

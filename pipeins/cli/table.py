@@ -51,7 +51,7 @@ def table(fmt, units, output, sizes, matrix, material, series, code, code_table,
     selection = select(spec, material, req, parse_series(series, units), units, sizes=size_list, code=code,
                        economic=economic, code_paths=code_table)
     if matrix:
-        report = matrix_report(selection, matrix.replace("-", "_").replace("surface_temp", "surface_temp"), units)
+        report = matrix_report(selection, matrix.replace("-", "_"), units)
     else:
         out = selection.outcome
         if not out.feasible.any():
