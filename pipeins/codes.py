@@ -34,9 +34,7 @@ lands exactly on the edge.
 
 from __future__ import annotations
 
-import csv
 import functools
-import io
 import math
 import re
 from collections.abc import Callable
@@ -46,6 +44,7 @@ from pathlib import Path
 import numpy as np
 
 from pipeins.errors import InputError, closest_names
+from pipeins.tables import csv_rows
 
 __all__ = [
     "Interval",
@@ -390,8 +389,7 @@ def _read_csv_rows(path: Path) -> list[dict[str, str]]:
         text = Path(path).read_text(encoding="utf-8")
     except OSError as exc:
         raise InputError(_CODE_TABLE, f"cannot read {path}: {exc.strerror}") from None
-    lines = [ln for ln in io.StringIO(text) if ln.strip() and not ln.lstrip().startswith("#")]
-    return [dict(row) for row in csv.DictReader(lines)]
+    return [dict(row) for row in csv_rows(text)]
 
 
 @functools.cache

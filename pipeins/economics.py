@@ -16,14 +16,13 @@ total by the same P/A does not change which candidate is cheapest.
 
 from __future__ import annotations
 
-import csv
-import io
 from dataclasses import dataclass, field
 from pathlib import Path
 
 import numpy as np
 
 from pipeins.errors import InputError, closest_names
+from pipeins.tables import csv_rows
 
 __all__ = [
     "HOURS_PER_LEAP_YEAR",
@@ -300,8 +299,7 @@ class CostTable:
             text = path.read_text(encoding="utf-8")
         except OSError as exc:
             raise InputError("--cost-table", f"cannot read {path}: {exc.strerror}") from None
-        lines = [ln for ln in io.StringIO(text) if ln.strip() and not ln.lstrip().startswith("#")]
-        reader = csv.DictReader(lines)
+        reader = csv_rows(text)
         missing = [c for c in ("size", "thickness_mm", "cost_per_m") if c not in (reader.fieldnames or ())]
         if missing:
             raise InputError("--cost-table", f"{name} needs the columns size, thickness_mm, cost_per_m; missing {', '.join(missing)}")

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import difflib
 
-__all__ = ["InputError", "closest_names"]
+__all__ = ["InputError", "closest_names", "near_hint"]
 
 
 class InputError(ValueError):
@@ -34,3 +34,20 @@ def closest_names(word: str, names, n: int = 3) -> str:
         return "did you mean " + " or ".join(f'"{by_lower[c]}"' for c in close) + "?"
     shown = ", ".join(names[:12]) + (", …" if len(names) > 12 else "")
     return f"known: {shown}"
+
+
+def near_hint(word: str, names) -> str:
+    """A :func:`~pipeins.errors.closest_names` hint naming only the names about as close as
+    the closest one (similarity within 0.1 of the best), so a plain typo gets one suggestion.
+
+    >>> near_hint("glas wool", ["glass wool", "mineral wool"])
+    'did you mean "glass wool"?'
+    """
+    import difflib
+
+    names = list(names)
+    word = str(word).lower()
+    scores = {n: difflib.SequenceMatcher(None, word, n.lower()).ratio() for n in names}
+    best = max(scores.values(), default=0.0)
+    near = [n for n in names if scores[n] >= best - 0.1]
+    return closest_names(word, near if best >= 0.5 else names)

@@ -447,7 +447,7 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
     for key in data:
         if key not in _TOP:
             line = r.pos.header((key,)) or r.pos.key((), key)
-            from .catalog.materials import near_hint
+            from .errors import near_hint
 
             r.problems.append(f"{_where(file_name, line, 'file')}: unknown table [{key}]; "
                               f"{near_hint(key, _TOP)}")

@@ -13,7 +13,7 @@ import io
 from importlib import resources
 from pathlib import Path
 
-__all__ = ["read_table", "table_path", "table_names"]
+__all__ = ["read_table", "table_path", "table_names", "csv_rows"]
 
 
 def _tables_dir():
@@ -44,6 +44,11 @@ def read_table(name: str) -> tuple[dict[str, str], ...]:
     >>> all(row["source"] for row in rows)
     True
     """
-    text = table_path(name).read_text(encoding="utf-8")
+    return tuple(csv_rows(table_path(name).read_text(encoding="utf-8")).__iter__())
+
+
+def csv_rows(text: str) -> csv.DictReader:
+    """A DictReader over CSV *text*, skipping blank lines and ``#`` comment lines (the
+    format of the shipped tables and of user CSVs: cost tables, rule sets)."""
     lines = [ln for ln in io.StringIO(text) if ln.strip() and not ln.lstrip().startswith("#")]
-    return tuple(dict(row) for row in csv.DictReader(lines))
+    return csv.DictReader(lines)

@@ -11,7 +11,7 @@ import functools
 import re
 from dataclasses import dataclass
 
-from pipeins.catalog.materials import near_hint
+from pipeins.errors import near_hint
 from pipeins.errors import InputError
 from pipeins.tables import read_table
 

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import functools
 
-from pipeins.catalog.materials import near_hint
+from pipeins.errors import near_hint
 from pipeins.errors import InputError
 from pipeins.tables import read_table
 

@@ -14,7 +14,7 @@ import math
 import re
 from dataclasses import dataclass
 
-from pipeins.errors import InputError, closest_names
+from pipeins.errors import InputError, closest_names, near_hint
 from pipeins.tables import read_table
 
 __all__ = [
@@ -87,23 +87,6 @@ class WallMaterial:
     density_kg_m3: float
     heat_capacity_j_kgk: float
     source: str
-
-
-def near_hint(word: str, names) -> str:
-    """A :func:`~pipeins.errors.closest_names` hint naming only the names about as close as
-    the closest one (similarity within 0.1 of the best), so a plain typo gets one suggestion.
-
-    >>> near_hint("glas wool", ["glass wool", "mineral wool"])
-    'did you mean "glass wool"?'
-    """
-    import difflib
-
-    names = list(names)
-    word = str(word).lower()
-    scores = {n: difflib.SequenceMatcher(None, word, n.lower()).ratio() for n in names}
-    best = max(scores.values(), default=0.0)
-    near = [n for n in names if scores[n] >= best - 0.1]
-    return closest_names(word, near if best >= 0.5 else names)
 
 
 def _norm(text: str) -> str:

@@ -24,7 +24,7 @@ import re
 from dataclasses import dataclass
 from fractions import Fraction
 
-from pipeins.catalog.materials import near_hint
+from pipeins.errors import near_hint
 from pipeins.errors import InputError
 from pipeins.tables import read_table
 

@@ -52,7 +52,7 @@ def _match(rows: list[dict], match: str | None, fields: tuple[str, ...]) -> list
 
 
 def _family_filter(rows: list[dict], family: str | None, families: list[str]) -> list[dict]:
-    from ..catalog.materials import near_hint
+    from ..errors import near_hint
     from ..errors import InputError
 
     if family is None:
