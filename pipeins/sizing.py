@@ -18,7 +18,7 @@ The sized layer is the outermost; fixed inner layers stay as given.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+from dataclasses import dataclass, field
 from typing import Sequence
 
 import numpy as np

@@ -20,7 +20,6 @@ from typing import Sequence
 
 import numpy as np
 
-from .errors import InputError
 from .model import FlatWall, Layer, Pipe, Surface, Surroundings, Fluid
 from .physics import conduction, outer, radiation
 from .results import Result

@@ -16,7 +16,7 @@ import math
 
 import pytest
 
-from pipeins.cli import COMMANDS, main
+from pipeins.cli import COMMANDS
 
 
 

@@ -13,7 +13,7 @@ from pipeins.errors import InputError
 from pipeins.line import LineSpec
 from pipeins.model import Fluid, Layer, Pipe, Surface, Surroundings
 from pipeins.selection import select
-from pipeins.sizing import Condensation, HeatFlowCap, SizingProblem, TouchSafety, size
+from pipeins.sizing import HeatFlowCap, SizingProblem, size
 from pipeins.solve import solve
 
 SERIES_MM = (20, 25, 30, 40, 50, 60, 80, 100, 120)

@@ -14,7 +14,7 @@ import math
 import re
 from dataclasses import dataclass
 
-from pipeins.errors import InputError, closest_names, near_hint
+from pipeins.errors import InputError, near_hint
 from pipeins.tables import read_table
 
 __all__ = [

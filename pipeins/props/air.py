@@ -13,9 +13,10 @@ interpolation on the 2 K grid errs by less than 5e-5 relative.
 from __future__ import annotations
 
 import functools
-from dataclasses import dataclass
 
 import numpy as np
+
+from . import TransportProperties
 
 __all__ = ["AirProperties", "air_properties", "REFERENCE_PRESSURE_PA", "TEMP_RANGE_C"]
 
@@ -23,23 +24,8 @@ REFERENCE_PRESSURE_PA = 101_325.0
 TEMP_RANGE_C = (-100.0, 1000.0)
 
 
-@dataclass(frozen=True)
-class AirProperties:
+class AirProperties(TransportProperties):
     """Air properties at the film temperature; every field an array of the input's shape."""
-
-    density_kg_m3: np.ndarray
-    viscosity_pa_s: np.ndarray
-    conductivity_w_mk: np.ndarray
-    heat_capacity_j_kgk: np.ndarray
-    prandtl: np.ndarray
-
-    @property
-    def kinematic_viscosity_m2_s(self) -> np.ndarray:
-        return self.viscosity_pa_s / self.density_kg_m3
-
-    @property
-    def diffusivity_m2_s(self) -> np.ndarray:
-        return self.conductivity_w_mk / (self.density_kg_m3 * self.heat_capacity_j_kgk)
 
 
 @functools.cache

@@ -29,9 +29,10 @@ from __future__ import annotations
 
 import functools
 import re
-from dataclasses import dataclass
 
 import numpy as np
+
+from . import TransportProperties
 
 from pipeins.errors import InputError
 
@@ -71,19 +72,8 @@ _WATER_NAMES = {"water", "h2o", "heos::water", "water (liquid)", "liquid water"}
 _AIR_NAMES = {"air", "dry air", "heos::air"}
 
 
-@dataclass(frozen=True)
-class FluidProperties:
+class FluidProperties(TransportProperties):
     """Fluid properties at the bulk temperature; every field an array of the input's shape."""
-
-    density_kg_m3: np.ndarray
-    viscosity_pa_s: np.ndarray
-    conductivity_w_mk: np.ndarray
-    heat_capacity_j_kgk: np.ndarray
-    prandtl: np.ndarray
-
-    @property
-    def kinematic_viscosity_m2_s(self) -> np.ndarray:
-        return self.viscosity_pa_s / self.density_kg_m3
 
 
 def _glycol_name(percent: float, kind: str, original: str) -> str:

@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-from dataclasses import replace
 
 import numpy as np
 
@@ -46,7 +45,6 @@ def required_mm(selection, index: int) -> dict:
 
 
 def _cautions(selection) -> list[str]:
-    spec = selection.spec
     fluid = np.asarray(selection.problem.fluid.temp_c, dtype=float)
     air = np.asarray(selection.problem.surroundings.air_temp_c, dtype=float)
     out = []
@@ -66,7 +64,6 @@ def _cautions(selection) -> list[str]:
 
 
 def _criteria_rows(selection, index: int, units: str):
-    from ..units import format_quantity
 
     out = selection.outcome
     rows = []
