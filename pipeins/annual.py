@@ -36,6 +36,12 @@ class EnergyBasis:
     maintenance_fraction: float = 0.0
     cost_table: CostTable | None = None
 
+    def gain_warning(self, heat_flow_w) -> list[str]:
+        """A warning when heat gains are priced without a chiller COP."""
+        if self.cop is None and np.any(np.asarray(heat_flow_w) < 0):
+            return ["heat gain priced as heating energy (efficiency, no chiller COP): give --cop for a chilled line"]
+        return []
+
     def purchased_energy_j(self, heat_flow_w):
         """Energy bought per year [J] for a heat flow [W] (loss: / efficiency; gain: / COP)."""
         q = np.asarray(heat_flow_w, dtype=float)
@@ -89,7 +95,7 @@ def economic_outcome(problem, sizes, basis: EnergyBasis):
     for i, t in enumerate(lists):
         grid[i, : len(t)] = t
     solved = problem.solve(np.where(np.isfinite(grid), grid, grid[:, :1]))
-    q = np.abs(np.asarray(solved.heat_flow_w_per_m))
+    q = np.asarray(solved.heat_flow_w_per_m)  # signed: gains are priced through the COP
     annual = annual_figures(q, basis)["cost"]
     required, curves, messages = np.full(len(sizes), np.nan), [], []
     for i, size in enumerate(sizes):
@@ -107,8 +113,6 @@ def economic_outcome(problem, sizes, basis: EnergyBasis):
     outcome = CriterionOutcome("economic", "economic thickness", description, required,
                                np.ones(len(sizes), dtype=bool), messages)
     return outcome, curves
-
-
 
 def price_from_text(text: str, currency: str = "", option: str = "--energy-price") -> EnergyPrice:
     """An :class:`EnergyPrice` from text such as ``"0.09/kWh"`` or ``"1.05 per therm"``."""

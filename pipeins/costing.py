@@ -81,8 +81,9 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
 
     study = CostStudy(spec, basis, length, fittings, fit_len, mean(q_bare), mean(q_ins), mean(bare_w),
                       mean(ins_w), annual_figures(bare_w, basis), annual_figures(ins_w, basis),
-                      warnings=list(insulated.warnings))
+                      warnings=list(insulated.warnings) + basis.gain_warning(q_ins))
     study.profile = profile
+    study.result = insulated
     if fit_len:
         study.warnings.append(f"bare fittings count as {fit_len:.1f} m of bare pipe; insulating them "
                               "(removable covers) saves most of their share")
@@ -110,7 +111,7 @@ def _curve(spec, basis, size, pipe, fluid, air, surface, length, fit_len, q_bare
     outer = Layer(lookup_material(spec.layers[-1][0]),
                   thicknesses if np.ndim(fluid.temp_c) == 0 else thicknesses[:, None])
     r = solve(pipe, fixed + [outer], fluid, air, surface)
-    q = np.abs(np.asarray(r.heat_flow_w_per_m))  # per metre; fittings do not change with thickness
+    q = np.asarray(r.heat_flow_w_per_m)  # signed, per metre; fittings do not change with thickness
     yearly = annual_figures(q, basis)["cost"]
     installed = np.asarray(table.cost_per_m(size.label, thicknesses))
     res = economic_thickness(thicknesses, installed, yearly, basis.discount_rate, basis.years, basis.escalation,

@@ -167,13 +167,6 @@ class LineSpec:
             return Surface.from_finish(lookup_finish("bare_steel_oxidised"))
         return Surface()
 
-    def with_outer_thickness(self, thickness_m) -> "LineSpec":
-        """The same line with its outermost layer's thickness replaced (scalar or array)."""
-        if not self.layers:
-            raise InputError("--material", "no layer to size")
-        name, _ = self.layers[-1]
-        return replace(self, layers=self.layers[:-1] + ((name, thickness_m),))
-
     def build_model(self, sizes=None, insulated: bool | None = None):
         """(pipe, layers, fluid, surroundings, surface) ready for :func:`pipeins.solve.solve`."""
         pipe = self.build_pipe(sizes)

@@ -32,10 +32,13 @@ def _positive(name: str, value, what: str, allow_zero: bool = False):
     return arr
 
 
+MAX_TEMP_C = 1000.0  # the end of the air-property table
+
+
 def _temperature(name: str, value):
     arr = np.asarray(value, dtype=float)
-    if np.any(~np.isfinite(arr) | (arr < -273.15)):
-        raise InputError(name, "temperature must be a number above absolute zero (-273.15 °C)")
+    if np.any(~np.isfinite(arr) | (arr < -273.15) | (arr > MAX_TEMP_C)):
+        raise InputError(name, f"temperature must be above absolute zero (-273.15 °C) and at most {MAX_TEMP_C:g} °C")
     return arr
 
 
@@ -75,16 +78,6 @@ class Pipe:
     @property
     def inner_diameter_m(self):
         return np.asarray(self.outer_diameter_m, float) - 2 * np.asarray(self.wall_m, float)
-
-    @classmethod
-    def from_size(cls, size, wall_material=None) -> "Pipe":
-        """From a catalogue :class:`~pipeins.catalog.pipes.PipeSize`, with the wall
-        material (a catalogue :class:`WallMaterial`) defaulting by the kind of pipe."""
-        from .catalog.materials import default_wall_material
-
-        wall_material = wall_material or default_wall_material(size.kind)
-        return cls(size.outer_diameter_m, size.wall_m, wall_material.conductivity_w_mk,
-                   size.label, wall_material.name)
 
 
 @dataclass(frozen=True)

@@ -9,7 +9,8 @@ gives the surface temperature back, and the marched value falls as q rises.  So
 G(Ts) = Ts − march(q_out(Ts)) rises with Ts, with slope at least 1, and changes sign
 between the lowest and the highest of the fluid, air and radiant temperatures: a bracket
 that always holds the root.  Inside it a vectorised secant step, replaced by bisection
-when it would leave the bracket or when three steps together fail to halve it, converges
+when it would leave the bracket or when the last two steps together failed to halve it
+(so the first step is a bisection), converges
 to a relative tolerance of 1e-9 on q in about a dozen iterations; the count is bounded
 and reported, and a case that does not converge raises :class:`SolverError`.
 """
@@ -166,7 +167,7 @@ def _bracketed_root(q_out, march_surface, t_min, t_max, rtol, max_iterations):
     G rises with Ts (q_out rises with Ts; the marched surface falls with q), and
     G(t_min) <= 0 <= G(t_max), so [t_min, t_max] brackets the root.  Each step is a
     secant step through the last two iterates, replaced by bisection when it would leave
-    the bracket or when three steps together failed to halve it (a safeguarded secant
+    the bracket or when the last two steps together failed to halve it (a safeguarded secant
     method, cf. Brent, *Algorithms for Minimization without Derivatives*, 1973, ch. 4).
     Since G' >= 1 the root lies within |G(x)| of any x; the iteration stops when that
     bound, carried into the heat flow, or the bracket on the heat flow itself is below

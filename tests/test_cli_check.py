@@ -265,3 +265,23 @@ def test_every_command_help_has_an_example(run, name):
     # the Example block keeps its line breaks (click's \b marker)
     example = out.split("Example:", 1)[1].splitlines()
     assert example[1].strip().startswith("pipeins ")
+
+
+def test_unwritable_output_path_is_an_input_error(run, tmp_path):
+    code, out, err = run(*BASE, "--layer", "mineral wool:40mm", "--output", str(tmp_path / "missing" / "x.txt"))
+    assert code == 2 and out == ""
+    assert err.startswith("Error: --output: cannot write ")
+
+
+def test_fluid_temperature_above_the_property_tables_is_refused(run):
+    code, _, err = run("check", "--pipe", "DN50", "--fluid-temp", "1200C", "--layer", "mineral wool:40mm")
+    assert code == 2
+    assert err.strip() == ("Error: --fluid-temp: temperature must be above absolute zero (-273.15 °C) "
+                           "and at most 1000 °C")
+
+
+def test_cold_line_without_humidity_says_condensation_was_not_checked(run):
+    code, out, _ = run("check", "--pipe", "DN50", "--fluid-temp", "6C", "--ambient-temp", "28C",
+                       "--layer", "elastomeric foam:19mm", "--format", "json")
+    assert code == 0
+    assert "condensation not checked: the line is colder than the air; give --rh" in json.loads(out)["warnings"]

@@ -97,3 +97,15 @@ def test_profile_energy_is_the_sum_of_its_conditions():
     assert float(both.insulated["energy_j"]) == pytest.approx(sum(float(p.insulated["energy_j"]) for p in parts), rel=1e-9)
     assert both.bare_w == pytest.approx((3000 * parts[0].bare_w + 2500 * parts[1].bare_w) / 5500, rel=1e-9)
     assert both.curve is None
+
+
+def test_chiller_cop_divides_the_energy_of_a_heat_gain():
+    # Definition: E = |Q|·h/COP for a heat gain (hand arithmetic); without a COP a warning says so.
+    cold = LineSpec(pipe="NPS 4", fluid_temp_c=6.0, air_temp_c=30.0, length_m=50.0,
+                    layers=(("elastomeric foam", 0.025),))
+    price = EnergyPrice(0.15, "kWh", "EUR")
+    with_cop = cost_study(cold, EnergyBasis(hours_per_year=4000.0, price=price, cop=4.0))
+    no_cop = cost_study(cold, EnergyBasis(hours_per_year=4000.0, price=price))
+    assert float(with_cop.insulated["energy_j"]) == pytest.approx(abs(with_cop.insulated_w) * 4000 * 3600 / 4.0, rel=1e-9)
+    assert any("give --cop" in w for w in no_cop.warnings)
+    assert not any("give --cop" in w for w in with_cop.warnings)

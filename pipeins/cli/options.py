@@ -151,13 +151,20 @@ def emit(report, fmt: str, units: str, output: str | None) -> None:
     if output is None:
         click.echo(text, nl=False)
         return
+    from ..errors import InputError
+
     folder = os.path.dirname(os.path.abspath(output))
-    fd, tmp = tempfile.mkstemp(dir=folder, prefix=".pipeins-", suffix=".tmp")
+    try:
+        fd, tmp = tempfile.mkstemp(dir=folder, prefix=".pipeins-", suffix=".tmp")
+    except OSError as exc:
+        raise InputError("--output", f"cannot write {output}: {exc.strerror}") from None
     try:
         with os.fdopen(fd, "w", encoding="utf-8") as fh:
             fh.write(text)
         os.replace(tmp, output)
-    except BaseException:
+    except BaseException as exc:
         if os.path.exists(tmp):
             os.unlink(tmp)
+        if isinstance(exc, OSError):
+            raise InputError("--output", f"cannot write {output}: {exc.strerror}") from None
         raise

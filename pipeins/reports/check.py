@@ -115,6 +115,9 @@ def check_report(spec, result, units: str = "si", extra_rows=(), extra_data=None
     surface = _f(result.surface_temp_c)
     if result.touch_limit_c is not None and surface > result.touch_limit_c:
         warnings.append(f"surface {surface:.1f} °C is above the touch limit of {result.touch_limit_c:g} °C")
+    air = result.inputs["surroundings"]
+    if air.relative_humidity_percent is None and float(np.min(result.inputs["fluid"].temp_c)) < float(np.min(air.air_temp_c)):
+        warnings.append("condensation not checked: the line is colder than the air; give --rh")
     if result.dew_point_c is not None and surface < _f(result.dew_point_c):
         warnings.append(f"surface {surface:.1f} °C is below the dew point {_f(result.dew_point_c):.1f} °C: "
                         "it will sweat")

@@ -7,7 +7,7 @@ import math
 import numpy as np
 
 from . import Column, Report, Table
-from .cautions import GENERAL
+from .cautions import cautions_for
 
 __all__ = ["cost_report"]
 
@@ -20,6 +20,7 @@ def cost_report(study, units: str = "si") -> Report:
     from ..units import format_quantity as fq
 
     cur = study.basis.price.currency if study.basis.price is not None else ""
+    per = f"{cur}/" if cur else "per "
     money = f"cost per year [{cur}]" if cur else "cost per year"
     cols = [Column("case"), Column("heat flow", "heat_flow_per_length"), Column("over the run", "power"),
             Column("energy per year", "energy"), Column(money, None), Column("CO2 per year [kg]", None)]
@@ -53,8 +54,8 @@ def cost_report(study, units: str = "si") -> Report:
     curve = study.curve
     if curve is not None:
         ccols = [Column("thickness", "thickness"), Column(f"installed [{cur}/m]"),
-                 Column(f"energy, present value [{cur}/m]"), Column(f"total [{cur}/m]"), Column("")]
-        crow = [[t, _fmt(i), _fmt(e), _fmt(tot), "← least" if j == curve.best_index else ""]
+                 Column(f"energy, present value [{cur}/m]"), Column(f"total [{cur}/m]"), Column("least total")]
+        crow = [[t, _fmt(i), _fmt(e), _fmt(tot), "← economic thickness" if j == curve.best_index else ""]
                 for j, (t, i, e, tot) in enumerate(zip(curve.thickness_m, curve.installed_per_m,
                                                        curve.energy_pv_per_m, curve.total_per_m))]
         b = study.basis
@@ -81,11 +82,12 @@ def cost_report(study, units: str = "si") -> Report:
     footer = [footer_hours + "; "
               + (f"heat source efficiency {basis.efficiency:g}" if basis.cop is None else
                  f"efficiency {basis.efficiency:g}, chiller COP {basis.cop:g}")
-              + (f"; energy {basis.price.price_per_unit:g} {cur}/{basis.price.unit}" if basis.price else ""),
+              + (f"; energy {basis.price.price_per_unit:g} {per}{basis.price.unit}" if basis.price else ""),
               "energy, price and emission inputs are the user's; demo values in examples/ are invented"]
-    data.update({"warnings": warnings, "cautions": [GENERAL]})
+    cautions = cautions_for(study.spec, study.result)
+    data.update({"warnings": warnings, "cautions": cautions})
     size = study.spec.pipe_size().label
-    return Report(f"Energy and cost: {size}", tables, data, warnings, [GENERAL], footer)
+    return Report(f"Energy and cost: {size}", tables, data, warnings, cautions, footer)
 
 
 def _fmt(x, digits=2):
