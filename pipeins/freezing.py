@@ -207,7 +207,7 @@ class FreezeHold(Criterion):
                              fluid_name=problem.fluid.name or "water")
         return (times.time_to_ice_fraction_s - self.hold_time_s) / self.hold_time_s
 
-    def describe(self):
+    def describe(self, units="si"):
         return f"still water holds {_hours(self.hold_time_s)} before it {self._what()}"
 
     def state_text(self, margin):

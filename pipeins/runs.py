@@ -369,8 +369,11 @@ class TempChange(Criterion):
                                     problem.fluid.film_coefficient_w_m2k, self.segments)
         return self.max_change_k - np.abs(np.asarray(inlet, dtype=float) - run.outlet_temp_c)
 
-    def describe(self):
-        return f"fluid changes by at most {self.max_change_k:g} K over {self.length_m:g} m"
+    def describe(self, units="si"):
+        from .units import format_quantity as fq
+
+        return (f"fluid changes by at most {fq(self.max_change_k, 'temperature_difference', units)} "
+                f"over {fq(self.length_m, 'length', units)}")
 
     def state_text(self, margin):
         return f"changes by {self.max_change_k - margin:.2f} K over {self.length_m:g} m (limit {self.max_change_k:g} K)"

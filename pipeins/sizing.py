@@ -72,6 +72,12 @@ class SizingProblem:
         return self.context["bare"]
 
 
+def _q(value_si: float, kind: str, units: str) -> str:
+    from .units import format_quantity
+
+    return format_quantity(value_si, kind, units)
+
+
 class Criterion:
     """Base class: ``key`` (JSON), ``label`` (reports), ``unit`` of the margin."""
 
@@ -81,7 +87,8 @@ class Criterion:
     def margin(self, problem: SizingProblem, result, thickness_m) -> np.ndarray:
         raise NotImplementedError
 
-    def describe(self) -> str:
+    def describe(self, units: str = "si") -> str:
+        """The requirement in words, quantities in the unit system *units*."""
         return self.label
 
     def miss(self, margin: float, thickness_m: float) -> str:
@@ -110,9 +117,9 @@ class TouchSafety(Criterion):
     def margin(self, problem, result, thickness_m):
         return self.limit_c - result.surface_temp_c
 
-    def describe(self):
-        return f"surface at or below {self.limit_c:g} °C ({self.source})" if self.source else \
-            f"surface at or below {self.limit_c:g} °C"
+    def describe(self, units="si"):
+        text = f"surface at or below {_q(self.limit_c, 'temperature', units)}"
+        return f"{text} ({self.source})" if self.source else text
 
     def state(self, problem, result, index):
         ts = float(np.ravel(result.surface_temp_c)[index])
@@ -136,8 +143,8 @@ class Condensation(Criterion):
             raise InputError("--rh", "condensation control needs the relative humidity of the air")
         return result.surface_temp_c - (result.dew_point_c + self.margin_k)
 
-    def describe(self):
-        return f"surface at least {self.margin_k:g} K above the dew point"
+    def describe(self, units="si"):
+        return f"surface at least {_q(self.margin_k, 'temperature_difference', units)} above the dew point"
 
     def state(self, problem, result, index):
         ts = float(np.ravel(result.surface_temp_c)[index])
@@ -180,10 +187,10 @@ class HeatFlowCap(Criterion):
         cap = self.cap(problem)
         return (cap - np.abs(result.heat_flow_w_per_m)) / cap  # relative margin
 
-    def describe(self):
+    def describe(self, units="si"):
         parts = []
         if self.max_w_per_m is not None:
-            parts.append(f"|heat flow| at most {self.max_w_per_m:g} W/m")
+            parts.append(f"|heat flow| at most {_q(self.max_w_per_m, 'heat_flow_per_length', units)}")
         if self.min_reduction is not None:
             parts.append(f"at least {100 * self.min_reduction:g} % below the bare line")
         return " and ".join(parts)

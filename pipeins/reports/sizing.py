@@ -137,7 +137,7 @@ def conditions_footer(selection, units: str) -> list[str]:
         lines.append("fixed inner layers: " + "; ".join(
             f"{l.material.name} {fq(float(np.max(l.thickness_m)), 'thickness', units)}" for l in p.fixed_layers))
     for c in selection.criteria:
-        lines.append(f"{c.label}: {c.describe()}")
+        lines.append(f"{c.label}: {c.describe(units)}")
     return lines
 
 
