@@ -18,7 +18,6 @@ from dataclasses import dataclass
 import numpy as np
 
 from .errors import InputError
-from .reports.cautions import TOUCH_DEFAULT_SOURCE
 from .sizing import DEFAULT_DEW_MARGIN_K, Condensation, HeatFlowCap, TouchSafety
 
 __all__ = ["Requirements", "build_criteria", "touch_limit_for"]
@@ -50,9 +49,9 @@ def touch_limit_for(req: Requirements, surface_kind: str) -> tuple[float, str]:
 
         limit, source = touch_limit(surface_kind, req.contact_time_s)
         return float(limit), f"{surface_kind.replace('_', ' ')} surface, {req.contact_time_s:g} s contact: {source}"
-    from .solve import DEFAULT_TOUCH_LIMIT_C
+    from .catalog.touch import DEFAULT_TOUCH_LIMIT_C, DEFAULT_TOUCH_LIMIT_SOURCE
 
-    return DEFAULT_TOUCH_LIMIT_C, TOUCH_DEFAULT_SOURCE
+    return DEFAULT_TOUCH_LIMIT_C, DEFAULT_TOUCH_LIMIT_SOURCE
 
 
 def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_kind: str):

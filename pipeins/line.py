@@ -23,7 +23,8 @@ import numpy as np
 
 from .errors import InputError
 from .model import Fluid, Layer, Pipe, Surface, Surroundings, STANDARD_PRESSURE_PA
-from .solve import DEFAULT_TOUCH_LIMIT_C, solve
+from .catalog.touch import DEFAULT_TOUCH_LIMIT_C
+from .solve import solve
 
 __all__ = ["LineSpec", "inner_film_for_flow"]
 

@@ -343,25 +343,11 @@ def _bands(project, chosen, groups) -> list[ScheduleRow]:
 
 
 def _cautions(project, groups) -> list[str]:
-    from .reports.cautions import CODE, COLD, FREEZE, GENERAL, HOT, METAL_JACKET
+    from .catalog.finishes import lookup_finish
+    from .reports.cautions import cautions
 
-    out = []
-    for (sname, cname) in groups:
-        service, condition = project.services[sname], project.conditions[cname]
-        temp = service.fluid_temp_c
-        if temp > 45.0:
-            out.append(HOT)
-            if service.finish:
-                from .catalog.finishes import lookup_finish
-
-                if lookup_finish(service.finish).surface_kind in ("metal_jacket", "bare_metal"):
-                    out.append(METAL_JACKET)
-        if temp < condition.air_temp_c:
-            out.append(COLD)
-        if condition.air_temp_c < 0 or "freeze" in service.criteria:
-            out.append(FREEZE)
-        if service.code is not None:
-            out.append(CODE)
-    out.append(GENERAL)
-    order = [HOT, METAL_JACKET, COLD, FREEZE, CODE, GENERAL]
-    return [c for c in order if c in out]
+    services = [project.services[s] for s, _ in groups]
+    return cautions([s.fluid_temp_c for s in services], [project.conditions[c].air_temp_c for _, c in groups],
+                    [lookup_finish(s.finish).surface_kind for s in services if s.finish],
+                    freeze=any("freeze" in s.criteria for s in services),
+                    code=any(s.code is not None for s in services))

@@ -25,9 +25,8 @@ from .model import FlatWall, Layer, Pipe, Surface, Surroundings, Fluid
 from .physics import conduction, outer, radiation
 from .results import Result
 
-__all__ = ["solve", "SolverError", "DEFAULT_TOUCH_LIMIT_C"]
+__all__ = ["solve", "SolverError"]
 
-DEFAULT_TOUCH_LIMIT_C = 60.0  # common practice, after ASTM C1055 guidance (short contact with metal)
 RELATIVE_TOLERANCE = 1e-9
 MAX_ITERATIONS = 200
 
@@ -37,12 +36,13 @@ class SolverError(RuntimeError):
 
 
 def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surroundings: Surroundings,
-          surface: Surface = Surface(), *, touch_limit_c=DEFAULT_TOUCH_LIMIT_C,
+          surface: Surface = Surface(), *, touch_limit_c=None,
           rtol: float = RELATIVE_TOLERANCE, max_iterations: int = MAX_ITERATIONS) -> Result:
     """Heat flow and temperatures of an insulated pipe (or flat face), for arrays of cases.
 
     Every numeric input broadcasts against every other; the result's arrays have the
-    broadcast shape.  See the module docstring for the method.
+    broadcast shape.  See the module docstring for the method.  *touch_limit_c*, optional, is a
+    surface-temperature limit the result compares against (``over_touch_limit``).
 
     >>> from pipeins.catalog.materials import lookup_material
     >>> r = solve(Pipe(0.0603, 0.0039), [Layer(lookup_material("k=0.040"), 0.040)],

@@ -6,7 +6,7 @@ from __future__ import annotations
 import numpy as np
 
 from . import Column, Report, Table
-from .cautions import CODE, COLD, FREEZE, GENERAL, HOT, METAL_JACKET
+from .cautions import cautions
 
 __all__ = ["size_report", "table_report", "matrix_report", "CRITERION_OPTIONS", "layers_text"]
 
@@ -45,22 +45,9 @@ def required_mm(selection, index: int) -> dict:
 
 
 def _cautions(selection) -> list[str]:
-    fluid = np.asarray(selection.problem.fluid.temp_c, dtype=float)
-    air = np.asarray(selection.problem.surroundings.air_temp_c, dtype=float)
-    out = []
-    keys = {c.key for c in selection.outcome.criteria}
-    if float(fluid.max()) > 45.0:
-        out.append(HOT)
-        if selection.problem.surface.surface_kind in ("metal_jacket", "bare_metal") or "surface_temp" in keys:
-            out.append(METAL_JACKET)
-    if float(fluid.min()) < float(air.min()):
-        out.append(COLD)
-    if float(air.min()) < 0 or "freeze" in keys:
-        out.append(FREEZE)
-    if "code" in keys:
-        out.append(CODE)
-    out.append(GENERAL)
-    return out
+    p, keys = selection.problem, {c.key for c in selection.outcome.criteria}
+    return cautions(p.fluid.temp_c, p.surroundings.air_temp_c, [p.surface.surface_kind],
+                    touch="surface_temp" in keys, freeze="freeze" in keys, code="code" in keys)
 
 
 def _criteria_rows(selection, index: int, units: str):
