@@ -77,6 +77,17 @@ class EconomicCurve:
     warnings: list[str] = field(default_factory=list)
 
 
+def economic_curve(size_label: str, thicknesses_m, annual_energy_cost_per_m, basis: EnergyBasis) -> EconomicCurve:
+    """The cost curve of one size over the cost table's thicknesses, given the yearly energy
+    cost per metre at each thickness."""
+    installed = np.asarray(basis.cost_table.cost_per_m(size_label, thicknesses_m))
+    res = economic_thickness(thicknesses_m, installed, annual_energy_cost_per_m, basis.discount_rate, basis.years,
+                             basis.escalation, basis.maintenance_fraction)
+    return EconomicCurve(size_label, np.asarray(thicknesses_m), installed,
+                         np.asarray(res.energy_pv_per_m + res.maintenance_pv_per_m),
+                         np.asarray(res.total_per_m), int(res.best_index), list(res.warnings))
+
+
 def economic_outcome(problem, sizes, basis: EnergyBasis):
     """The economic thickness per size (ISO 12241 / VDI 2055 approach: least installed cost
     plus present value of the energy cost), over the thicknesses the cost table lists.
@@ -97,17 +108,10 @@ def economic_outcome(problem, sizes, basis: EnergyBasis):
     solved = problem.solve(np.where(np.isfinite(grid), grid, grid[:, :1]))
     q = np.asarray(solved.heat_flow_w_per_m)  # signed: gains are priced through the COP
     annual = annual_figures(q, basis)["cost"]
-    required, curves, messages = np.full(len(sizes), np.nan), [], []
-    for i, size in enumerate(sizes):
-        n = len(lists[i])
-        installed = basis.cost_table.cost_per_m(size.label, lists[i])
-        result = economic_thickness(lists[i], installed, annual[i, :n], basis.discount_rate, basis.years,
-                                    basis.escalation, basis.maintenance_fraction)
-        required[i] = float(result.best_thickness_m)
-        curves.append(EconomicCurve(size.label, lists[i], np.asarray(installed),
-                                    np.asarray(result.energy_pv_per_m + result.maintenance_pv_per_m),
-                                    np.asarray(result.total_per_m), int(result.best_index), list(result.warnings)))
-        messages.append("")
+    curves = [economic_curve(size.label, lists[i], annual[i, : len(lists[i])], basis)
+              for i, size in enumerate(sizes)]
+    required = np.array([c.thickness_m[c.best_index] for c in curves])
+    messages = [""] * len(sizes)
     description = (f"least installed cost + energy over {basis.years:g} years at {100 * basis.discount_rate:g} %"
                    + (f", energy price rising {100 * basis.escalation:g} %/year" if basis.escalation else ""))
     outcome = CriterionOutcome("economic", "economic thickness", description, required,

@@ -13,8 +13,8 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
-from .annual import EconomicCurve, EnergyBasis, annual_figures
-from .economics import economic_thickness, simple_payback_years
+from .annual import EconomicCurve, EnergyBasis, annual_figures, economic_curve
+from .economics import simple_payback_years
 from .errors import InputError
 
 __all__ = ["CostStudy", "cost_study"]
@@ -112,10 +112,4 @@ def _curve(spec, basis, size, pipe, fluid, air, surface, length, fit_len, q_bare
                   thicknesses if np.ndim(fluid.temp_c) == 0 else thicknesses[:, None])
     r = solve(pipe, fixed + [outer], fluid, air, surface)
     q = np.asarray(r.heat_flow_w_per_m)  # signed, per metre; fittings do not change with thickness
-    yearly = annual_figures(q, basis)["cost"]
-    installed = np.asarray(table.cost_per_m(size.label, thicknesses))
-    res = economic_thickness(thicknesses, installed, yearly, basis.discount_rate, basis.years, basis.escalation,
-                             basis.maintenance_fraction)
-    return EconomicCurve(size.label, thicknesses, installed,
-                         np.asarray(res.energy_pv_per_m + res.maintenance_pv_per_m),
-                         np.asarray(res.total_per_m), int(res.best_index), list(res.warnings))
+    return economic_curve(size.label, thicknesses, annual_figures(q, basis)["cost"], basis)
