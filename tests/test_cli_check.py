@@ -285,3 +285,13 @@ def test_cold_line_without_humidity_says_condensation_was_not_checked(run):
                        "--layer", "elastomeric foam:19mm", "--format", "json")
     assert code == 0
     assert "condensation not checked: the line is colder than the air; give --rh" in json.loads(out)["warnings"]
+
+
+@pytest.mark.parametrize("extra, line", [
+    (("--outer-h", "10", "--wind", "3m/s"),
+     "Error: --outer-h: a fixed outer coefficient replaces convection and radiation; drop --wind"),
+    (("--height", "3m"), "Error: --height: the height applies to a vertical run; add --orientation vertical"),
+])
+def test_options_that_would_be_ignored_are_refused(run, extra, line):
+    code, out, err = run(*BASE, "--layer", "mineral wool:40mm", *extra)
+    assert code == 2 and out == "" and err.strip() == line

@@ -96,6 +96,13 @@ def spec_from_options(opts: dict, units: str):
     from ..units import parse_quantity
 
     q = lambda name, kind: _q(opts, name, kind, units)  # noqa: E731
+    if opts.get("outer_h"):
+        clash = [o for o in ("wind", "finish", "emittance", "surroundings_temp") if opts.get(o)]
+        if clash:
+            raise InputError("--outer-h", "a fixed outer coefficient replaces convection and radiation; "
+                             f"drop --{clash[0].replace('_', '-')}")
+    if opts.get("height") and (opts.get("orientation") or "horizontal") != "vertical":
+        raise InputError("--height", "the height applies to a vertical run; add --orientation vertical")
     if opts.get("air_pressure") and opts.get("altitude"):
         raise InputError("--altitude", "give --air-pressure or --altitude, not both")
     pressure = q("air_pressure", "pressure")
