@@ -124,3 +124,17 @@ def test_material_above_its_service_limit_is_a_named_warning(run):
                          "--format", "json")
     assert code == 0, err
     assert any(w.startswith("layer 1 (flexible elastomeric foam tube): reaches") for w in json.loads(out)["warnings"])
+
+
+def test_matrix_names_the_cells_that_fail_a_criterion(run):
+    # A cell of the matrix fails condensation control exactly when the sized table needs more than
+    # its thickness (consistency of the two layouts on the same solver).
+    args = ("--sizes", "DN15..DN50", "--fluid-temp", "7C", "--ambient-temp", "30C", "--rh", "75",
+            "--material", "elastomeric foam", "--format", "json")
+    _, out, _ = run("table", *args, "--matrix", "surface-temp")
+    warnings = json.loads(out)["warnings"]
+    _, out, _ = run("table", *args)
+    for row in json.loads(out)["rows"]:
+        need = row["required_thickness_mm"]["condensation"]
+        failing = [w for w in warnings if w.startswith(row["size"] + ": fails condensation control")]
+        assert bool(failing) == (need > 9.0)  # 9 mm is the thinnest of the elastomeric series

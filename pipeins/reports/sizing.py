@@ -185,7 +185,14 @@ def matrix_report(selection, quantity: str, units: str = "si") -> Report:
                           [float(v) for v in values[i]]} for i, s in enumerate(selection.sizes)]}
     footer = conditions_footer(selection, units)
     cautions = _cautions(selection)
-    data.update({"conditions": footer, "cautions": cautions, "warnings": list(dict.fromkeys(result.warnings))})
+    warnings = list(dict.fromkeys(result.warnings))
+    # Cells that fail an active criterion (touch limit, dew point plus margin, heat-flow cap).
+    for crit in selection.criteria:
+        failing = np.asarray(crit.margin(selection.problem, result, series)) < 0
+        for i, s in enumerate(selection.sizes):
+            if failing[i].any():
+                thin = ", ".join(format_quantity(t, "thickness", units) for t in series[failing[i]])
+                warnings.append(f"{s.label}: fails {crit.label} at {thin}")
+    data.update({"conditions": footer, "cautions": cautions, "warnings": warnings})
     return Report(f"{what.capitalize()} by size and thickness: {selection.material.name}",
-                  [Table(f"{what} at each thickness", columns, rows)], data,
-                  list(dict.fromkeys(result.warnings)), cautions, footer)
+                  [Table(f"{what} at each thickness", columns, rows)], data, warnings, cautions, footer)
