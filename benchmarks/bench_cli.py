@@ -19,7 +19,7 @@ import time
 HELP_TARGET_S = 0.3
 CHECK_TARGET_S = 1.0
 CHECK_ARGS = ["check", "--pipe", "NPS 4", "--fluid-temp", "180C", "--ambient-temp", "25C",
-              "--layer", "mineral wool:50mm", "--finish", "aluminium jacket, oxidised"]
+              "--layer", "mineral wool:50mm", "--finish", "aluminium, dull or aged"]
 _IN_PROCESS = "import sys; from pipeins.cli import main; main(sys.argv[1:])"
 
 

@@ -20,10 +20,10 @@ TARGET_S = 5.0
 N_LINES = 2000
 
 SERVICES = [
-    ("hhw_82", 'temperature = "82 C"\nmaterial = "mineral wool"\nfinish = "aluminium jacket, oxidised"\n'
+    ("hhw_82", 'temperature = "82 C"\nmaterial = "mineral wool"\nfinish = "aluminium, dull or aged"\n'
                'criteria = ["code", "touch", "heat_flow"]\nmax_heat_flow = "40 W/m"'),
     ("hhw_60", 'temperature = "60 C"\nmaterial = "glass wool"\nfinish = "PVC jacket"\ncriteria = ["code"]'),
-    ("dhw_60", 'temperature = "60 C"\nmaterial = "elastomeric foam"\nfinish = "foam, no jacket"\n'
+    ("dhw_60", 'temperature = "60 C"\nmaterial = "elastomeric foam"\nfinish = "elastomeric foam, unfaced"\n'
                'criteria = ["heat_flow"]\nmax_heat_flow = "25 W/m"'),
     ("dhw_return", 'temperature = "55 C"\nmaterial = "elastomeric foam"\ncriteria = ["heat_flow"]\n'
                    'min_reduction = "80%"'),
@@ -31,12 +31,12 @@ SERVICES = [
               'criteria = ["condensation", "code"]'),
     ("chw_12", 'temperature = "12 C"\nmaterial = "polyisocyanurate foam"\nfinish = "PVC jacket"\n'
                'criteria = ["condensation"]'),
-    ("steam_3", 'steam_pressure = "3 barg"\nmaterial = "mineral wool"\nfinish = "aluminium jacket, oxidised"\n'
+    ("steam_3", 'steam_pressure = "3 barg"\nmaterial = "mineral wool"\nfinish = "aluminium, dull or aged"\n'
                 'criteria = ["touch", "code"]'),
-    ("steam_10", 'steam_pressure = "10 barg"\nmaterial = "calcium silicate"\nfinish = "stainless steel jacket"\n'
+    ("steam_10", 'steam_pressure = "10 barg"\nmaterial = "calcium silicate"\nfinish = "stainless steel, bright"\n'
                  'criteria = ["touch", "heat_flow"]\nmax_heat_flow = "100 W/m"'),
     ("condensate", 'temperature = "90 C"\nmaterial = "mineral wool"\ncriteria = ["touch", "economic"]'),
-    ("process_120", 'temperature = "120 C"\nmaterial = "cellular glass"\nfinish = "painted metal jacket"\n'
+    ("process_120", 'temperature = "120 C"\nmaterial = "cellular glass"\nfinish = "painted steel, any colour"\n'
                     'criteria = ["touch", "economic", "code"]'),
 ]
 SIZES = ["NPS 1/2", "NPS 3/4", "NPS 1", "NPS 1-1/2", "NPS 2", "NPS 3", "NPS 4", "NPS 6", "NPS 8", "NPS 10"]

@@ -7,7 +7,7 @@ steam pressure), the surroundings and the finish.  :meth:`LineSpec.solve` builds
 use it directly or build the model objects themselves.
 
 >>> spec = LineSpec(pipe="NPS 2", layers=(("mineral wool", 0.040),), fluid_temp_c=150.0,
-...                 air_temp_c=20.0, finish="aluminium jacket, new")
+...                 air_temp_c=20.0, finish="aluminium, bright")
 >>> result = spec.solve()
 >>> 15 < float(result.heat_flow_w_per_m) < 40
 True

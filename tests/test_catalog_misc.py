@@ -5,7 +5,7 @@ import pint
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from pipeins.catalog.finishes import SURFACE_KINDS, Finish, list_finishes, lookup_finish
+from pipeins.catalog.finishes import FAMILIES, SURFACE_KINDS, Finish, list_finishes, lookup_finish
 from pipeins.catalog.fittings import equivalent_length_m, fitting_kinds
 from pipeins.catalog.materials import list_materials
 from pipeins.catalog.series import default_series, series_families, series_names, thickness_series_m
@@ -24,7 +24,7 @@ ureg = pint.UnitRegistry()
 ALL_TABLES = ["pipes_steel", "pipes_copper", "pipes_metric", "wall_materials", "insulation_materials",
               "finishes", "thickness_series", "touch_limits", "fitting_lengths"]
 TEXT_COLUMNS = {"nps", "nominal", "type", "schedule", "key", "name", "family", "series", "unit",
-                "surface_kind", "fitting", "source"}
+                "surface_kind", "fitting", "source", "condition", "aliases"}
 
 
 @pytest.mark.parametrize("table", ALL_TABLES)
@@ -42,25 +42,42 @@ def test_every_table_has_sources_and_numbers(table):
 # ---------------------------------------------------------------- finishes
 def test_finish_table():
     for row in read_table("finishes"):
-        assert 0.0 < float(row["emittance"]) <= 1.0  # definition of emittance
+        low, used, high = (float(row[k]) for k in ("emittance_low", "emittance", "emittance_high"))
+        assert 0.0 < low <= used <= high <= 1.0  # definition of emittance; the value used lies in its source's range
         assert row["surface_kind"] in SURFACE_KINDS
+        assert row["family"] in FAMILIES
+        assert row["condition"] in ("bright or new", "dull or aged", "weathered or oxidised", "any age")
+        assert row["source"]
     assert set(SURFACE_KINDS) == set(touch_surface_kinds())
+    assert {row["family"] for row in read_table("finishes")} == set(FAMILIES)
+
+
+def test_finish_names_unique():
+    # every key, name and alias names one finish only
+    seen = {}
+    for f in (lookup_finish(r["key"]) for r in read_table("finishes")):
+        for text in (f.key, f.name, *f.aliases):
+            norm = " ".join(text.lower().replace(",", " ").replace("_", " ").replace("-", " ").split())
+            assert seen.setdefault(norm, f.key) == f.key, text
 
 
 def test_finish_physics():
-    # physical fact: polished metals have low emittance, oxidised and non-metallic surfaces high
-    assert lookup_finish("copper polished").emittance < 0.1
-    assert lookup_finish("aluminium new").emittance < lookup_finish("aluminium oxidised").emittance
-    assert lookup_finish("galvanised new").emittance < lookup_finish("galvanised weathered").emittance
-    assert lookup_finish("bare steel oxidised").emittance > 0.7
-    assert lookup_finish("pvc jacket").emittance > 0.8
+    # physical facts (heat-transfer texts' emittance tables): polished metals low, oxidised and
+    # weathered metals higher, non-metallic surfaces and paints high
+    e = {r["key"]: r["emittance"] for r in list_finishes()}
+    for metal in ("aluminium", "stainless", "galvanised"):
+        assert e[f"{metal}_bright" if metal != "galvanised" else "galvanised_new"] < e[f"{metal}_dull"] \
+            < e[f"{metal}_weathered"]
+    assert e["copper_bright"] < 0.1 < e["copper_oxidised"]
+    assert e["steel_new"] < e["steel_oxidised"] and e["steel_oxidised"] > 0.7
+    assert all(e[k] > 0.8 for k in ("pvc_jacket", "painted_steel", "paper_facing", "foam_unfaced", "plastic_pipe"))
 
 
 def test_finish_lookup():
-    f = lookup_finish("Aluminium-Oxidised")
-    assert isinstance(f, Finish) and f.key == "aluminium_oxidised"
-    assert lookup_finish("aluminium jacket, oxidised") == f
-    assert lookup_finish("aluminium jacket, new").key == "aluminium_new"
+    f = lookup_finish("Aluminium, Dull or Aged")
+    assert isinstance(f, Finish) and f.key == "aluminium_dull"
+    assert lookup_finish("aluminium-dull-or-aged") == f
+    assert lookup_finish("aluminium, bright").key == "aluminium_bright"
     with pytest.raises(InputError) as info:
         lookup_finish("aluminum old")
     assert info.value.name == "--finish"
@@ -70,6 +87,20 @@ def test_finish_lookup():
     assert (info.value.name, info.value.message) == (
         "--finish", 'unknown finish "pvc jackit"; did you mean "pvc jacket"?')
     assert len(list_finishes()) == len(read_table("finishes"))
+
+
+@pytest.mark.parametrize("us, ours", [
+    ("aluminum, bright", "aluminium_bright"),
+    ("Aluminum, oxidized", "aluminium_weathered"),
+    ("galvanized steel, new", "galvanised_new"),
+    ("galvanized steel, weathered", "galvanised_weathered"),
+    ("stainless steel, oxidized", "stainless_weathered"),
+    ("painted steel, any color", "painted_steel"),
+    ("carbon steel, bare, oxidized", "steel_oxidised"),
+    ("copper, oxidized", "copper_oxidised"),
+])
+def test_finish_us_spellings(us, ours):
+    assert lookup_finish(us).key == ours
 
 
 # ---------------------------------------------------------------- thickness series

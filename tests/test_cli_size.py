@@ -28,7 +28,7 @@ def test_size_json_contract(run):
 
 
 def test_size_text_shows_the_touch_limit_and_its_source(run):
-    code, out, _ = run("size", "--pipe", "NPS 4", *HOT, "--finish", "aluminium jacket, oxidised")
+    code, out, _ = run("size", "--pipe", "NPS 4", *HOT, "--finish", "aluminium, dull or aged")
     assert code == 0
     assert "touch limit 60 °C: common practice, after ASTM C1055" in out
     assert "metal jacket's low emittance makes its surface run hotter" in out

@@ -1,8 +1,11 @@
-"""Outer surface finishes (jackets, bare surfaces): emittance and surface kind.
+"""Outer surfaces (jackets, coatings, bare pipe): emittance, family, condition, surface kind.
 
-Read from ``tables/finishes.csv``. ``surface_kind`` is one of ``bare_metal``,
-``metal_jacket`` or ``non_metallic`` and selects the touch limit (see
-:mod:`pipeins.catalog.touch`).
+Read from ``tables/finishes.csv``.  Each finish belongs to a surface family (non-metallic
+jackets and coatings; aluminium; stainless steel; galvanised and painted steel; bare pipe)
+and has a condition (bright or new, dull or aged, weathered or oxidised, or any age).  It
+carries the emittance range its source gives and the value used.  ``surface_kind`` is one
+of ``bare_metal``, ``metal_jacket`` or ``non_metallic`` and selects the touch limit (see
+:mod:`pipeins.catalog.touch`).  Any other emittance is given with ``--emittance``.
 """
 
 from __future__ import annotations
@@ -15,10 +18,13 @@ from pipeins.errors import near_hint
 from pipeins.errors import InputError
 from pipeins.tables import read_table
 
-__all__ = ["Finish", "lookup_finish", "list_finishes", "SURFACE_KINDS"]
+__all__ = ["Finish", "lookup_finish", "list_finishes", "SURFACE_KINDS", "FAMILIES"]
 
 #: Surface kinds known to the touch-limit table.
 SURFACE_KINDS = ("bare_metal", "metal_jacket", "non_metallic")
+#: Surface families, in catalogue order.
+FAMILIES = ("non-metallic jackets and coatings", "aluminium", "stainless steel",
+            "galvanised and painted steel", "bare pipe")
 
 
 @dataclass(frozen=True)
@@ -28,14 +34,23 @@ class Finish:
     Attributes
     ----------
     key : str
-        Catalogue key, e.g. ``"aluminium_oxidised"``.
+        Catalogue key, e.g. ``"aluminium_dull"``.
     name : str
-        Readable name.
+        Readable name, e.g. ``"aluminium, dull or aged"``.
     emittance : float
-        Total hemispherical emittance [-], 0 < emittance ≤ 1.
+        Total hemispherical emittance used [-], 0 < emittance ≤ 1.
     surface_kind : str
         ``bare_metal``, ``metal_jacket`` or ``non_metallic``.
     source : str
+        Where the emittance comes from.
+    family : str
+        Surface family (one of :data:`FAMILIES`).
+    condition : str
+        ``bright or new``, ``dull or aged``, ``weathered or oxidised`` or ``any age``.
+    emittance_range : tuple of float
+        (low, high) emittance the source gives [-].
+    aliases : tuple of str
+        Other spellings accepted by :func:`lookup_finish`.
     """
 
     key: str
@@ -43,6 +58,10 @@ class Finish:
     emittance: float
     surface_kind: str
     source: str
+    family: str = ""
+    condition: str = ""
+    emittance_range: tuple[float, float] = (0.0, 1.0)
+    aliases: tuple[str, ...] = ()
 
 
 def _norm(text: str) -> str:
@@ -51,44 +70,64 @@ def _norm(text: str) -> str:
 
 @functools.cache
 def _finishes() -> dict[str, Finish]:
-    return {
-        row["key"]: Finish(row["key"], row["name"], float(row["emittance"]),
-                           row["surface_kind"], row["source"])
-        for row in read_table("finishes")
-    }
+    out = {}
+    for row in read_table("finishes"):
+        aliases = tuple(a.strip() for a in row["aliases"].split(";") if a.strip())
+        out[row["key"]] = Finish(row["key"], row["name"], float(row["emittance"]), row["surface_kind"],
+                                 row["source"], row["family"], row["condition"],
+                                 (float(row["emittance_low"]), float(row["emittance_high"])), aliases)
+    return out
+
+
+@functools.cache
+def _names() -> dict[str, str]:
+    """Normalised key, name and alias -> key."""
+    names = {}
+    for key, finish in _finishes().items():
+        for text in (key, finish.name, *finish.aliases):
+            names.setdefault(_norm(text), key)
+    return names
 
 
 def lookup_finish(name: str) -> Finish:
-    """The finish named *name*: key or name, case-insensitive, spaces/underscores/hyphens alike.
+    """The finish named *name*: key, name or alias, case-insensitive, with spaces,
+    underscores, commas and hyphens alike.
 
     Raises
     ------
     InputError
-        ``--finish`` for an unknown name.
+        ``--finish`` for an unknown name, with the closest names.
 
     Examples
     --------
-    >>> f = lookup_finish("aluminium oxidised")
-    >>> f.emittance, f.surface_kind
-    (0.12, 'metal_jacket')
+    >>> f = lookup_finish("aluminium, dull or aged")
+    >>> f.emittance, f.surface_kind, f.family, f.emittance_range
+    (0.11, 'metal_jacket', 'aluminium', (0.09, 0.13))
     >>> lookup_finish("PVC-jacket").key
     'pvc_jacket'
+    >>> lookup_finish("Aluminum, oxidized").name
+    'aluminium, weathered'
     """
     wanted = _norm(name)
-    for key, finish in _finishes().items():
-        if wanted in (_norm(key), _norm(finish.name)):
-            return finish
-    keys = [_norm(key) for key in _finishes()]
-    raise InputError("--finish", f'unknown finish "{str(name).strip()}"; {near_hint(wanted, keys)}')
+    key = _names().get(wanted)
+    if key is not None:
+        return _finishes()[key]
+    names = [_norm(f.name) for f in _finishes().values()]
+    raise InputError("--finish", f'unknown finish "{str(name).strip()}"; {near_hint(wanted, names)}')
 
 
 def list_finishes() -> list[dict]:
-    """Rows ``key, name, emittance, surface_kind, source`` for a finish listing.
+    """Rows ``key, name, family, condition, emittance_low, emittance_high, emittance,
+    surface_kind, aliases, source`` for a finish listing, grouped by family.
 
     Examples
     --------
-    >>> list_finishes()[0]["key"]
-    'aluminium_new'
+    >>> rows = list_finishes()
+    >>> rows[0]["family"], rows[-1]["family"]
+    ('non-metallic jackets and coatings', 'bare pipe')
     """
-    return [{"key": f.key, "name": f.name, "emittance": f.emittance,
-             "surface_kind": f.surface_kind, "source": f.source} for f in _finishes().values()]
+    rows = [{"key": f.key, "name": f.name, "family": f.family, "condition": f.condition,
+             "emittance_low": f.emittance_range[0], "emittance_high": f.emittance_range[1],
+             "emittance": f.emittance, "surface_kind": f.surface_kind, "aliases": list(f.aliases),
+             "source": f.source} for f in _finishes().values()]
+    return sorted(rows, key=lambda r: FAMILIES.index(r["family"]))

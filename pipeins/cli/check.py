@@ -22,7 +22,7 @@ def check(fmt, units, output, **opts):
     \b
     Example:
       pipeins check --pipe "NPS 4" --fluid-temp 180C --ambient-temp 25C \\
-          --layer "mineral wool:50mm" --finish "aluminium jacket, oxidised"
+          --layer "mineral wool:50mm" --finish "aluminium, dull or aged"
       pipeins check --pipe DN50 --fluid-temp 6C --ambient-temp 28C --rh 75 \\
           --layer "flexible elastomeric foam:19mm" --format json
     """

@@ -41,7 +41,7 @@ LINE_OPTIONS = [
     _opt("--altitude", help="Site altitude instead of --air-pressure (standard atmosphere), e.g. 1500m."),
     _opt("--layer", "layers", multiple=True, metavar="MATERIAL:THICKNESS",
          help='Insulation layer, inner to outer, repeatable: "mineral wool:50mm", "k=0.040:2in".'),
-    _opt("--finish", help='Outer finish from the catalogue, e.g. "aluminium jacket, oxidised".'),
+    _opt("--finish", help='Outer finish from the catalogue, e.g. "aluminium, dull or aged".'),
     _opt("--emittance", help="Outer surface emittance (0 to 1) instead of or over --finish."),
     _opt("--outer-h", help="Fixed combined outer coefficient, W/(m²·K): replaces convection and radiation."),
     _opt("--touch-limit", help="Surface temperature limit (default 60 °C, common practice)."),

@@ -28,7 +28,7 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     \b
     Example:
       pipeins size --pipe "NPS 6" --steam-pressure 10barg --ambient-temp 20C \\
-          --material "mineral wool" --finish "aluminium jacket, oxidised" --max-heat-flow 90W/m
+          --material "mineral wool" --finish "aluminium, dull or aged" --max-heat-flow 90W/m
       pipeins size --pipe DN80 --fluid-temp 6C --ambient-temp 30C --rh 80 \\
           --material "flexible elastomeric foam" --format json
     """
