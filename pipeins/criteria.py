@@ -42,7 +42,7 @@ def touch_limit_for(req: Requirements, surface_kind: str) -> tuple[float, str]:
     """The touch limit [°C] and where it comes from."""
     if req.touch_limit_c is not None:
         if req.contact_time_s is not None:
-            raise InputError("--contact-time", "give --touch-limit or --contact-time, not both")
+            raise InputError("contact_time_s", "give touch_limit_c or contact_time_s, not both")
         return req.touch_limit_c, "given"
     if req.contact_time_s is not None:
         from .catalog.touch import touch_limit
@@ -63,8 +63,10 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
     limit, source = touch_limit_for(req, surface_kind)
     if req.touch:
         if limit <= float(np.max(air)):
-            raise InputError("--touch-limit", f"the touch limit {limit:g} °C must be above the air "
-                                              f"temperature {float(np.max(air)):g} °C")
+            # blame the input the limit came from: a burn threshold of the contact time, or the limit
+            name = "contact_time_s" if req.touch_limit_c is None and req.contact_time_s is not None else "touch_limit_c"
+            raise InputError(name, f"the touch limit {limit:g} °C must be above the air "
+                                   f"temperature {float(np.max(air)):g} °C")
         if fluid_hot > limit:
             criteria.append(TouchSafety(limit, source))
         elif req.touch_limit_c is not None or req.contact_time_s is not None:
@@ -73,7 +75,7 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
     if fluid_cold < float(np.min(air)):
         if spec.rh_percent is not None:
             if req.dew_margin_k < 0:
-                raise InputError("--dew-margin", "the dew-point margin must be zero or more")
+                raise InputError("dew_margin_k", "the dew-point margin must be zero or more")
             criteria.append(Condensation(req.dew_margin_k))
         else:
             notes.append("condensation not checked: the line is colder than the air; give --rh")
@@ -83,14 +85,14 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
         from .runs import TempChange
 
         if req.max_temp_change_k <= 0:
-            raise InputError("--max-temp-change", "the temperature change limit must be greater than zero")
+            raise InputError("max_temp_change_k", "the temperature change limit must be greater than zero")
         if spec.flow is None or spec.length_m is None or not spec.fluid:
-            raise InputError("--max-temp-change", "needs --fluid, --flow and --length")
+            raise InputError("max_temp_change_k", "needs the fluid, its flow and length_m")
         criteria.append(TempChange(req.max_temp_change_k, spec.fluid, flow=spec.flow, length_m=spec.length_m))
     if req.hold_time_s is not None:
         from .freezing import FreezeHold
 
         if req.hold_time_s <= 0:
-            raise InputError("--hold-time", "the hold time must be greater than zero")
+            raise InputError("hold_time_s", "the hold time must be greater than zero")
         criteria.append(FreezeHold(req.hold_time_s, req.ice_fraction))
     return criteria, notes

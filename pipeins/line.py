@@ -24,8 +24,6 @@ import numpy as np
 from .errors import InputError
 from .model import Fluid, Layer, Pipe, Surface, Surroundings, STANDARD_PRESSURE_PA
 from .catalog.touch import DEFAULT_TOUCH_LIMIT_C
-from .solve import solve
-
 __all__ = ["LineSpec", "inner_film_for_flow"]
 
 
@@ -39,7 +37,7 @@ def inner_film_for_flow(fluid: str, temp_c, inner_diameter_m, velocity_m_s=None,
     area = math.pi * np.asarray(inner_diameter_m) ** 2 / 4
     if velocity_m_s is None:
         if flow is None:
-            raise InputError("--velocity", f"the inner film of {fluid} needs --velocity or --flow")
+            raise InputError("velocity_m_s", f"the inner film of {fluid} needs the velocity or the flow")
         volume = flow.value_si / props.density_kg_m3 if flow.basis == "mass" else flow.value_si
         velocity_m_s = volume / area
     h = inner_film_coefficient(velocity_m_s, inner_diameter_m, props.density_kg_m3,
@@ -47,70 +45,214 @@ def inner_film_for_flow(fluid: str, temp_c, inner_diameter_m, velocity_m_s=None,
     return h, np.asarray(velocity_m_s, dtype=float)
 
 
-@dataclass(frozen=True)
+#: Numeric fields of :class:`LineSpec`: (unit shown in hints, example value, upper bound
+#: or None, what the bound guards against).  Every one takes a number or an array.
+NUMERIC_FIELDS = {
+    "outer_diameter_m": ("m", 0.0603, 2.0),
+    "wall_m": ("m", 0.0039, 2.0),
+    "fluid_temp_c": ("°C", 150.0, None),
+    "steam_pressure_pa": ("Pa absolute", 1.1e6, None),
+    "velocity_m_s": ("m/s", 1.5, None),
+    "inner_h_w_m2k": ("W/(m²·K)", 1000.0, None),
+    "air_temp_c": ("°C", 20.0, None),
+    "surroundings_temp_c": ("°C", 20.0, None),
+    "rh_percent": ("%", 80.0, None),
+    "wind_m_s": ("m/s", 3.0, None),
+    "height_m": ("m", 6.0, None),
+    "pressure_pa": ("Pa", 101325.0, None),
+    "emittance": ("(0 to 1)", 0.9, None),
+    "outer_h_w_m2k": ("W/(m²·K)", 10.0, None),
+    "touch_limit_c": ("°C", 60.0, None),
+    "length_m": ("m", 120.0, None),
+}
+#: The largest layer thickness, outside diameter or wall [m] taken as meant: more is
+#: almost always a number in millimetres given as metres.
+MAX_THICKNESS_M = 2.0
+
+
+def _text_hint(name: str, value: str, unit: str, example) -> InputError:
+    return InputError(name, f'"{value}" is text; give the number in {unit}, e.g. {name}={example!r} '
+                            "(pipeins.units.parse_quantity reads text with units)")
+
+
+def _number_or_array(name: str, value, unit: str, example, upper=None):
+    """*value* as a float (scalar) or a float array, finite, or an InputError naming *name*."""
+    if isinstance(value, str) or (isinstance(value, np.ndarray) and value.dtype.kind in "USO"
+                                  and any(isinstance(v, str) for v in np.ravel(value))):
+        shown = value if isinstance(value, str) else next(v for v in np.ravel(value) if isinstance(v, str))
+        raise _text_hint(name, shown, unit, example)
+    if isinstance(value, (list, tuple)) and any(isinstance(v, str) for v in np.ravel(np.asarray(value, dtype=object))):
+        shown = next(v for v in np.ravel(np.asarray(value, dtype=object)) if isinstance(v, str))
+        raise _text_hint(name, shown, unit, example)
+    if isinstance(value, bool):
+        raise InputError(name, f"{value!r} is not a number; give the number in {unit}, e.g. {name}={example!r}")
+    try:
+        array = np.asarray(value, dtype=float)
+    except (TypeError, ValueError):
+        raise InputError(name, f"cannot read {value!r} as a number; give the number in {unit}, "
+                               f"e.g. {name}={example!r}") from None
+    if not np.all(np.isfinite(array)):
+        raise InputError(name, f"must be finite (got {value!r}); give the number in {unit}")
+    if upper is not None and np.any(array > upper):
+        worst = float(np.max(array))
+        raise InputError(name, f"{worst:g} m is more than {upper:g} m; lengths are in metres "
+                               f"(did you mean {worst / 1000:g}, i.e. {worst:g} mm?)")
+    return float(array) if array.ndim == 0 else array
+
+
+def _layer(index: int, layer) -> tuple:
+    name = f"layers[{index}]"
+    if isinstance(layer, str) or not hasattr(layer, "__len__") or len(layer) != 2:
+        raise InputError(name, f"give (material, thickness_m), e.g. (\"mineral wool\", 0.05); got {layer!r}")
+    material, thickness = layer
+    if not isinstance(material, str):
+        raise InputError(name, f"the material is a catalogue name or \"k=0.040\"; got {material!r}")
+    value = _number_or_array(f"{name} thickness", thickness, "m", 0.05, MAX_THICKNESS_M)
+    if np.any(np.asarray(value) <= 0):
+        raise InputError(f"{name} thickness", "the thickness must be greater than zero [m]")
+    return (material, value)
+
+
+@dataclass(frozen=True, eq=False)
 class LineSpec:
     """A line in the words of its specification; every number SI (temperatures in °C).
 
     Give the pipe as a catalogue size (``pipe="NPS 2"``, ``"DN50"``, ``"copper L 1-1/8"``,
-    with ``schedule``) or by ``outer_diameter_m`` and ``wall_m``.  ``layers`` is a tuple of
-    ``(material, thickness_m)`` from the inside out, where material is a catalogue name
-    or ``"k=0.040"``.  The fluid temperature is ``fluid_temp_c`` or, for saturated steam,
+    with ``schedule``), an array of sizes (``pipe=["NPS 1", "NPS 2"]``), or by
+    ``outer_diameter_m`` and ``wall_m``.  ``layers`` is a tuple of ``(material,
+    thickness_m)`` from the inside out, where material is a catalogue name or
+    ``"k=0.040"``.  The fluid temperature is ``fluid_temp_c`` or, for saturated steam,
     ``steam_pressure_pa`` (absolute).  The inner film is absent unless ``inner_h_w_m2k`` is
     given or ``fluid`` flows at ``velocity_m_s`` or ``flow``.
+
+    Every numeric field (and each layer thickness) takes a number or an array; they
+    broadcast against each other and against the array of pipe sizes, numpy style, and
+    the result's arrays have the broadcast shape.  Text with units (``"150C"``), a
+    thickness above 2 m (``50`` meant as mm) and other impossible values raise
+    :class:`~pipeins.errors.InputError` naming the field, with a hint.
+
+    >>> import numpy as np
+    >>> spec = LineSpec(pipe=np.array(["NPS 1", "NPS 4"])[:, None],
+    ...                 layers=(("mineral wool", np.array([0.025, 0.05])),),
+    ...                 fluid_temp_c=150.0, air_temp_c=20.0)
+    >>> spec.solve().heat_flow_w_per_m.shape
+    (2, 2)
+    >>> LineSpec(pipe="NPS 2", fluid_temp_c="150C")
+    Traceback (most recent call last):
+    ...
+    pipeins.errors.InputError: fluid_temp_c: "150C" is text; give the number in °C, e.g. fluid_temp_c=150.0 (pipeins.units.parse_quantity reads text with units)
     """
 
-    pipe: str | None = None
+    pipe: Any = None
     schedule: str | None = None
-    outer_diameter_m: float | None = None
-    wall_m: float | None = None
+    outer_diameter_m: Any = None
+    wall_m: Any = None
     pipe_material: str | None = None
     layers: tuple[tuple[str, Any], ...] = ()
     fluid_temp_c: Any = None
-    steam_pressure_pa: float | None = None
+    steam_pressure_pa: Any = None
     fluid: str | None = None
-    velocity_m_s: float | None = None
+    velocity_m_s: Any = None
     flow: Any = None
-    inner_h_w_m2k: float | None = None
+    inner_h_w_m2k: Any = None
     air_temp_c: Any = 20.0
     surroundings_temp_c: Any = None
     rh_percent: Any = None
     wind_m_s: Any = 0.0
     orientation: str = "horizontal"
-    height_m: float | None = None
+    height_m: Any = None
     pressure_pa: Any = STANDARD_PRESSURE_PA
     finish: str | None = None
-    emittance: float | None = None
-    outer_h_w_m2k: float | None = None
-    touch_limit_c: float = DEFAULT_TOUCH_LIMIT_C
-    length_m: float | None = None
+    emittance: Any = None
+    outer_h_w_m2k: Any = None
+    touch_limit_c: Any = DEFAULT_TOUCH_LIMIT_C
+    length_m: Any = None
+
+    def __post_init__(self):
+        for name, (unit, example, upper) in NUMERIC_FIELDS.items():
+            value = getattr(self, name)
+            if value is not None:
+                object.__setattr__(self, name, _number_or_array(name, value, unit, example, upper))
+        if self.air_temp_c is None:
+            raise InputError("air_temp_c", "the air temperature is missing [°C]")
+        if not isinstance(self.layers, (tuple, list)):
+            raise InputError("layers", "give a tuple of (material, thickness_m), e.g. ((\"mineral wool\", 0.05),)")
+        object.__setattr__(self, "layers", tuple(_layer(i, layer) for i, layer in enumerate(self.layers)))
+        if self.pipe is not None and not isinstance(self.pipe, str):
+            names = np.asarray(self.pipe, dtype=object)
+            if names.size == 0 or not all(isinstance(x, str) for x in names.ravel()):
+                raise InputError("pipe", "give a catalogue size or an array of them, e.g. [\"NPS 1\", \"NPS 2\"]")
+        if self.rh_percent is not None and np.any(np.asarray(self.rh_percent) <= 1):
+            low = float(np.min(self.rh_percent))
+            if low > 0:
+                raise InputError("rh_percent", f"{low:g} looks like a fraction; relative humidity is in percent "
+                                               f"(did you mean {low * 100:g}?)")
+        if self.orientation not in ("horizontal", "vertical"):
+            raise InputError("orientation", f'unknown orientation "{self.orientation}"; use horizontal or vertical')
+
+    def shape(self) -> tuple:
+        """The broadcast shape of every array input (pipe sizes included); () for one case."""
+        shapes = [np.shape(getattr(self, name)) for name in NUMERIC_FIELDS if getattr(self, name) is not None]
+        shapes += [np.shape(t) for _, t in self.layers]
+        if self.pipe is not None and not isinstance(self.pipe, str):
+            shapes.append(np.shape(self.pipe))
+        try:
+            return np.broadcast_shapes(*shapes)
+        except ValueError:
+            described = ", ".join(f"{n} {np.shape(getattr(self, n))}" for n in NUMERIC_FIELDS
+                                  if np.ndim(getattr(self, n)) > 0)
+            raise InputError("shape", f"the arrays do not broadcast together: {described}") from None
 
     # -- the pieces -------------------------------------------------------------------
     def pipe_size(self):
-        """The catalogue :class:`PipeSize` (or a custom one from the dimensions)."""
+        """The catalogue :class:`PipeSize` (or a custom one from the dimensions); for an
+        array of sizes, the first."""
+        return self.pipe_sizes()[0]
+
+    def pipe_sizes(self) -> list:
+        """The catalogue sizes of ``pipe`` (one, or every name of an array, flattened), or a
+        custom one from the dimensions."""
         from .catalog import pipes
 
         if self.pipe is not None:
             if self.outer_diameter_m is not None or self.wall_m is not None:
-                raise InputError("--pipe", "give a catalogue size or --od/--wall, not both")
-            return pipes.lookup_pipe(self.pipe, self.schedule)
+                raise InputError("pipe", "give a catalogue size or outer_diameter_m/wall_m, not both")
+            names = [self.pipe] if isinstance(self.pipe, str) else list(np.ravel(np.asarray(self.pipe, dtype=object)))
+            return [pipes.lookup_pipe(name, self.schedule) for name in names]
         if self.outer_diameter_m is None or self.wall_m is None:
-            raise InputError("--pipe", "give a pipe size (NPS 2, DN50, copper L 1-1/8) or both --od and --wall")
-        return pipes.custom_pipe(self.outer_diameter_m, self.wall_m)
+            raise InputError("pipe", "give a pipe size (NPS 2, DN50, copper L 1-1/8) or both outer_diameter_m "
+                                     "and wall_m")
+        od, wall = np.broadcast_arrays(self.outer_diameter_m, self.wall_m)
+        if od.ndim == 0:
+            return [pipes.custom_pipe(float(od), float(wall))]
+        return [pipes.custom_pipe(float(o), float(w)) for o, w in zip(od.ravel(), wall.ravel())]
 
     def build_pipe(self, sizes=None) -> Pipe:
-        """The pipe; with *sizes* (a list of catalogue sizes) one row per size, shape (n, 1)."""
+        """The pipe; with *sizes* (a list of catalogue sizes) one row per size, shape (n, 1).
+        An array of sizes in ``pipe`` keeps its own shape."""
         from .catalog.materials import default_wall_material, lookup_wall_material
 
         if sizes is None:
-            sizes = [self.pipe_size()]
-            shape = ()
+            sizes = self.pipe_sizes()
+            if isinstance(self.pipe, str) or self.pipe is None:
+                shape = () if self.pipe is not None or np.ndim(self.outer_diameter_m) == 0 \
+                    else np.broadcast_shapes(np.shape(self.outer_diameter_m), np.shape(self.wall_m))
+            else:
+                shape = np.shape(self.pipe)
         else:
             shape = (len(sizes), 1)
-        wall = lookup_wall_material(self.pipe_material) if self.pipe_material else default_wall_material(sizes[0].kind)
-        od = np.reshape([s.outer_diameter_m for s in sizes], shape or ())
-        walls = np.reshape([s.wall_m for s in sizes], shape or ())
+        if self.pipe_material:
+            walls_k = [lookup_wall_material(self.pipe_material)] * len(sizes)
+        else:
+            walls_k = [default_wall_material(s.kind) for s in sizes]
+        od = np.reshape([s.outer_diameter_m for s in sizes], shape)
+        walls = np.reshape([s.wall_m for s in sizes], shape)
+        k = np.reshape([w.conductivity_w_mk for w in walls_k], shape)
+        if np.all(k == k.flat[0]):
+            k = float(k.flat[0])
         label = sizes[0].label if len(sizes) == 1 else f"{sizes[0].label} to {sizes[-1].label}"
-        return Pipe(od, walls, wall.conductivity_w_mk, label, wall.name)
+        names = sorted({w.name for w in walls_k})
+        return Pipe(od, walls, k, label, " / ".join(names))
 
     def build_layers(self) -> list[Layer]:
         from .catalog.materials import lookup_material
@@ -120,12 +262,12 @@ class LineSpec:
     def fluid_temperature_c(self):
         if self.steam_pressure_pa is not None:
             if self.fluid_temp_c is not None:
-                raise InputError("--steam-pressure", "give the steam pressure or the fluid temperature, not both")
+                raise InputError("steam_pressure_pa", "give the steam pressure or the fluid temperature, not both")
             from .props.steam import saturation_temp_c
 
             return saturation_temp_c(self.steam_pressure_pa)
         if self.fluid_temp_c is None:
-            raise InputError("--fluid-temp", "the fluid temperature is missing (or give --steam-pressure)")
+            raise InputError("fluid_temp_c", "the fluid temperature is missing (or give steam_pressure_pa)")
         return self.fluid_temp_c
 
     def fluid_name(self) -> str | None:
@@ -140,8 +282,12 @@ class LineSpec:
         h = self.inner_h_w_m2k
         if h is None and self.fluid and (self.velocity_m_s is not None or self.flow is not None):
             if self.steam_pressure_pa is not None:
-                raise InputError("--fluid", "condensing steam has no computed inner film; give --inner-h or none")
+                raise InputError("fluid", "condensing steam has no computed inner film; give a fixed inner film "
+                                          "coefficient or none")
             h, _ = inner_film_for_flow(self.fluid, temp, pipe.inner_diameter_m, self.velocity_m_s, self.flow)
+        shape = self.shape()
+        if np.shape(temp) != shape:  # every array input broadcasts, RH included
+            temp = np.broadcast_to(np.asarray(temp, dtype=float), np.broadcast_shapes(np.shape(temp), shape))
         return Fluid(temp, h, self.fluid_name() or "")
 
     def build_surroundings(self) -> Surroundings:
@@ -176,4 +322,6 @@ class LineSpec:
 
     def solve(self):
         """Solve the line (arrays broadcast as in :func:`pipeins.solve.solve`)."""
+        from .solve import solve
+
         return solve(*self.build_model(), touch_limit_c=self.touch_limit_c)

@@ -53,7 +53,7 @@ def pressure_at_altitude_pa(altitude_m):
     """
     z = np.asarray(altitude_m, dtype=float)
     if np.any((z < -500) | (z > 11_000)):
-        raise InputError("--altitude", "altitude must be between -500 m and 11000 m")
+        raise InputError("altitude_m", "altitude must be between -500 m and 11000 m")
     return STANDARD_PRESSURE_PA * (1 - 2.25577e-5 * z) ** 5.2559
 
 
@@ -69,11 +69,11 @@ class Pipe:
     wall_material: str = "carbon steel"
 
     def __post_init__(self):
-        od = _positive("--od", self.outer_diameter_m, "outside diameter")
-        wall = _positive("--wall", self.wall_m, "wall thickness")
+        od = _positive("outer_diameter_m", self.outer_diameter_m, "outside diameter")
+        wall = _positive("wall_m", self.wall_m, "wall thickness")
         if np.any(wall >= od / 2):
-            raise InputError("--wall", "wall thickness must be less than half the outside diameter")
-        _positive("--pipe-material", self.wall_conductivity_w_mk, "wall conductivity")
+            raise InputError("wall_m", "wall thickness must be less than half the outside diameter")
+        _positive("pipe_material", self.wall_conductivity_w_mk, "wall conductivity")
 
     @property
     def inner_diameter_m(self):
@@ -97,10 +97,10 @@ class FlatWall:
     wall_material: str = "galvanised steel sheet"
 
     def __post_init__(self):
-        _positive("--wall", self.wall_m, "wall thickness")
-        _positive("--height", self.length_m, "face length")
+        _positive("wall_m", self.wall_m, "wall thickness")
+        _positive("length_m", self.length_m, "face length")
         if self.face not in FACES:
-            raise InputError("--face", f'unknown face "{self.face}"; use {", ".join(FACES)}')
+            raise InputError("face", f'unknown face "{self.face}"; use {", ".join(FACES)}')
 
 
 @dataclass(frozen=True)
@@ -114,7 +114,7 @@ class Layer:
     def __post_init__(self):
         t = np.asarray(self.thickness_m, dtype=float)
         if np.any(~np.isfinite(t) | (t <= 0)):
-            raise InputError("--layer", f"thickness of {self.material.name} must be greater than zero")
+            raise InputError("thickness_m", f"thickness of {self.material.name} must be greater than zero")
 
 
 @dataclass(frozen=True)
@@ -131,9 +131,9 @@ class Fluid:
     name: str = ""
 
     def __post_init__(self):
-        _temperature("--fluid-temp", self.temp_c)
+        _temperature("fluid_temp_c", self.temp_c)
         if self.film_coefficient_w_m2k is not None:
-            _positive("--inner-h", self.film_coefficient_w_m2k, "inner film coefficient")
+            _positive("inner_h_w_m2k", self.film_coefficient_w_m2k, "inner film coefficient")
 
 
 @dataclass(frozen=True)
@@ -155,21 +155,21 @@ class Surroundings:
     height_m: Any = None
 
     def __post_init__(self):
-        _temperature("--ambient-temp", self.air_temp_c)
+        _temperature("air_temp_c", self.air_temp_c)
         if self.surroundings_temp_c is not None:
-            _temperature("--surroundings-temp", self.surroundings_temp_c)
-        _positive("--wind", self.wind_speed_m_s, "wind speed", allow_zero=True)
-        _positive("--air-pressure", self.pressure_pa, "air pressure")
+            _temperature("surroundings_temp_c", self.surroundings_temp_c)
+        _positive("wind_m_s", self.wind_speed_m_s, "wind speed", allow_zero=True)
+        _positive("pressure_pa", self.pressure_pa, "air pressure")
         if self.relative_humidity_percent is not None:
             rh = np.asarray(self.relative_humidity_percent, dtype=float)
             if np.any(~np.isfinite(rh) | (rh <= 0) | (rh > 100)):
-                raise InputError("--rh", "relative humidity must be above 0 and at most 100 %")
+                raise InputError("rh_percent", "relative humidity must be above 0 and at most 100 %")
         if self.orientation not in ORIENTATIONS:
-            raise InputError("--orientation", f'unknown orientation "{self.orientation}"; use horizontal or vertical')
+            raise InputError("orientation", f'unknown orientation "{self.orientation}"; use horizontal or vertical')
         if self.orientation == "vertical":
             if self.height_m is None:
-                raise InputError("--height", "a vertical run needs its height")
-            _positive("--height", self.height_m, "height")
+                raise InputError("height_m", "a vertical run needs its height")
+            _positive("height_m", self.height_m, "height")
 
     @property
     def radiant_temp_c(self):
@@ -191,9 +191,9 @@ class Surface:
     def __post_init__(self):
         e = np.asarray(self.emittance, dtype=float)
         if np.any(~np.isfinite(e) | (e <= 0) | (e > 1)):
-            raise InputError("--emittance", "emittance must be above 0 and at most 1")
+            raise InputError("emittance", "emittance must be above 0 and at most 1")
         if self.fixed_coefficient_w_m2k is not None:
-            _positive("--outer-h", self.fixed_coefficient_w_m2k, "outer coefficient")
+            _positive("outer_h_w_m2k", self.fixed_coefficient_w_m2k, "outer coefficient")
 
     @classmethod
     def from_finish(cls, finish) -> "Surface":

@@ -289,8 +289,8 @@ def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequen
     a lower bound.
     """
     if not criteria and not extra_required:
-        raise InputError("--touch-limit", "no sizing criterion is active; give at least one of "
-                         "--touch-limit, --rh (condensation), --max-heat-flow or --min-reduction")
+        raise InputError("touch_limit_c", "no sizing criterion is active; give at least one of "
+                         "touch_limit_c, rh_percent (condensation), max_heat_flow_w_per_m or min_reduction")
     series = np.array(sorted(set(float(s) for s in series_m)))
     if series.size == 0 or np.any(series <= 0):
         raise InputError("--series", "the thickness series needs at least one thickness above zero")

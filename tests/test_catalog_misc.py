@@ -199,7 +199,7 @@ def test_touch_out_of_range(time_s):
     with pytest.raises(InputError) as info:
         touch_limit("bare_metal", time_s)
     assert (info.value.name, info.value.message) == (
-        "--contact-time", "contact time must be between 1 s and 28800 s (8 h)")
+        "contact_time_s", "contact time must be between 1 s and 28800 s (8 h)")
 
 
 def test_touch_unknown_kind():

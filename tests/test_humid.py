@@ -101,15 +101,15 @@ def test_round_trip_and_ordering(air_temp_c, rh_percent):
     "call, message",
     [
         (lambda: dew_point_c(20.0, 0.0),
-         "--rh: 0 is outside 0 to 100 %: perfectly dry air (RH 0) has no dew point"),
-        (lambda: dew_point_c(20.0, 120.0), "--rh: 120 is outside 0 to 100 %"),
-        (lambda: dew_point_c(20.0, [50.0, -5.0]), "--rh: -5 is outside 0 to 100 %"),
-        (lambda: dew_point_c(250.0, 50.0), "--air-temp: 250 °C is outside -100 to 200 °C"),
+         "rh_percent: 0 is outside 0 to 100 %: perfectly dry air (RH 0) has no dew point"),
+        (lambda: dew_point_c(20.0, 120.0), "rh_percent: 120 is outside 0 to 100 %"),
+        (lambda: dew_point_c(20.0, [50.0, -5.0]), "rh_percent: -5 is outside 0 to 100 %"),
+        (lambda: dew_point_c(250.0, 50.0), "air_temp_c: 250 °C is outside -100 to 200 °C"),
         (lambda: dew_point_c(150.0, 90.0),
-         "--rh: 90 % at 150 °C means a vapour pressure above the total pressure 101325 Pa"),
-        (lambda: dew_point_c(20.0, 50.0, 0.0), "--pressure: 0 Pa is not a positive absolute pressure"),
+         "rh_percent: 90 % at 150 °C means a vapour pressure above the total pressure 101325 Pa"),
+        (lambda: dew_point_c(20.0, 50.0, 0.0), "pressure_pa: 0 Pa is not a positive absolute pressure"),
         (lambda: relative_humidity_percent(10.0, 12.0),
-         "--dew-point: 12 °C is above the air temperature 10 °C"),
+         "dew_point_c: 12 °C is above the air temperature 10 °C"),
     ],
 )
 def test_error_messages(call, message):

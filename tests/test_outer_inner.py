@@ -240,10 +240,10 @@ def test_bad_orientation_and_geometry():
 @pytest.mark.parametrize(
     "kwargs, name",
     [
-        (dict(wind_speed_m_s=-1.0), "--wind"),
+        (dict(wind_speed_m_s=-1.0), "wind_m_s"),
         (dict(characteristic_length_m=0.0), "characteristic_length_m"),
-        (dict(pressure_pa=0.0), "--pressure"),
-        (dict(air_temp_c=-300.0), "--air-temp"),
+        (dict(pressure_pa=0.0), "pressure_pa"),
+        (dict(air_temp_c=-300.0), "air_temp_c"),
     ],
 )
 def test_impossible_outer_inputs(kwargs, name):

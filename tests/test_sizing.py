@@ -115,7 +115,7 @@ def test_impossible_criterion_says_by_how_much():
 
 def test_touch_limit_below_ambient_is_an_input_error():
     spec = LineSpec(pipe="NPS 2", fluid_temp_c=150.0, air_temp_c=45.0)
-    with pytest.raises(InputError, match=r"--touch-limit: the touch limit 40 °C must be above the air temperature 45 °C"):
+    with pytest.raises(InputError, match=r"touch_limit_c: the touch limit 40 °C must be above the air temperature 45 °C"):
         select(spec, "mineral wool", Requirements(touch_limit_c=40.0))
 
 

@@ -83,7 +83,7 @@ def touch_limit(surface_kind: str, contact_time_s):
     t = np.asarray(contact_time_s, dtype=float)
     lo, hi = times[0], times[-1]
     if t.size == 0 or not np.all(np.isfinite(t)) or np.any(t < lo) or np.any(t > hi):
-        raise InputError("--contact-time", f"contact time must be between {lo:g} s and "
+        raise InputError("contact_time_s", f"contact time must be between {lo:g} s and "
                                            f"{hi:g} s ({hi / 3600:g} h)")
     result = np.interp(np.log10(t), np.log10(times), limits)
     lower = np.searchsorted(times, t.min(), side="right") - 1

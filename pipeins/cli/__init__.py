@@ -66,8 +66,16 @@ def main(argv=None):
 
     try:
         cli.main(args=argv, prog_name="pipeins", standalone_mode=False)
-    except InputError as exc:  # a project file may carry several problems, one line each
-        click.echo("\n".join(f"Error: {p}" for p in getattr(exc, "problems", None) or [str(exc)]), err=True)
+    except InputError as exc:  # several problems at once, one line each, each input named by its flag
+        from ..inputs import cli_line
+
+        if getattr(exc, "items", None):
+            lines = [cli_line(name, message) for name, message in exc.items]
+        elif getattr(exc, "problems", None):
+            lines = exc.problems
+        else:
+            lines = [cli_line(exc.name, exc.message)]
+        click.echo("\n".join(f"Error: {p}" for p in lines), err=True)
         sys.exit(2)
     except click.exceptions.Abort:
         click.echo("Aborted.", err=True)

@@ -75,79 +75,19 @@ def _q(opts, name, kind, units):
 
 
 def parse_layer(text: str, units: str, option: str = "--layer") -> tuple[str, float]:
-    """``MATERIAL:THICKNESS`` → (material, thickness_m)."""
-    from ..errors import InputError
-    from ..units import parse_quantity
+    """``MATERIAL:THICKNESS`` → (material, thickness_m) (see :func:`pipeins.inputs.parse_layer`)."""
+    from ..inputs import parse_layer as read
 
-    if ":" not in text:
-        raise InputError(option, f'"{text}" needs MATERIAL:THICKNESS, e.g. "mineral wool:50mm" or "k=0.040:2in"')
-    material, thickness = text.rsplit(":", 1)
-    value = parse_quantity(thickness, "thickness", option, units)
-    if value <= 0:
-        raise InputError(option, f'thickness of "{material.strip()}" must be greater than zero')
-    return material.strip(), value
+    return read(text, units, option)
 
 
-def spec_from_options(opts: dict, units: str):
-    """A :class:`pipeins.line.LineSpec` from the line options (text, with units)."""
-    from ..errors import InputError
-    from ..line import LineSpec
-    from ..model import pressure_at_altitude_pa
-    from ..units import parse_quantity
+def spec_from_options(opts: dict, units: str, items: list | None = None):
+    """A :class:`pipeins.line.LineSpec` from the line options (text, with units), built by
+    :func:`pipeins.inputs.line_spec` as the project file's lines are.  With *items*, the
+    problems are appended there (and None returned) instead of raised."""
+    from ..inputs import LINE_PARAMS, line_spec, values_from_options
 
-    q = lambda name, kind: _q(opts, name, kind, units)  # noqa: E731
-    if opts.get("outer_h"):
-        clash = [o for o in ("wind", "finish", "emittance", "surroundings_temp") if opts.get(o)]
-        if clash:
-            raise InputError("--outer-h", "a fixed outer coefficient replaces convection and radiation; "
-                             f"drop --{clash[0].replace('_', '-')}")
-    if opts.get("height") and (opts.get("orientation") or "horizontal") != "vertical":
-        raise InputError("--height", "the height applies to a vertical run; add --orientation vertical")
-    if opts.get("air_pressure") and opts.get("altitude"):
-        raise InputError("--altitude", "give --air-pressure or --altitude, not both")
-    pressure = q("air_pressure", "pressure")
-    if opts.get("altitude"):
-        pressure = float(pressure_at_altitude_pa(q("altitude", "length")))
-    flow = None
-    if opts.get("flow"):
-        flow = parse_quantity(opts["flow"], "flow", "--flow", units)
-        if flow.value_si <= 0:
-            raise InputError("--flow", "flow must be greater than zero")
-    velocity = q("velocity", "speed")
-    if velocity is not None and velocity <= 0:
-        raise InputError("--velocity", "velocity must be greater than zero")
-    rh = q("rh", "percent")
-    emittance = opts.get("emittance")
-    if emittance is not None:
-        try:
-            emittance = float(emittance)
-        except ValueError:
-            raise InputError("--emittance", f'cannot read "{emittance}" as an emittance; use a number above 0 and at most 1') from None
-    ambient = q("ambient_temp", "temperature")
-    touch = q("touch_limit", "temperature")
-    kw = dict(
-        pipe=opts.get("pipe"), schedule=opts.get("schedule"),
-        outer_diameter_m=q("od", "diameter"), wall_m=q("wall", "thickness"),
-        pipe_material=opts.get("pipe_material"),
-        layers=tuple(parse_layer(text, units) for text in opts.get("layers") or ()),
-        fluid_temp_c=q("fluid_temp", "temperature"), steam_pressure_pa=q("steam_pressure", "pressure"),
-        fluid=opts.get("fluid"), velocity_m_s=velocity, flow=flow,
-        inner_h_w_m2k=q("inner_h", "heat_transfer_coefficient"),
-        air_temp_c=20.0 if ambient is None else ambient,
-        surroundings_temp_c=q("surroundings_temp", "temperature"),
-        rh_percent=rh, wind_m_s=q("wind", "speed") or 0.0,
-        orientation=opts.get("orientation") or "horizontal", height_m=q("height", "length"),
-        finish=opts.get("finish"), emittance=emittance,
-        outer_h_w_m2k=q("outer_h", "heat_transfer_coefficient"),
-        length_m=q("length", "length"),
-    )
-    if pressure is not None:
-        kw["pressure_pa"] = pressure
-    if touch is not None:
-        kw["touch_limit_c"] = touch
-    if kw["length_m"] is not None and kw["length_m"] <= 0:
-        raise InputError("--length", "run length must be greater than zero")
-    return LineSpec(**kw)
+    return line_spec(values_from_options(opts, LINE_PARAMS), units, items)
 
 
 def emit(report, fmt: str, units: str, output: str | None) -> None:

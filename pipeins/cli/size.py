@@ -39,9 +39,14 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     from ..runs import run_extras
     from ..selection import select
 
-    spec = spec_from_options(opts, units)
-    req = requirements_from_options(opts, units)
-    basis = basis_from_options(opts, units)
+    from ..inputs import Problems, collect
+
+    items: list = []  # every problem of the command line at once
+    spec = spec_from_options(opts, units, items)
+    req = requirements_from_options(opts, units, items)
+    basis = collect(items, "price", basis_from_options, opts, units)
+    if items:
+        raise Problems(items)
     economic = basis if basis is not None and basis.cost_table is not None else None
     selection = select(spec, material, req, parse_series(series, units), units, code=code, economic=economic,
                        code_paths=code_table)

@@ -52,29 +52,11 @@ def parse_series(text: str | None, units: str):
     return tuple(values)
 
 
-def requirements_from_options(opts: dict, units: str):
-    from ..criteria import Requirements
-    from ..units import parse_quantity
+def requirements_from_options(opts: dict, units: str, items: list | None = None):
+    """The :class:`pipeins.criteria.Requirements` of the sizing options, built by
+    :func:`pipeins.inputs.requirements` as the project file's services are."""
+    from ..inputs import REQUIREMENT_PARAMS, requirements, values_from_options
 
-    def q(name, kind):
-        text = opts.get(name)
-        return None if text is None else parse_quantity(text, kind, "--" + name.replace("_", "-"), units)
-
-    kw = {}
-    if opts.get("touch_limit") is not None:
-        kw["touch_limit_c"] = q("touch_limit", "temperature")
-    if opts.get("contact_time") is not None:
-        kw["contact_time_s"] = q("contact_time", "time")
-    if opts.get("dew_margin") is not None:
-        kw["dew_margin_k"] = q("dew_margin", "temperature_difference")
-    reduction = q("min_reduction", "percent")
-    ice = q("ice_fraction", "percent")
-    return Requirements(
-        touch=not opts.get("no_touch_check"),
-        max_heat_flow_w_per_m=q("max_heat_flow", "heat_flow_per_length"),
-        min_reduction=None if reduction is None else reduction / 100,
-        max_temp_change_k=q("max_temp_change", "temperature_difference"),
-        hold_time_s=q("hold_time", "time"),
-        ice_fraction=0.0 if ice is None else ice / 100,
-        **kw,
-    )
+    raw = values_from_options(opts, [n for n in REQUIREMENT_PARAMS if n != "touch"])
+    raw["touch"] = not opts.get("no_touch_check")
+    return requirements(raw, units, items)

@@ -44,9 +44,14 @@ def table(fmt, units, output, sizes, matrix, material, series, code, code_table,
         raise InputError("--sizes", "a table takes its pipes from --sizes, not --pipe/--od/--wall")
     size_list = pipe_range(sizes, opts.get("schedule"))
     opts = {**opts, "pipe": size_list[0].label}
-    spec = spec_from_options(opts, units)
-    req = requirements_from_options(opts, units)
-    basis = basis_from_options(opts, units)
+    from ..inputs import Problems, collect
+
+    items: list = []  # every problem of the command line at once
+    spec = spec_from_options(opts, units, items)
+    req = requirements_from_options(opts, units, items)
+    basis = collect(items, "price", basis_from_options, opts, units)
+    if items:
+        raise Problems(items)
     economic = basis if basis is not None and basis.cost_table is not None else None
     selection = select(spec, material, req, parse_series(series, units), units, sizes=size_list, code=code,
                        economic=economic, code_paths=code_table)

@@ -78,11 +78,11 @@ def _outer_film(
     if not np.all(length_m > 0.0):
         raise InputError("characteristic_length_m", "must be greater than 0 m")
     if not np.all(wind_m_s >= 0.0):
-        raise InputError("--wind", "must be 0 m/s or more")
+        raise InputError("wind_m_s", "must be 0 m/s or more")
     if not np.all(pressure_pa > 0.0):
-        raise InputError("--pressure", "must be greater than 0 Pa")
+        raise InputError("pressure_pa", "must be greater than 0 Pa")
     if not np.all(air_temp_c > -273.15):
-        raise InputError("--air-temp", "must be above -273.15 °C")
+        raise InputError("air_temp_c", "must be above -273.15 °C")
     if not np.all(surface_temp_c > -273.15):
         raise InputError("surface_temp_c", "must be above -273.15 °C")
 

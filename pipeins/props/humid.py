@@ -69,7 +69,7 @@ def saturation_vapour_pressure_pa(temp_c) -> np.ndarray:
 
     Equation: ln p_ws interpolated linearly in T between IAPWS tabulated values (see
     the module docstring).  Valid from -100 to 200 °C; outside, an
-    :class:`~pipeins.errors.InputError` is raised for ``--air-temp``.
+    :class:`~pipeins.errors.InputError` is raised for ``air_temp_c``.
 
     Parameters
     ----------
@@ -92,7 +92,7 @@ def saturation_vapour_pressure_pa(temp_c) -> np.ndarray:
     >>> saturation_vapour_pressure_pa([-10.0, 20.0]).round(1)
     array([ 259.9, 2339.3])
     """
-    t = _check_temp(temp_c, "--air-temp")
+    t = _check_temp(temp_c, "air_temp_c")
     temps, ln_p = _table()
     return np.asarray(np.exp(np.interp(t, temps, ln_p)))
 
@@ -104,7 +104,7 @@ def dew_point_c(air_temp_c, rh_percent, pressure_pa=101_325.0) -> np.ndarray:
     water above the triple point and over ice below it (no enhancement factor; see the
     module docstring).  Inputs broadcast together.
 
-    Validity: air temperature -100 to 200 °C (``--air-temp`` error outside); relative
+    Validity: air temperature -100 to 200 °C (``air_temp_c`` error outside); relative
     humidity above 0 and up to 100 % (``--rh`` error otherwise – perfectly dry air,
     RH 0, has no dew point); the vapour pressure must stay below *pressure_pa*.
 
@@ -134,7 +134,7 @@ def dew_point_c(air_temp_c, rh_percent, pressure_pa=101_325.0) -> np.ndarray:
     >>> dew_point_c([20.0, 5.0], [100.0, 20.0]).round(2)
     array([ 20.  , -14.41])
     """
-    t = _check_temp(air_temp_c, "--air-temp")
+    t = _check_temp(air_temp_c, "air_temp_c")
     rh = np.asarray(rh_percent, dtype=float)
     p = np.asarray(pressure_pa, dtype=float)
     t, rh, p = np.broadcast_arrays(t, rh, p)
@@ -142,16 +142,16 @@ def dew_point_c(air_temp_c, rh_percent, pressure_pa=101_325.0) -> np.ndarray:
     if np.any(bad):
         value = _first(rh, bad)
         note = ": perfectly dry air (RH 0) has no dew point" if value == 0.0 else ""
-        raise InputError("--rh", f"{value:g} is outside 0 to 100 %{note}")
+        raise InputError("rh_percent", f"{value:g} is outside 0 to 100 %{note}")
     bad = ~(p > 0.0)
     if np.any(bad):
-        raise InputError("--pressure", f"{_first(p, bad):g} Pa is not a positive absolute pressure")
+        raise InputError("pressure_pa", f"{_first(p, bad):g} Pa is not a positive absolute pressure")
     temps, ln_p = _table()
     ln_pw = np.log(rh / 100.0) + np.interp(t, temps, ln_p)
     bad = ln_pw >= np.log(p)
     if np.any(bad):
         raise InputError(
-            "--rh",
+            "rh_percent",
             f"{_first(rh, bad):g} % at {_first(t, bad):g} °C means a vapour pressure above "
             f"the total pressure {_first(p, bad):g} Pa",
         )
@@ -164,8 +164,8 @@ def relative_humidity_percent(air_temp_c, dew_point_c) -> np.ndarray:
 
     Equation: RH = 100 p_ws(T_dew) / p_ws(T_air), the exact inverse of
     :func:`dew_point_c` (same table, same interpolation).  Both temperatures must lie
-    in -100 to 200 °C (``--air-temp`` / ``--dew-point`` errors) and the dew point may
-    not exceed the air temperature (``--dew-point`` error).
+    in -100 to 200 °C (``air_temp_c`` / ``dew_point_c`` errors) and the dew point may
+    not exceed the air temperature (``dew_point_c`` error).
 
     Parameters
     ----------
@@ -188,13 +188,13 @@ def relative_humidity_percent(air_temp_c, dew_point_c) -> np.ndarray:
     >>> relative_humidity_percent(20.0, [9.27, 20.0]).round(1)
     array([ 50., 100.])
     """
-    t = _check_temp(air_temp_c, "--air-temp")
-    td = _check_temp(dew_point_c, "--dew-point")
+    t = _check_temp(air_temp_c, "air_temp_c")
+    td = _check_temp(dew_point_c, "dew_point_c")
     t, td = np.broadcast_arrays(t, td)
     bad = td > t
     if np.any(bad):
         raise InputError(
-            "--dew-point",
+            "dew_point_c",
             f"{_first(td, bad):g} °C is above the air temperature {_first(t, bad):g} °C",
         )
     temps, ln_p = _table()
