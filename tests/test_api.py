@@ -35,12 +35,12 @@ def test_sizes_times_thicknesses_broadcast_like_one_solve_per_case():
     sizes = ["NPS 1", "NPS 2", "NPS 4"]
     thick = [0.025, 0.05, 0.1]
     grid = LineSpec(pipe=np.array(sizes)[:, None], layers=(("mineral wool", np.array(thick)),),
-                    fluid_temp_c=150.0, air_temp_c=20.0, finish="aluminium jacket, oxidised").solve()
+                    fluid_temp_c=150.0, air_temp_c=20.0, finish="aluminium, weathered").solve()
     assert grid.heat_flow_w_per_m.shape == (3, 3)
     for i, size in enumerate(sizes):
         for j, t in enumerate(thick):
             one = LineSpec(pipe=size, layers=(("mineral wool", t),), fluid_temp_c=150.0, air_temp_c=20.0,
-                           finish="aluminium jacket, oxidised").solve()
+                           finish="aluminium, weathered").solve()
             assert grid.heat_flow_w_per_m[i, j] == pytest.approx(float(one.heat_flow_w_per_m), rel=1e-8)
     # heat loss falls with thickness, rises with size (well past the critical radius here)
     assert np.all(np.diff(grid.heat_flow_w_per_m, axis=1) < 0)
