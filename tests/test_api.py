@@ -107,3 +107,14 @@ def test_arrays_that_do_not_broadcast_say_which():
     with pytest.raises(InputError) as info:
         LineSpec(pipe="NPS 2", fluid_temp_c=[60.0, 70.0], air_temp_c=[10.0, 20.0, 30.0]).solve()
     assert str(info.value) == "shape: the arrays do not broadcast together: fluid_temp_c (2,), air_temp_c (3,)"
+
+
+def test_readme_notebook_example_prints_what_the_readme_shows(capsys):
+    import pathlib
+    import re
+
+    text = pathlib.Path(__file__).resolve().parents[1].joinpath("README.md").read_text(encoding="utf-8")
+    m = re.search(r"Sizes down, thicknesses across:\n\n```python\n(.*?)```\n\nprints\n\n```\n(.*?)```", text, re.S)
+    assert m, "README lost its sizes x thicknesses example"
+    exec(compile(m.group(1), "README.md", "exec"), {})
+    assert capsys.readouterr().out.strip() == m.group(2).strip()
