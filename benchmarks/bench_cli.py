@@ -1,7 +1,8 @@
 """Start-up and single-run speed of the ``pipeins`` command, timed as subprocesses.
 
-Times ``pipeins --help`` (target < 0.3 s) and one ``pipeins check`` of an insulated line in
-still air (target < 1 s), best of ``--runs`` runs each, and exits 1 when one misses its target
+Times ``pipeins --help`` (target < 0.3 s), one ``pipeins check`` of an insulated line in
+still air (target < 1 s) and the schedule of the glycol example project (target < 0.5 s:
+glycol from the shipped tables, no CoolProp import), best of ``--runs`` runs each, and exits 1 when one misses its target
 (``--no-fail`` only reports).  ``--imports`` adds the five costliest top-level imports of the
 check run, from ``python -X importtime``.
 
@@ -15,11 +16,14 @@ import shutil
 import subprocess
 import sys
 import time
+from pathlib import Path
 
 HELP_TARGET_S = 0.3
 CHECK_TARGET_S = 1.0
 CHECK_ARGS = ["check", "--pipe", "NPS 4", "--fluid-temp", "180C", "--ambient-temp", "25C",
               "--layer", "mineral wool:50mm", "--finish", "aluminium, dull or aged"]
+SCHEDULE_TARGET_S = 0.5
+SCHEDULE_ARGS = ["schedule", str(Path(__file__).resolve().parents[1] / "examples" / "food_factory_chilled.toml")]
 _IN_PROCESS = "import sys; from pipeins.cli import main; main(sys.argv[1:])"
 
 
@@ -64,7 +68,8 @@ def main(argv=None) -> int:
 
     base = command()
     cases = [("pipeins --help", base + ["--help"], HELP_TARGET_S),
-             ("pipeins check (still air)", base + CHECK_ARGS, CHECK_TARGET_S)]
+             ("pipeins check (still air)", base + CHECK_ARGS, CHECK_TARGET_S),
+             ("pipeins schedule (glycol)", base + SCHEDULE_ARGS, SCHEDULE_TARGET_S)]
     print(f"{' '.join(base)}; best of {opts.runs} runs")
     print(f"{'command':<28} {'time [s]':>9} {'target [s]':>11}  verdict")
     missed = False

@@ -124,7 +124,8 @@ def test_glycol_vs_coolprop(name, coolprop_name, temps_c):
     for field, expected in live.items():
         np.testing.assert_allclose(getattr(ours, field), expected, rtol=1e-4, err_msg=field)  # CoolProp
     freeze_c = CP.PropsSI("T_freeze", coolprop_name) - 273.15
-    assert freezing_point_c(name) == pytest.approx(freeze_c, abs=1e-9)  # CoolProp T_freeze
+    # CoolProp T_freeze, to the 9 significant digits the shipped table prints
+    assert freezing_point_c(name) == pytest.approx(freeze_c, abs=1e-6)
 
 
 def test_pure_coolprop_fluid_as_compressed_liquid():
@@ -170,7 +171,8 @@ def test_normalise_fluid(spelling, canonical):
     "call, name, message",
     [
         (lambda: normalise_fluid("x"), "--fluid",
-         'unknown fluid "x"; use water, N% ethylene glycol, N% propylene glycol or a CoolProp fluid name'),
+         'unknown fluid "x"; use water, N% ethylene or propylene glycol, N% calcium or sodium chloride, '
+         "N% potassium formate or acetate, or a CoolProp fluid name"),
         (lambda: normalise_fluid("MEG70"), "--fluid",
          '"MEG70": glycol content 70 % is outside 0 to 60 % by mass'),
         (lambda: check_fluid_temp("MEG30", -20.0), "--fluid-temp",
@@ -199,7 +201,8 @@ def test_water_vectorised_equals_scalar(temps_c):
 
 
 # ---------------------------------------------------------------- shipped tables
-@pytest.mark.parametrize("name", list(generate.TABLE_BUILDERS))
+# the glycol, brine and oil tables (fluid_*) are checked to the printed digits in test_props_fluids.py
+@pytest.mark.parametrize("name", [name for name in generate.TABLE_BUILDERS if not name.startswith("fluid_")])
 def test_shipped_table_regenerates_from_live_coolprop(name):
     builder, _comment = generate.TABLE_BUILDERS[name]
     fresh = builder()

@@ -8,7 +8,11 @@ Run ``python -m pipeins.props.generate`` (optionally ``--out-dir DIR``) to rewri
   100 points per decade of pressure;
 * ``tables/water_vapour_saturation.csv`` – saturation vapour pressure of water over
   ice (below the triple point, 0.01 °C) and over liquid water, -100 to 200 °C every 1 K
-  plus the triple point.
+  plus the triple point;
+* ``tables/fluid_<solution>.csv`` – glycols and brines at their shipped mass
+  percentages, and ``tables/fluid_oil_<code>.csv`` – two heat-transfer oils, each on a
+  uniform grid of at most 0.5 K over CoolProp's range (the set and why:
+  :mod:`pipeins.props.fluid_tables`).
 
 Importing CoolProp takes seconds, so the runtime modules read these CSV files instead;
 CoolProp is only imported here and for fluids that are not shipped.  Each row carries a
@@ -34,6 +38,8 @@ __all__ = [
     "water_rows",
     "steam_rows",
     "vapour_rows",
+    "solution_rows",
+    "oil_rows",
     "coolprop_version",
     "format_table",
     "write_tables",
@@ -171,6 +177,98 @@ def vapour_rows() -> list[dict]:
     return rows
 
 
+_INCOMP_KEYS = (
+    ("density_kg_m3", "D"),
+    ("viscosity_pa_s", "V"),
+    ("conductivity_w_mk", "L"),
+    ("heat_capacity_j_kgk", "CPMASS"),
+)
+
+
+#: Pressure at which ``INCOMP::`` fluids are evaluated [Pa]: CoolProp's incompressible
+#: fits do not depend on pressure, but refuse states below a fit's vapour pressure (the
+#: synthetic oil boils at about 257 °C at 1 atm and runs pressurised above it).
+INCOMP_PRESSURE_PA = 1.0e7
+
+#: Significant digits of the fluid tables (the fits themselves hold 3 to 4).
+FLUID_DIGITS = 9
+
+
+def incompressible_columns(coolprop_name: str, temp_k) -> dict[str, np.ndarray]:
+    """Density, viscosity, conductivity and heat capacity of an ``INCOMP::`` fluid at
+    *temp_k* [K] (at :data:`INCOMP_PRESSURE_PA`)."""
+    props_si = _props_si()
+    temp_k = np.asarray(temp_k, float)
+    pressure = np.full_like(temp_k, INCOMP_PRESSURE_PA)
+    return {
+        name: np.asarray(props_si(key, "T", temp_k, "P", pressure, coolprop_name), float)
+        for name, key in _INCOMP_KEYS
+    }
+
+
+def _rounded(value: float) -> float:
+    return float(f"{value:.{FLUID_DIGITS}g}")
+
+
+def solution_rows(label: str) -> list[dict]:
+    """Every shipped mass percentage of the solution *label* (a key of
+    :data:`pipeins.props.fluid_tables.SOLUTIONS`), freezing point to CoolProp's upper limit."""
+    from pipeins.props.fluid_tables import SOLUTIONS, grid_k
+
+    props_si = _props_si()
+    family = SOLUTIONS[label]
+    version = coolprop_version()
+    rows = []
+    for percent in family.shipped_percents:
+        name = f"INCOMP::{family.code}[{percent / 100.0:g}]"
+        temp_k = grid_k(props_si("T_freeze", name), props_si("Tmax", name))
+        cols = incompressible_columns(name, temp_k)
+        source = f"CoolProp {version} {name} ({family.source})"
+        rows.extend(
+            {"mass_percent": percent, "temp_c": _rounded(temp_k[i] - _CELSIUS_TO_KELVIN),
+             **{k: _rounded(v[i]) for k, v in cols.items()}, "source": source}
+            for i in range(temp_k.size)
+        )
+    return rows
+
+
+def oil_rows(name: str) -> list[dict]:
+    """The heat-transfer oil *name* (a key of :data:`pipeins.props.fluid_tables.OILS`)
+    from CoolProp's lower to its upper limit."""
+    from pipeins.props.fluid_tables import grid_k
+
+    props_si = _props_si()
+    temp_k = grid_k(props_si("Tmin", name), props_si("Tmax", name))
+    cols = incompressible_columns(name, temp_k)
+    source = f"CoolProp {coolprop_version()} {name} (incompressible fit)"
+    return [
+        {"temp_c": _rounded(temp_k[i] - _CELSIUS_TO_KELVIN),
+         **{k: _rounded(v[i]) for k, v in cols.items()}, "source": source}
+        for i in range(temp_k.size)
+    ]
+
+
+def _fluid_builders() -> dict:
+    import functools
+
+    from pipeins.props.fluid_tables import OILS, SOLUTIONS, table_name
+
+    builders = {}
+    for label, family in SOLUTIONS.items():
+        percents = ", ".join(f"{p:g}" for p in family.shipped_percents)
+        builders[table_name(label)] = (
+            functools.partial(solution_rows, label),
+            f"Aqueous {label} at {percents} % by mass, freezing point to CoolProp's upper "
+            "limit, uniform grid of at most 0.5 K per mass percentage.",
+        )
+    for name, description in OILS.items():
+        builders[table_name(name)] = (
+            functools.partial(oil_rows, name),
+            f"{name}, {description}, CoolProp's range on a uniform grid of at most 0.5 K.",
+        )
+    return builders
+
+
 #: table name -> (row builder, description comment)
 TABLE_BUILDERS = {
     "air_properties": (
@@ -189,6 +287,7 @@ TABLE_BUILDERS = {
         vapour_rows,
         "Saturation vapour pressure of water over ice below 0.01 C, over liquid from 0.01 C.",
     ),
+    **_fluid_builders(),
 }
 
 

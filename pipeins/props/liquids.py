@@ -1,4 +1,4 @@
-"""Properties of the fluid inside the pipe: water, glycol mixtures, any CoolProp fluid.
+"""Properties of the fluid inside the pipe: water, glycols, brines, oils, any CoolProp fluid.
 
 Shipped (no CoolProp import, fast):
 
@@ -8,21 +8,30 @@ Shipped (no CoolProp import, fast):
   density, viscosity, conductivity and heat capacity by less than 1.5 %, so
   *pressure_pa* is not used for water.
 * ``air`` – dry air (ducts), from :mod:`pipeins.props.air`, density scaled with pressure.
+* ``N% ethylene glycol`` / ``N% propylene glycol`` at N = 10, 20, 25, 30, 35, 40, 50,
+  60; ``N% calcium chloride`` (10–30, every 5), ``N% sodium chloride`` (5, 10, 15, 20,
+  23), ``N% potassium formate`` (10, 20, 30, 40, 48), ``N% potassium acetate`` (10, 20,
+  30, 40, 45), percent by mass in water; the oils ``INCOMP::PNF`` and ``INCOMP::TVP1``.
+  CoolProp's incompressible fits tabulated in ``tables/fluid_*.csv`` (the set and why:
+  :mod:`pipeins.props.fluid_tables`), from the freezing point (CoolProp's ``T_freeze``;
+  an oil: CoolProp's lower limit) to CoolProp's upper limit.  Pressure-independent.
 
 Through CoolProp (imported inside the function; the first call costs about 2 s, then
-the fluid is tabulated once per process on a 0.5 K grid and interpolated):
+the fluid is tabulated once per process on the same kind of grid and interpolated):
 
-* ``N% ethylene glycol`` / ``N% propylene glycol`` – CoolProp's incompressible
-  ``INCOMP::MEG[x]`` / ``INCOMP::MPG[x]`` (x = N/100, mass fraction, 0 < N <= 60), from
-  freezing point (CoolProp's ``T_freeze``) to CoolProp's upper limit (100 °C).
-  Pressure-independent.
-* any other CoolProp fluid name (``R134a``, ``INCOMP::TVP1`` …) – an ``INCOMP::`` fluid
+* the same solutions at another content (``33% propylene glycol``; 0 < N ≤ the fit's
+  limit: 60 % for the glycols, 30 % calcium chloride, 23 % sodium chloride, 48 %
+  potassium formate, 45 % potassium acetate) – CoolProp's ``INCOMP::MPG[0.33]`` …;
+* any other CoolProp fluid name (``R134a``, ``INCOMP::T66`` …) – an ``INCOMP::`` fluid
   from its lower to its upper limit; a pure fluid as saturated liquid from its triple
   point to 98 % of its critical temperature [K], or, when *pressure_pa* is given, as
   compressed liquid at that pressure up to 0.5 K below its boiling point.
 
-Viscosity is interpolated in ln μ, everything else linearly; the interpolation errs by
-less than 1e-4 relative.  The Prandtl number is μ c_p / k of the interpolated values.
+Viscosity is interpolated in ln μ, everything else linearly, on grids of at most 0.5 K;
+between grid points the shipped tables err by at most 6e-5 relative (viscosity of 45 %
+potassium acetate near its freezing point; density, conductivity and heat capacity
+below 2e-6), as measured against CoolProp by ``tests/test_props_fluids.py``.  The
+Prandtl number is μ c_p / k of the interpolated values.
 """
 
 from __future__ import annotations
@@ -32,9 +41,10 @@ import re
 
 import numpy as np
 
-from . import TransportProperties
-
 from pipeins.errors import InputError
+
+from . import TransportProperties
+from .fluid_tables import GRID_STEP_K, OILS, SOLUTIONS, SolutionFamily, grid_k, shipped_table
 
 __all__ = [
     "FluidProperties",
@@ -53,21 +63,27 @@ __all__ = [
 LATENT_HEAT_FUSION_J_KG = 333.55e3
 
 _CELSIUS_TO_KELVIN = 273.15
-_GRID_STEP_K = 0.5
-# CoolProp's MEG and MPG fits (Melinder 2010, from memory) cover 0-60 % by mass.
-_GLYCOL_MAX_PERCENT = 60.0
-_GLYCOLS = {"ethylene": "MEG", "propylene": "MPG"}
-_UNKNOWN = 'unknown fluid "{}"; use water, N% ethylene glycol, N% propylene glycol or a CoolProp fluid name'
+_UNKNOWN = (
+    'unknown fluid "{}"; use water, N% ethylene or propylene glycol, N% calcium or sodium '
+    "chloride, N% potassium formate or acetate, or a CoolProp fluid name"
+)
 
 _NUMBER = r"(?P<pct>\d+(?:\.\d*)?|\.\d+)"
-_KIND = (
-    r"(?P<kind>(?:mono)?ethylene\s*glycol|(?:mono)?propylene\s*glycol|meg|mpg|eg|pg)"
+_FAMILY_BY_ALIAS = tuple(
+    (re.compile(rf"^(?:{alias})$"), family)
+    for family in SOLUTIONS.values()
+    for alias in family.aliases
 )
-_GLYCOL_PATTERNS = (
+_KIND = "(?P<kind>" + "|".join(
+    f"(?:{alias})" for family in SOLUTIONS.values() for alias in family.aliases
+) + ")"
+_SOLUTION_PATTERNS = (
     re.compile(rf"^{_NUMBER}\s*%?\s*(?:by\s+mass\s+)?{_KIND}$"),
     re.compile(rf"^{_KIND}\s*[-_ ]?\s*{_NUMBER}\s*%?$"),
 )
-_INCOMP_FRACTION = re.compile(r"^incomp::(?P<code>meg|mpg)\[(?P<frac>\d*\.?\d+)\]$")
+_INCOMP_FRACTION = re.compile(r"^incomp::(?P<code>[a-z0-9]+)\[(?P<frac>\d*\.?\d+)\]$")
+_FAMILY_BY_CODE = {family.code.lower(): family for family in SOLUTIONS.values()}
+_OIL_BY_LOWER = {name.lower(): name for name in OILS}
 _WATER_NAMES = {"water", "h2o", "heos::water", "water (liquid)", "liquid water"}
 _AIR_NAMES = {"air", "dry air", "heos::air"}
 
@@ -76,32 +92,41 @@ class FluidProperties(TransportProperties):
     """Fluid properties at the bulk temperature; every field an array of the input's shape."""
 
 
-def _glycol_name(percent: float, kind: str, original: str) -> str:
-    if not 0.0 < percent <= _GLYCOL_MAX_PERCENT:
+def _solution_name(percent: float, family: SolutionFamily, original: str) -> str:
+    if not 0.0 < percent <= family.max_percent:
         raise InputError(
             "--fluid",
-            f'"{original}": glycol content {percent:g} % is outside 0 to '
-            f"{_GLYCOL_MAX_PERCENT:g} % by mass",
+            f'"{original}": {family.content_word} content {percent:g} % is outside 0 to '
+            f"{family.max_percent:g} % by mass",
         )
-    return f"{percent:g}% {kind} glycol"
+    return f"{percent:g}% {family.label}"
+
+
+def _family_of(kind: str) -> SolutionFamily:
+    for pattern, family in _FAMILY_BY_ALIAS:
+        if pattern.match(kind):
+            return family
+    raise AssertionError(kind)  # the kind came from the same aliases
 
 
 @functools.cache
 def normalise_fluid(name: str) -> str:
     """The canonical fluid name for *name*, or ``InputError('--fluid', …)``.
 
-    Canonical names: ``"water"``, ``"air"``, ``"30% ethylene glycol"``,
-    ``"40% propylene glycol"`` (percent by mass), or a CoolProp fluid name as CoolProp
-    spells it.  Accepted glycol spellings include "30% ethylene glycol",
-    "ethylene glycol 30%", "MEG30", "EG 30 %", "PG 40%", "INCOMP::MEG[0.3]" and
-    "INCOMP::MEG-30%".  Only a name that is none of these imports CoolProp, to check it.
+    Canonical names: ``"water"``, ``"air"``, ``"<N>% <solute>"`` (percent by mass in
+    water; solutes: ethylene glycol, propylene glycol, calcium chloride, sodium chloride,
+    potassium formate, potassium acetate), or a CoolProp fluid name as CoolProp spells
+    it.  Accepted spellings include "30% ethylene glycol", "ethylene glycol 30%",
+    "MEG30", "EG 30 %", "PG 40%", "INCOMP::MEG[0.3]", "INCOMP::MEG-30%", "CaCl2 25%",
+    "20 % sodium chloride", "NaCl 20%".  Only a name that is none of these and not a
+    shipped oil (``INCOMP::PNF``, ``INCOMP::TVP1``) imports CoolProp, to check it.
 
     Examples
     --------
     >>> normalise_fluid("MEG30"), normalise_fluid("PG 40%"), normalise_fluid("Water")
     ('30% ethylene glycol', '40% propylene glycol', 'water')
-    >>> normalise_fluid("INCOMP::MEG[0.3]")
-    '30% ethylene glycol'
+    >>> normalise_fluid("INCOMP::MEG[0.3]"), normalise_fluid("CaCl2 25 %")
+    ('30% ethylene glycol', '25% calcium chloride')
     """
     text = " ".join(str(name).split())
     low = text.lower()
@@ -109,16 +134,16 @@ def normalise_fluid(name: str) -> str:
         return "water"
     if low in _AIR_NAMES:
         return "air"
+    if low in _OIL_BY_LOWER:
+        return _OIL_BY_LOWER[low]
     bare = low.removeprefix("incomp::")
-    for pattern in _GLYCOL_PATTERNS:
+    for pattern in _SOLUTION_PATTERNS:
         match = pattern.match(bare)
         if match:
-            kind = "propylene" if "p" in match["kind"].removeprefix("mono")[:2] else "ethylene"
-            return _glycol_name(float(match["pct"]), kind, text)
+            return _solution_name(float(match["pct"]), _family_of(match["kind"]), text)
     match = _INCOMP_FRACTION.match(low)
-    if match:
-        kind = "ethylene" if match["code"] == "meg" else "propylene"
-        return _glycol_name(100.0 * float(match["frac"]), kind, text)
+    if match and match["code"] in _FAMILY_BY_CODE:
+        return _solution_name(100.0 * float(match["frac"]), _FAMILY_BY_CODE[match["code"]], text)
     if not text:
         raise InputError("--fluid", _UNKNOWN.format(text))
     return _coolprop_canonical(text)
@@ -141,15 +166,17 @@ def _coolprop_canonical(text: str) -> str:
 
 
 def _coolprop_name(fluid: str) -> str:
-    match = re.fullmatch(r"(?P<pct>[\d.]+)% (?P<kind>ethylene|propylene) glycol", fluid)
-    if match:
-        return f"INCOMP::{_GLYCOLS[match['kind']]}[{float(match['pct']) / 100.0:g}]"
+    percent, _, label = fluid.partition("% ")
+    family = SOLUTIONS.get(label)
+    if family is not None:
+        return f"INCOMP::{family.code}[{float(percent) / 100.0:g}]"
     return fluid
 
 
 @functools.cache
 def _coolprop_table(fluid: str, pressure_pa: float | None) -> dict:
-    """Tabulate a CoolProp fluid once over its liquid range on a 0.5 K grid."""
+    """Tabulate a CoolProp fluid once over its liquid range on a uniform grid of at most
+    0.5 K (:func:`pipeins.props.fluid_tables.grid_k`)."""
     from CoolProp.CoolProp import PropsSI
 
     name = _coolprop_name(fluid)
@@ -161,7 +188,8 @@ def _coolprop_table(fluid: str, pressure_pa: float | None) -> dict:
             freezes = True
         except ValueError:
             low_k, freezes = PropsSI("Tmin", name), False
-        pressure = 101_325.0 if pressure_pa is None else pressure_pa
+        # the fits do not depend on pressure, but refuse states below their vapour pressure
+        pressure = 1.0e7
     else:
         low_k, freezes = PropsSI("Ttriple", name), True
         if pressure_pa is None:
@@ -171,8 +199,7 @@ def _coolprop_table(fluid: str, pressure_pa: float | None) -> dict:
         else:
             top_k = PropsSI("Tmax", name)
         pressure = pressure_pa
-    temp_k = np.arange(low_k, top_k, _GRID_STEP_K)
-    temp_k = np.append(temp_k[temp_k < top_k - 1e-6], top_k)
+    temp_k = grid_k(low_k, top_k, GRID_STEP_K)
     if pressure is None:
         state = ("Q", np.zeros_like(temp_k))
     else:
@@ -213,6 +240,9 @@ def _table(fluid: str, pressure_pa=None) -> dict:
         from pipeins.props.air import TEMP_RANGE_C
 
         return {"temp_c": np.array(TEMP_RANGE_C), "freezes": False}
+    shipped = shipped_table(fluid)
+    if shipped is not None:
+        return shipped
     return _coolprop_table(fluid, None if pressure_pa is None else float(pressure_pa))
 
 
