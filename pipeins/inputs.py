@@ -82,7 +82,7 @@ PARAMS: tuple[Param, ...] = (
     # -- the fluid -----------------------------------------------------------------------
     Param("fluid_temp_c", "--fluid-temp", "temperature", _S, "temperature", "fluid temperature [°C]",
           "(this or steam_pressure)"),
-    Param("steam_pressure_pa", "--steam-pressure", "steam_pressure", _S, "pressure",
+    Param("steam_pressure_pa", "--steam-pressure", "steam_pressure", _S, "steam_pressure",
           "saturated steam pressure, gauge or absolute said (10 barg, 150 psig) [Pa absolute]", "", 0.0, None, True),
     Param("fluid", "--fluid", "fluid", _S, "text", 'fluid: water, "30% ethylene glycol", a CoolProp name',
           "water (none for steam)"),
@@ -91,7 +91,7 @@ PARAMS: tuple[Param, ...] = (
     Param("flow", "--flow", "flow", _S, "flow", "fluid flow, mass or volume (5 m3/h, 1.2 kg/s, 20 gpm)", "",
           0.0, None, True),
     Param("inner_h_w_m2k", "--inner-h", "inner_h", _S, "heat_transfer_coefficient",
-          "fixed inner film coefficient [W/(m²·K)]", "no inner film", 0.0, None, True),
+          "fixed inner film coefficient [W/(m²·K)]", "no inner film", 1.0, 1e5),
     # -- the surroundings ----------------------------------------------------------------
     Param("air_temp_c", "--ambient-temp", "air", _C, "temperature", "air temperature [°C]",
           "20 °C on the command line; required in the file"),
@@ -99,16 +99,16 @@ PARAMS: tuple[Param, ...] = (
           "mean radiant temperature of the surroundings [°C]", "the air temperature"),
     Param("rh_percent", "--rh", "rh", _C, "percent", "relative humidity [%] (gives the dew point)", "not given",
           0.0, 100.0, True),
-    Param("wind_m_s", "--wind", "wind", _C, "speed", "wind speed [m/s]", "0 (still air)", 0.0),
+    Param("wind_m_s", "--wind", "wind", _C, "speed", "wind speed [m/s]", "0 (still air)", 0.0, 100.0),
     Param("orientation", "--orientation", "orientation", _CL, "choice", "run orientation", "horizontal",
           choices=("horizontal", "vertical")),
-    Param("height_m", "--height", "height", _CL, "length", "height of a vertical run [m]", "", 0.0, None, True),
+    Param("height_m", "--height", "height", _CL, "length", "height of a vertical run [m]", "", 0.0, 1000.0, True),
     Param("pressure_pa", "--air-pressure", "air_pressure", _C, "pressure", "air pressure [Pa]", "101.325 kPa",
           0.0, None, True),
     Param("altitude_m", "--altitude", "altitude", _C, "length", "site altitude instead of air_pressure "
           "(standard atmosphere) [m]", "0 m", -500.0, 11_000.0),
     Param("outer_h_w_m2k", "--outer-h", "outer_h", _C, "heat_transfer_coefficient",
-          "fixed combined outer coefficient, replaces convection and radiation [W/(m²·K)]", "", 0.0, None, True),
+          "fixed combined outer coefficient, replaces convection and radiation [W/(m²·K)]", "", 0.1, 1e4),
     # -- the build-up --------------------------------------------------------------------
     Param("layers", "--layer", None, (), "list", "insulation layers MATERIAL:THICKNESS, inner to outer"),
     Param("material", "--material", "material", _SL, "text", 'the insulation (the layer sized): a catalogue '
@@ -273,14 +273,7 @@ def parse_years(value, name: str = "years") -> float:
 def _efficiency(value, name: str, units: str) -> float:
     from .units import parse_quantity
 
-    text = str(value).strip() if not isinstance(value, (int, float)) or isinstance(value, bool) else value
-    if isinstance(text, str) and "%" in text:
-        return parse_quantity(text, "percent", name, units) / 100.0
-    number = _plain_number(value, name, "an efficiency (88 % or 0.88)")
-    if number > 1:
-        raise InputError(name, f"{number:g} is above 1; give the efficiency as a fraction or with % "
-                               f"(did you mean {number:g} %?)")
-    return number
+    return parse_quantity(value, "efficiency", name, units)  # 88 %, 88 or 0.88 (pipeins.units)
 
 
 def _plain_number(value, name: str, what: str) -> float:
@@ -314,7 +307,7 @@ _NOUNS = {"rh_percent": "relative humidity", "emittance": "emittance", "efficien
           "wall_m": "wall thickness"}
 #: The unit a range is stated in, by kind.
 _RANGE_UNITS = {"fraction": " %", "percent": " %", "years": " years", "time": "", "thickness": " m",
-                "diameter": " m", "length": " m"}
+                "diameter": " m", "length": " m", "heat_transfer_coefficient": " W/(m²·K)", "speed": " m/s"}
 
 
 def noun(p: Param) -> str:
@@ -449,7 +442,9 @@ def parse_layer(text: str, units: str, name: str = "layers") -> tuple[str, float
     value = parse_quantity(thickness, "thickness", name, units)
     if not value > 0:
         raise InputError(name, f'thickness of "{material.strip()}" must be greater than zero')
-    return material.strip(), value
+    from .units import material_in_si
+
+    return material_in_si(material.strip(), units, name), value
 
 
 def _parsed(raw: dict, units: str, items: list) -> dict:

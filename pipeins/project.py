@@ -387,8 +387,7 @@ class _Reader:
         co2 = self.per_energy(table, "co2", path, entry, "an emission factor (kg CO2 per unit)")
         if co2 is not None:
             kw["co2"] = self.guard(path, entry, "co2", EmissionFactor, co2[0], co2[1])
-        kw["efficiency"] = self.number(table, "efficiency", path, entry, base.efficiency,
-                                       lambda x: 0 < x <= 1, "the efficiency is above 0 and at most 1 (0.88 means 88 %)")
+        kw["efficiency"] = self.quantity(table, "efficiency", "efficiency", path, entry, base.efficiency)
         kw["cop"] = self.number(table, "cop", path, entry, base.cop, lambda x: x > 0, "the COP is greater than 0")
         hours = self.quantity(table, "hours", "time", path, entry)
         if hours is not None:
@@ -590,7 +589,7 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
     r.check_keys(table, "services", p, entry, required=("material",))
     ok_before = len(r.problems)
     temp = r.quantity(table, "temperature", "temperature", p, entry)
-    steam = r.quantity(table, "steam_pressure", "pressure", p, entry, positive=True)
+    steam = r.quantity(table, "steam_pressure", "steam_pressure", p, entry, positive=True)
     if "temperature" in table and "steam_pressure" in table:
         r.problem(p, entry, "steam_pressure", "give temperature or steam_pressure, not both")
     elif "temperature" not in table and "steam_pressure" not in table:
@@ -608,6 +607,10 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
 
             r.guard(p, entry, "temperature", check_fluid_temp, checked, temp)
     material = r.text_value(table, "material", p, entry)
+    if material is not None:
+        from .units import material_in_si
+
+        material = r.guard(p, entry, "material", material_in_si, material, r.units, "material")
     if material is not None:
         from .catalog.materials import lookup_material
 

@@ -32,8 +32,21 @@ How text is read
   ``W/m2K`` is W/(m²·K).  ``*``, ``·``, ``-``, a space or nothing at all multiply; exponents
   are digits, ``^2`` or ``²``.  Inside compound units ``C`` and ``F`` are temperature
   *differences*.
-* Pressure is absolute: ``bar``, ``psi`` and ``kPa`` mean absolute pressure (as ``bara``,
-  ``psia``); gauge readings are written ``barg``, ``psig`` or ``kPag`` (+ 101 325 Pa).
+* An air pressure (kind ``pressure``) is absolute: ``bar``, ``psi`` and ``kPa`` mean
+  absolute pressure there (as ``bara``, ``psia``); gauge readings are written ``barg``,
+  ``psig`` or ``kPag`` (+ 101 325 Pa).
+* A steam pressure (kind ``steam_pressure``) must say gauge or absolute, because plant
+  staff read gauges: ``10 barg``/``10 bara``, ``150 psig``/``150 psia``, ``1 MPag``/``1 MPaa``,
+  ``700 kPag``/``700 kPaa``; ``(g)``/``(a)`` and the words ``gauge``/``abs``/``absolute`` may
+  follow the unit (``10 bar(g)``, ``1 MPa(a)``, ``10 bar gauge``).  ``10 bar``, ``150psi``
+  and a bare number are refused with that hint.
+* Percentages (RH, rates, reductions) are percent: ``80``, ``80%`` and ``80 %`` all mean
+  80 %.  A bare value whose size is at most 1 (``0.8``) is refused, since it is usually a
+  fraction typed by mistake; write ``0.8 %`` to mean 0.8 %.  An efficiency (kind
+  ``efficiency``, returned as a fraction) takes ``88 %``, ``88`` (a bare value above 1 is
+  percent) or ``0.88`` (a bare value at most 1 is a fraction).
+* Every value must be finite and inside a physical range (see :data:`RANGES`): ``1e999m``,
+  ``nan`` or a 1000 m insulation layer are refused with the input's name.
 """
 
 from __future__ import annotations
@@ -50,7 +63,10 @@ __all__ = [
     "KINDS",
     "DISPLAY_KINDS",
     "Flow",
+    "RANGES",
     "parse_quantity",
+    "parse_number",
+    "material_in_si",
     "parse_money_per_energy",
     "energy_unit_joules",
     "to_display",
@@ -268,9 +284,15 @@ _KINDS: dict[str, _Kind] = {
     "time": _Kind(
         "time", "a", "8760h, 30min or 2d", _TIME,
         {"si": ("h", _HOUR_S), "us": ("h", _HOUR_S)}),
+    "steam_pressure": _Kind(
+        "steam pressure", "a", "10barg, 11bara, 150psig or 1MPa(a)", None,
+        {}),
     "percent": _Kind(
         "percentage", "a", "50, 50% or 12.5%", None,
         {"si": ("%", 1.0), "us": ("%", 1.0)}),
+    "efficiency": _Kind(
+        "efficiency", "an", "88%, 88 or 0.88", None,
+        {}),
     "flow": _Kind(
         "flow", "a", "2kg/s, 5m3/h or 20gpm", None,
         {}),
@@ -287,6 +309,37 @@ _KINDS: dict[str, _Kind] = {
         "power", "a", "500W, 2kW or 1700Btu/h", _POWER,
         {"si": ("W", 1.0), "us": ("Btu/h", _BTU_IT_J / _HOUR_S)}),
 }
+
+# Physical range of every kind, SI (°C for temperatures): (lowest, highest) accepted.  Wide
+# on purpose (they catch unit slips and overflow, not design mistakes); inputs with a
+# narrower meaning pass their own ``low``/``high`` to parse_quantity.  Signs are left to the
+# caller (its own "must be greater than zero" message) where a kind can be negative.
+RANGES: dict[str, tuple[float, float]] = {
+    "temperature": (_ABSOLUTE_ZERO_C, 2000.0),
+    "temperature_difference": (-2000.0, 2000.0),
+    "thickness": (-2.0, 2.0),
+    "diameter": (-20.0, 20.0),
+    "length": (-1e6, 1e6),
+    "speed": (-200.0, 200.0),
+    "pressure": (0.0, 1e8),
+    "steam_pressure": (0.0, 1e8),
+    "heat_flow_per_length": (-1e7, 1e7),
+    "heat_flux": (-1e8, 1e8),
+    "heat_transfer_coefficient": (-1e6, 1e6),
+    "conductivity": (-1e4, 1e4),
+    "time": (-1e10, 1e10),
+    "percent": (-1000.0, 1000.0),
+    "efficiency": (0.0, 1.0),  # above 0, checked when read
+    "flow": (-1e6, 1e6),
+    "mass_flow": (-1e6, 1e6),
+    "volume_flow": (-1e4, 1e4),
+    "energy": (-1e20, 1e20),
+    "power": (-1e12, 1e12),
+}
+"""Accepted range of each kind in SI (°C, K, m, m/s, Pa, W/m, W/m², W/(m²·K), W/(m·K), s,
+%, fraction, kg/s or m³/s, J, W); :func:`parse_quantity` refuses values outside it.
+Thickness: at most 2 m (a thicker "layer" is a unit slip); temperature: absolute zero to
+2000 °C; percentages: -1000 to 1000 %."""
 
 KINDS = tuple(_KINDS)
 """Every kind :func:`parse_quantity` reads."""
@@ -372,6 +425,8 @@ def _split_number(text: str):
             value = float(g["dec"])
     except ZeroDivisionError:
         return None
+    except (OverflowError, ValueError):  # digits beyond any float (or Python's int limit)
+        value = math.inf
     if g["sign"] in ("-", "−"):
         value = -value
     return value, text[match.end():].strip()
@@ -537,11 +592,39 @@ def _parse_temperature(number, unit, text, option, system, spec):
     return max(temp_c, _ABSOLUTE_ZERO_C)
 
 
-def _parse_pressure(number, unit, text, option, system, spec):
+_GAUGE_WORDS = (("absolute", "a"), ("abs", "a"), ("gauge", "g"), ("gage", "g"))
+_STEAM_UNITS = {"barg", "bara", "psig", "psia", "kpag", "kpaa", "mpag", "mpaa"}
+
+
+def _pressure_word(unit: str) -> str:
+    """``"bar (g)"`` -> ``"barg"``, ``"bar gauge"`` -> ``"barg"``, ``"MPa(a)"`` -> ``"MPaa"``."""
+    word = _normalise(unit).replace(" ", "").replace("(", "").replace(")", "")
+    for long, short in _GAUGE_WORDS:
+        if word.lower().endswith(long) and len(word) > len(long):
+            word = word[: -len(long)] + short
+            break
+    return word
+
+
+def _parse_pressure(number, unit, text, option, system, spec, steam=False):
+    if steam:
+        word = _pressure_word(unit)
+        if word.lower() not in _STEAM_UNITS:
+            base = {"psi": "psi", "kpa": "kPa", "mpa": "MPa"}.get(word.lower(), "bar")
+            shown = f"{number:g}"
+            if unit == "":
+                head = f'"{text}" needs a unit that says gauge or absolute'
+            elif word.lower() in ("bar", "psi", "kpa", "mpa"):
+                head = f'"{text}" does not say gauge or absolute'
+            else:
+                head = f'cannot read "{text}" as a steam pressure, which must say gauge or absolute'
+            raise InputError(option, f"{head}; write e.g. {shown} {base}g (gauge) or {shown} {base}a "
+                                     f"(absolute)")
+        unit = word
     if unit == "":
         pa_per_unit, gauge = (1e3, False) if system == "si" else (_PSI_PA, False)
     else:
-        word = _normalise(unit).replace(" ", "").replace("(", "").replace(")", "")
+        word = _pressure_word(unit)
         if word in _PRESSURE_UNITS:
             pa_per_unit, gauge = _PRESSURE_UNITS[word]
         elif word.lower() in _PRESSURE_MEGA_LOWER:
@@ -559,18 +642,77 @@ def _parse_pressure(number, unit, text, option, system, spec):
         raise InputError(
             option,
             f'"{text}" is below zero absolute pressure; bar, psi and kPa mean absolute '
-            f"(write barg, psig or kPag for gauge)",
+            f"(write barg, psig or kPag for gauge)" if not steam else
+            f'"{text}" is below zero absolute pressure',
         )
     return pressure_pa
 
 
-def _parse_percent(number, unit, text, option, spec):
-    if unit.replace(" ", "").lower() not in ("", "%", "percent"):
+def _percent_sign(unit: str, text, option, spec) -> bool:
+    """True when the unit is ``%``/``percent``, False when bare; anything else is refused."""
+    word = unit.replace(" ", "").lower()
+    if word not in ("", "%", "percent"):
         raise _cannot_read(option, text, spec)
+    return word != ""
+
+
+def _parse_percent(number, unit, text, option, spec):
+    if not _percent_sign(unit, text, option, spec) and 0.0 < abs(number) <= 1.0:
+        raise InputError(
+            option, f"{text} is read as percent; did you mean {_nice(number * 100.0)} %? "
+                    f"(write {text} % if you mean it)")
     return number
 
 
-def parse_quantity(text, kind: str, option: str = "", units: str = "si"):
+def _parse_efficiency(number, unit, text, option, spec):
+    value = number / 100.0 if _percent_sign(unit, text, option, spec) or number > 1.0 else number
+    if not 0.0 < value <= 1.0:
+        raise InputError(option, f'"{text}" is out of range; an efficiency is above 0 and at most 100 % '
+                                 "(88 %, 88 and 0.88 all mean 88 %)")
+    return value
+
+
+def _nice(value: float) -> str:
+    """A limit or a value for a message: ``10,000``, ``0.1``, ``1e+09``."""
+    if value == 0:
+        return "0"
+    if abs(value) < 1e15 and abs(value - round(value)) <= 1e-9 * abs(value):
+        return f"{round(value):,}"
+    return f"{value:.5g}"
+
+
+def _range_text(kind: str, system: str, value: float, low: float, high: float) -> str:
+    """``"from 0.1 to 10,000 W/(m²·K)"`` in the unit system's display unit; a range symmetric
+    about zero (a sanity bound) is said from the side the value left it: ``"at most 2,000 mm"``."""
+    if kind == "percent":
+        lo, hi, label = low, high, "%"
+    else:
+        shown_kind = {"steam_pressure": "pressure"}.get(kind, kind)
+        lo = to_display(low, shown_kind, system)
+        hi = to_display(high, shown_kind, system)
+        label = unit_label(shown_kind, system)
+        if shown_kind == "pressure" and not label.endswith("a"):
+            label += " absolute"
+    if low == -high:
+        return f"at most {_nice(hi)} {label}" if value > high else f"at least {_nice(lo)} {label}"
+    return f"from {_nice(lo)} to {_nice(hi)} {label}"
+
+
+def _check_range(value, kind, shown, option, system, spec, low, high, what):
+    if not math.isfinite(value):
+        raise InputError(option, f'"{shown}" is not a finite {spec.noun}')
+    default_low, default_high = RANGES[kind]
+    low = default_low if low is None else low
+    high = default_high if high is None else high
+    if not low <= value <= high:
+        noun = what or f"{spec.article} {spec.noun}"
+        raise InputError(option, f'"{shown}" is out of range; {noun} is '
+                                 f"{_range_text(kind, system, value, low, high)}")
+    return value
+
+
+def parse_quantity(text, kind: str, option: str = "", units: str = "si", *,
+                   low: float | None = None, high: float | None = None, what: str = ""):
     """Read a value with an optional unit suffix and return it in SI.
 
     Parameters
@@ -581,16 +723,24 @@ def parse_quantity(text, kind: str, option: str = "", units: str = "si"):
     kind : str
         One of :data:`KINDS`.  SI results: ``temperature`` [°C], ``temperature_difference``
         [K], ``thickness``/``diameter``/``length`` [m], ``speed`` [m/s], ``pressure``
-        [Pa, absolute], ``heat_flow_per_length`` [W/m], ``heat_flux`` [W/m²],
+        [Pa, absolute], ``steam_pressure`` [Pa, absolute; the text must say gauge or
+        absolute], ``heat_flow_per_length`` [W/m], ``heat_flux`` [W/m²],
         ``heat_transfer_coefficient`` [W/(m²·K)], ``conductivity`` [W/(m·K)], ``time`` [s],
-        ``percent`` [%], ``energy`` [J], ``power`` [W], ``mass_flow`` [kg/s],
-        ``volume_flow`` [m³/s]; ``flow`` returns a :class:`Flow` (mass or volume).
+        ``percent`` [%], ``efficiency`` [fraction, 0..1], ``energy`` [J], ``power`` [W],
+        ``mass_flow`` [kg/s], ``volume_flow`` [m³/s]; ``flow`` returns a :class:`Flow`
+        (mass or volume).
     option : str
         Name of the input for error messages, e.g. ``"--thickness"``.
     units : {"si", "us"}
         Unit system that gives a bare number its unit (the system's display unit, see
         :func:`unit_label`): e.g. a bare thickness is mm in ``si`` and inches in ``us``;
-        a bare temperature °C or °F; a bare pressure kPa or psia.  Time is hours in both.
+        a bare temperature °C or °F; a bare pressure kPa or psia; a bare conductivity
+        W/(m·K) or Btu·in/(h·ft²·°F); a bare coefficient W/(m²·K) or Btu/(h·ft²·°F).
+        Time is hours in both.
+    low, high : float, optional
+        Narrower accepted range in SI (°C, fraction for ``efficiency``) than the kind's
+        :data:`RANGES`, for inputs with a physical meaning of their own (a fixed outer
+        coefficient, say); *what* names that quantity in the message.
 
     Returns
     -------
@@ -600,15 +750,19 @@ def parse_quantity(text, kind: str, option: str = "", units: str = "si"):
     Raises
     ------
     InputError
-        Empty or unreadable text, a unit of the wrong kind, a temperature below absolute
-        zero, a negative absolute pressure, or a flow without a unit.
+        Empty or unreadable text, a unit of the wrong kind, a value that is not finite or
+        lies outside the range, a temperature below absolute zero, a negative absolute
+        pressure, a flow without a unit, a steam pressure that says neither gauge nor
+        absolute, or a bare percentage at most 1.
 
     Notes
     -----
-    ``bar``, ``psi``, ``kPa`` and ``MPa`` are absolute pressures (``bara``, ``psia`` are
-    accepted too); gauge readings are ``barg``, ``psig``, ``kPag``, ``MPag`` and add one
-    standard atmosphere, 101 325 Pa.  A ``percent`` is a percentage: ``0.5`` is 0.5 %,
-    not 50 %.  Btu is the International Table Btu (1055.05585262 J).
+    ``bar``, ``psi``, ``kPa`` and ``MPa`` are absolute pressures for an air pressure
+    (``bara``, ``psia`` are accepted too); gauge readings are ``barg``, ``psig``,
+    ``kPag``, ``MPag`` and add one standard atmosphere, 101 325 Pa.  A ``percent`` is a
+    percentage: ``80`` and ``80 %`` are 80 %; ``0.5 %`` is half a percent, and a bare
+    ``0.5`` is refused (did you mean 50 %?).  Btu is the International Table Btu
+    (1055.05585262 J).
 
     Examples
     --------
@@ -620,6 +774,10 @@ def parse_quantity(text, kind: str, option: str = "", units: str = "si"):
     0.0508
     >>> parse_quantity("0 barg", "pressure")
     101325.0
+    >>> parse_quantity("10 barg", "steam_pressure")
+    1101325.0
+    >>> parse_quantity("88", "efficiency"), parse_quantity("0.88", "efficiency")
+    (0.88, 0.88)
     >>> round(parse_quantity("50 Btu/hr-ft", "heat_flow_per_length"), 3)
     48.076
     >>> parse_quantity("5 m3/h", "flow")
@@ -628,50 +786,148 @@ def parse_quantity(text, kind: str, option: str = "", units: str = "si"):
     Traceback (most recent call last):
     ...
     pipeins.errors.InputError: --length: cannot read "5 parsecs" as a length; use e.g. 30m, 100ft or 1500mm
+    >>> parse_quantity("0.8", "percent", "--rh")
+    Traceback (most recent call last):
+    ...
+    pipeins.errors.InputError: --rh: 0.8 is read as percent; did you mean 80 %? (write 0.8 % if you mean it)
     """
     spec = _get_kind(kind)
     system = _check_system(units)
     if isinstance(text, bool):
         raise _cannot_read(option, text, spec)
     if isinstance(text, numbers.Real):
-        number, unit, shown = float(text), "", str(text)
+        shown = str(text)
+        try:
+            number, unit = float(text), ""
+        except OverflowError:  # an integer beyond any float
+            raise InputError(option, f'"{_clip(shown)}" is not a finite {spec.noun}') from None
         if not math.isfinite(number):
-            raise _cannot_read(option, shown, spec)
+            raise InputError(option, f'"{shown}" is not a finite {spec.noun}')
     else:
         shown = "" if text is None else str(text).strip()
         if shown == "":
             raise InputError(option, f"the {spec.noun} is missing; use e.g. {spec.examples}")
         split = _split_number(shown)
         if split is None:
-            raise _cannot_read(option, shown, spec)
+            raise _cannot_read(option, _clip(shown), spec)
         number, unit = split
+        if not math.isfinite(number):
+            raise InputError(option, f'"{_clip(shown)}" is not a finite {spec.noun}')
+    shown = _clip(shown)
+    check = lambda value: _check_range(value, kind, shown, option, system, spec, low, high, what)  # noqa: E731
 
     if kind == "temperature":
-        return _parse_temperature(number, unit, shown, option, system, spec)
-    if kind == "pressure":
-        return _parse_pressure(number, unit, shown, option, system, spec)
+        return check(_parse_temperature(number, unit, shown, option, system, spec))
+    if kind in ("pressure", "steam_pressure"):
+        return check(_parse_pressure(number, unit, shown, option, system, spec, kind == "steam_pressure"))
     if kind == "percent":
-        return _parse_percent(number, unit, shown, option, spec)
+        return check(_parse_percent(number, unit, shown, option, spec))
+    if kind == "efficiency":
+        return check(_parse_efficiency(number, unit, shown, option, spec))
     if unit == "":
         if kind in ("flow", "mass_flow", "volume_flow"):
             raise InputError(option, f'"{shown}" needs a unit; use e.g. {spec.examples}')
-        return number * spec.display[system][1]
+        return check(number * spec.display[system][1])
     try:
         factor, dim = _parse_compound(unit)
     except _MegaCase as exc:
         raise _cannot_read(option, shown, spec,
                            f' (write "{exc.canonical}": lower-case m means milli)') from None
-    except _Unreadable:
+    except (_Unreadable, OverflowError, RecursionError, ZeroDivisionError):
         raise _cannot_read(option, shown, spec) from None
     if kind == "flow":
         if dim == _MASS_FLOW:
-            return Flow(number * factor, "mass")
+            value = _check_range(number * factor, "mass_flow", shown, option, system, spec, low, high, what)
+            return Flow(value, "mass")
         if dim == _VOLUME_FLOW:
-            return Flow(number * factor, "volume")
+            value = _check_range(number * factor, "volume_flow", shown, option, system, spec, low, high, what)
+            return Flow(value, "volume")
         raise _cannot_read(option, shown, spec)
     if dim != spec.dimension:
         raise _cannot_read(option, shown, spec)
-    return number * factor
+    return check(number * factor)
+
+
+def _clip(text: str, limit: int = 60) -> str:
+    """Echo at most *limit* characters of what the user wrote (a 200-digit number, say)."""
+    text = str(text)
+    return text if len(text) <= limit else text[: limit - 1] + "…"
+
+
+def parse_number(text, option: str, what: str, low: float | None = None, high: float | None = None,
+                 low_open: bool = False) -> float:
+    """A plain number (a COP, a count of years, an emittance), finite and in range.
+
+    Parameters
+    ----------
+    text : str or float
+        What the user wrote.
+    option : str
+        Name of the input for messages.
+    what : str
+        The quantity with its article, e.g. ``"a coefficient of performance"``.
+    low, high : float, optional
+        Accepted range, inclusive (exclusive at *low* when *low_open*); without them any
+        finite number (the caller checks the range with its own words).
+
+    Examples
+    --------
+    >>> parse_number("3.5", "--cop", "a coefficient of performance", 0, 50, low_open=True)
+    3.5
+    >>> parse_number("nan", "--cop", "a coefficient of performance", 0, 50, low_open=True)
+    Traceback (most recent call last):
+    ...
+    pipeins.errors.InputError: --cop: cannot read "nan" as a coefficient of performance; give a number above 0 and at most 50
+    """
+    if low is None or high is None:
+        allowed = "give a finite number"
+    else:
+        bound = f"above {_nice(low)}" if low_open else f"at least {_nice(low)}"
+        allowed = f"give a number {bound} and at most {_nice(high)}"
+    shown = _clip("" if text is None else str(text).strip())
+    if isinstance(text, bool):
+        value = math.nan
+    elif isinstance(text, numbers.Real):
+        try:
+            value = float(text)
+        except OverflowError:
+            value = math.inf
+    else:
+        split = _split_number(shown)
+        value = split[0] if split is not None and split[1] == "" else math.nan
+    if math.isnan(value) or (low is None and math.isinf(value)):
+        raise InputError(option, f'cannot read "{shown}" as {what}; {allowed}')
+    if low is None or high is None:
+        return value
+    if not (low < value if low_open else low <= value) or not value <= high:
+        raise InputError(option, f'"{shown}" is out of range for {what}; {allowed}')
+    return value
+
+
+def material_in_si(text, units: str = "si", option: str = "--layer") -> str:
+    """A material as the library takes it: ``k=<value>`` turned into W/(m·K), names kept.
+
+    A constant conductivity ``k=<value>`` may carry a unit (``k=0.25Btu·in/(h·ft²·°F)``,
+    ``k=0.25 Btu-in/hr-ft2-F``, ``k=0.036W/mK``); a bare value is in the unit system's
+    conductivity unit, W/(m·K) in ``si`` and Btu·in/(h·ft²·°F) in ``us``.  Any other text
+    (a catalogue name) is returned unchanged.
+
+    Examples
+    --------
+    >>> material_in_si("k=0.25", "us")
+    'k=0.036057'
+    >>> material_in_si("k=0.036 W/mK", "us")
+    'k=0.036'
+    >>> material_in_si("mineral wool", "us")
+    'mineral wool'
+    """
+    text = str(text)
+    match = re.match(r"\s*k\s*=(.*)$", text, re.I | re.S)
+    if not match:
+        return text
+    value = parse_quantity(match.group(1), "conductivity", option, units,
+                           what="a constant conductivity")
+    return f"k={value:.6g}"
 
 
 def energy_unit_joules(name: str) -> float:

@@ -75,7 +75,7 @@ def test_cost_command_end_to_end(run):
 
 @pytest.mark.parametrize("args, line", [
     (["--hours", "9000h"], "Error: --hours: 9000 h is not allowed; operating hours must be between 0 and 8784 h per year"),
-    (["--efficiency", "1.2"], None),
+    (["--efficiency", "120%"], None),
     (["--discount-rate", "-100%"], None),
 ])
 def test_cost_bad_input(run, args, line):

@@ -10,13 +10,14 @@ import math
 import numpy as np
 import pint
 import pytest
-from hypothesis import given, settings
+from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 
 from pipeins.errors import InputError
 from pipeins.units import (
     DISPLAY_KINDS,
     KINDS,
+    RANGES,
     UNIT_SYSTEMS,
     Flow,
     energy_unit_joules,
@@ -288,7 +289,8 @@ def test_bare_number_reads_in_system_display_unit(text, kind, units, expected):
         pytest.param("50", 50.0, id="bare percent (project convention)"),
         pytest.param("50%", 50.0, id="percent sign (project convention)"),
         pytest.param("50 %", 50.0, id="percent sign spaced (project convention)"),
-        pytest.param("0.5", 0.5, id="0.5 is half a percent (project convention)"),
+        pytest.param("0.5 %", 0.5, id="0.5 % with the sign is half a percent (project convention)"),
+        pytest.param("1.5", 1.5, id="a bare value above 1 is percent (project convention)"),
     ],
 )
 def test_percent(text, expected):
@@ -479,7 +481,7 @@ def test_temperature_display_against_pint(value_c, system, expected):
 
 def test_every_display_kind_covered_and_parsable():
     assert set(DISPLAY_PINT) | {"temperature"} == set(DISPLAY_KINDS)
-    assert set(DISPLAY_KINDS) | {"flow"} == set(KINDS)
+    assert set(DISPLAY_KINDS) | {"flow", "steam_pressure", "efficiency"} == set(KINDS)
 
 
 def test_display_is_vectorised():
@@ -543,6 +545,8 @@ LINEAR_KINDS = [k for k in DISPLAY_KINDS if k not in ("temperature", "mass_flow"
 @given(x=POSITIVE, kind=st.sampled_from(LINEAR_KINDS), system=st.sampled_from(UNIT_SYSTEMS),
        labelled=st.booleans())
 def test_round_trip_parse_then_display(x, kind, system, labelled):
+    assume(abs(from_display(x, kind, system)) <= RANGES[kind][1])  # inside the physical range
+    assume(kind != "percent" or labelled or x > 1)  # a bare 0 < x <= 1 is refused (see below)
     text = f"{x!r} {unit_label(kind, system)}" if labelled else repr(x)
     value_si = parse_quantity(text, kind, units=system)
     assert to_display(value_si, kind, system) == pytest.approx(x, rel=1e-12)
@@ -589,3 +593,127 @@ def test_no_nan_sneaks_through():
         parse_quantity(math.nan, "length")
     with pytest.raises(InputError):
         parse_quantity("nan", "length")
+
+
+# --------------------------------------------------------------------------------------
+# The edge rules of percent, efficiency, steam pressure, ranges (exact lines)
+# --------------------------------------------------------------------------------------
+@pytest.mark.parametrize(
+    "text, kind, units, line",
+    [
+        pytest.param("0.8", "percent", "si",
+                     "--x: 0.8 is read as percent; did you mean 80 %? (write 0.8 % if you mean it)",
+                     id="bare fraction refused"),
+        pytest.param(0.05, "percent", "si",
+                     "--x: 0.05 is read as percent; did you mean 5 %? (write 0.05 % if you mean it)",
+                     id="bare float from a file refused"),
+        pytest.param("-0.5", "percent", "si",
+                     "--x: -0.5 is read as percent; did you mean -50 %? (write -0.5 % if you mean it)",
+                     id="negative fraction refused"),
+        pytest.param("10", "steam_pressure", "si",
+                     '--x: "10" needs a unit that says gauge or absolute; write e.g. 10 barg (gauge) or '
+                     "10 bara (absolute)", id="bare steam pressure"),
+        pytest.param("150psi", "steam_pressure", "us",
+                     '--x: "150psi" does not say gauge or absolute; write e.g. 150 psig (gauge) or '
+                     "150 psia (absolute)", id="psi steam pressure"),
+        pytest.param("10 atm", "steam_pressure", "si",
+                     '--x: cannot read "10 atm" as a steam pressure, which must say gauge or absolute; '
+                     "write e.g. 10 barg (gauge) or 10 bara (absolute)", id="atm steam pressure"),
+        pytest.param("150 %", "efficiency", "si",
+                     '--x: "150 %" is out of range; an efficiency is above 0 and at most 100 % '
+                     "(88 %, 88 and 0.88 all mean 88 %)", id="efficiency above 100 %"),
+        pytest.param("1e999m", "length", "si", '--x: "1e999m" is not a finite length', id="inf length"),
+        pytest.param(math.inf, "length", "si", '--x: "inf" is not a finite length', id="inf float"),
+        pytest.param("1000m", "thickness", "si",
+                     '--x: "1000m" is out of range; a thickness is at most 2,000 mm', id="1000 m layer"),
+        pytest.param("100ft", "thickness", "us",
+                     '--x: "100ft" is out of range; a thickness is at most 78.74 in', id="layer in us"),
+        pytest.param("1e999C", "temperature", "si", '--x: "1e999C" is not a finite temperature',
+                     id="inf temperature"),
+        pytest.param("3000C", "temperature", "si",
+                     '--x: "3000C" is out of range; a temperature is from -273.15 to 2,000 °C',
+                     id="temperature range"),
+        pytest.param("1" + "0" * 200, "length", "si",
+                     '--x: "' + "1" + "0" * 58 + '…" is out of range; a length is at most 1,000,000 m',
+                     id="200 digits"),
+        pytest.param(10**400, "length", "si",
+                     '--x: "' + "1" + "0" * 58 + '…" is not a finite length', id="huge integer from a file"),
+        pytest.param("1e6%", "percent", "si",
+                     '--x: "1e6%" is out of range; a percentage is at most 1,000 %', id="huge percentage"),
+    ],
+)
+def test_edge_rule_lines(text, kind, units, line):
+    with pytest.raises(InputError) as info:
+        parse_quantity(text, kind, "--x", units)
+    assert str(info.value) == line
+
+
+@pytest.mark.parametrize(
+    "text, expected",
+    [
+        pytest.param("10 barg", lambda: pint_si(10, "bar", "Pa") + ATM_PA, id="pint:barg"),
+        pytest.param("10 bara", lambda: pint_si(10, "bar", "Pa"), id="pint:bara"),
+        pytest.param("10 bar(g)", lambda: pint_si(10, "bar", "Pa") + ATM_PA, id="pint:bar(g)"),
+        pytest.param("10 bar (a)", lambda: pint_si(10, "bar", "Pa"), id="pint:bar (a)"),
+        pytest.param("10 bar gauge", lambda: pint_si(10, "bar", "Pa") + ATM_PA, id="pint:bar gauge"),
+        pytest.param("10 bar abs", lambda: pint_si(10, "bar", "Pa"), id="pint:bar abs"),
+        pytest.param("150 psig", lambda: pint_si(150, "psi", "Pa") + ATM_PA, id="pint:psig"),
+        pytest.param("150 PSIA", lambda: pint_si(150, "psi", "Pa"), id="pint:psia"),
+        pytest.param("1 MPa(a)", lambda: pint_si(1, "MPa", "Pa"), id="pint:MPa(a)"),
+        pytest.param("1 MPag", lambda: pint_si(1, "MPa", "Pa") + ATM_PA, id="pint:MPag"),
+        pytest.param("700 kPag", lambda: pint_si(700, "kPa", "Pa") + ATM_PA, id="pint:kPag"),
+        pytest.param("700 kPa(a)", lambda: pint_si(700, "kPa", "Pa"), id="pint:kPa(a)"),
+    ],
+)
+def test_steam_pressure_spellings_against_pint(text, expected):
+    assert parse_quantity(text, "steam_pressure") == pytest.approx(expected(), rel=1e-12)
+
+
+@pytest.mark.parametrize(
+    "text, expected",
+    [("88%", 0.88), ("88 %", 0.88), ("88", 0.88), ("0.88", 0.88), ("1", 1.0), ("100%", 1.0),
+     ("1.5", 0.015), (0.92, 0.92), (92, 0.92)],
+)
+def test_efficiency_rule(text, expected):  # project rule: bare above 1 is percent, at most 1 a fraction
+    assert parse_quantity(text, "efficiency") == pytest.approx(expected, rel=1e-12)
+
+
+def test_air_pressure_stays_absolute():
+    # an air pressure is absolute by nature: bar and kPa are accepted as they are
+    assert parse_quantity("95 kPa", "pressure") == 95_000.0
+    assert parse_quantity("1 bar", "pressure") == 100_000.0
+
+
+@pytest.mark.parametrize(
+    "text, units, number, unit",
+    [
+        pytest.param("k=0.25", "us", 0.25, "Btu_it*inch/(hour*ft**2*delta_degF)", id="pint:bare k in us"),
+        pytest.param("k=0.25Btu·in/(h·ft²·°F)", "si", 0.25, "Btu_it*inch/(hour*ft**2*delta_degF)",
+                     id="pint:Btu·in"),
+        pytest.param("k=0.25 Btu-in/hr-ft2-F", "si", 0.25, "Btu_it*inch/(hour*ft**2*delta_degF)",
+                     id="pint:Btu-in"),
+        pytest.param("k = 0.036W/mK", "us", 0.036, "W/(m*K)", id="pint:W/mK in us"),
+        pytest.param("k=0.04", "si", 0.04, "W/(m*K)", id="pint:bare k in si"),
+    ],
+)
+def test_material_k_against_pint(text, units, number, unit):
+    from pipeins.units import material_in_si
+
+    expected = Q_(number, unit).to("W/(m*K)").magnitude
+    out = material_in_si(text, units)
+    assert out.startswith("k=")
+    assert float(out[2:]) == pytest.approx(expected, rel=1e-5)  # six significant digits kept
+
+
+def test_material_names_pass_unchanged():
+    from pipeins.units import material_in_si
+
+    assert material_in_si("mineral wool", "us") == "mineral wool"
+
+
+def test_parse_quantity_narrower_range():
+    with pytest.raises(InputError) as info:
+        parse_quantity("1e9", "heat_transfer_coefficient", "--outer-h", low=0.1, high=1e4,
+                       what="a fixed outer coefficient")
+    assert str(info.value) == ('--outer-h: "1e9" is out of range; a fixed outer coefficient is from '
+                               "0.1 to 10,000 W/(m²·K)")

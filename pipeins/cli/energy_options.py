@@ -10,7 +10,7 @@ ENERGY_OPTIONS = [
     click.option("--hours", help="Operating hours per year (default 8760), e.g. 6000h."),
     click.option("--energy-price", help="Price of the energy bought, e.g. 0.09/kWh, 1.05/therm, 12/GJ."),
     click.option("--currency", default="", help="Currency shown with costs, e.g. EUR, USD."),
-    click.option("--efficiency", help="Heat source efficiency for heat losses, 0 to 1 (default 1)."),
+    click.option("--efficiency", help="Heat source efficiency for heat losses: 88%, 88 or 0.88 (default 100%)."),
     click.option("--cop", help="Chiller coefficient of performance for heat gains (chilled lines)."),
     click.option("--co2-factor", help="CO2 per unit of energy bought, kg, e.g. 0.20/kWh."),
     click.option("--discount-rate", help="Discount rate per year (default 5%)."),
@@ -49,21 +49,12 @@ def basis_from_options(opts: dict, units: str, need_price: bool = False):
     from ..annual import EnergyBasis, emission_from_text, price_from_text
     from ..economics import CostTable
     from ..errors import InputError
-    from ..units import parse_quantity
+    from ..units import parse_number, parse_quantity
 
     given = any(opts.get(k) for k in ("hours", "energy_price", "efficiency", "cop", "co2_factor",
                                       "discount_rate", "years", "escalation", "maintenance", "cost_table"))
     if not given and not need_price:
         return None
-
-    def number(name, what):
-        text = opts.get(name)
-        if text is None:
-            return None
-        try:
-            return float(text)
-        except ValueError:
-            raise InputError("--" + name.replace("_", "-"), f'cannot read "{text}" as {what}') from None
 
     def percent(name):
         text = opts.get(name)
@@ -77,9 +68,9 @@ def basis_from_options(opts: dict, units: str, need_price: bool = False):
     elif need_price:
         raise InputError("--energy-price", "the energy price is missing; use e.g. 0.09/kWh")
     if opts.get("efficiency"):
-        kw["efficiency"] = number("efficiency", "an efficiency between 0 and 1")
+        kw["efficiency"] = parse_quantity(opts["efficiency"], "efficiency", "--efficiency", units)
     if opts.get("cop"):
-        kw["cop"] = number("cop", "a coefficient of performance")
+        kw["cop"] = parse_number(opts["cop"], "--cop", "a coefficient of performance", 0.0, 100.0, low_open=True)
     if opts.get("co2_factor"):
         kw["emission"] = emission_from_text(opts["co2_factor"])
     for name, key in (("discount_rate", "discount_rate"), ("escalation", "escalation"),
@@ -88,9 +79,8 @@ def basis_from_options(opts: dict, units: str, need_price: bool = False):
         if value is not None:
             kw[key] = value
     if opts.get("years"):
-        kw["years"] = number("years", "a number of years")
-        if kw["years"] <= 0:
-            raise InputError("--years", "the evaluation life must be greater than zero years")
+        kw["years"] = parse_number(opts["years"], "--years", "an evaluation life in years", 0.0, 200.0,
+                                   low_open=True)
     if opts.get("cost_table"):
         kw["cost_table"] = CostTable.from_csv(opts["cost_table"])
     basis = EnergyBasis(**kw)

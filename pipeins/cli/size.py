@@ -38,6 +38,7 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     from ..reports.sizing import CRITERION_OPTIONS, size_report
     from ..runs import run_extras
     from ..selection import select
+    from ..units import material_in_si
 
     from ..inputs import Problems, collect
 
@@ -48,6 +49,7 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     if items:
         raise Problems(items)
     economic = basis if basis is not None and basis.cost_table is not None else None
+    material = material_in_si(material, units, "--material")
     selection = select(spec, material, req, parse_series(series, units), units, code=code, economic=economic,
                        code_paths=code_table)
     out = selection.outcome

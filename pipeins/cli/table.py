@@ -39,6 +39,7 @@ def table(fmt, units, output, sizes, matrix, material, series, code, code_table,
     from ..errors import InputError
     from ..reports.sizing import CRITERION_OPTIONS, matrix_report, table_report
     from ..selection import select
+    from ..units import material_in_si
 
     if opts.get("pipe") or opts.get("od") or opts.get("wall"):
         raise InputError("--sizes", "a table takes its pipes from --sizes, not --pipe/--od/--wall")
@@ -53,6 +54,7 @@ def table(fmt, units, output, sizes, matrix, material, series, code, code_table,
     if items:
         raise Problems(items)
     economic = basis if basis is not None and basis.cost_table is not None else None
+    material = material_in_si(material, units, "--material")
     selection = select(spec, material, req, parse_series(series, units), units, sizes=size_list, code=code,
                        economic=economic, code_paths=code_table)
     if matrix:
