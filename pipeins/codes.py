@@ -385,10 +385,9 @@ def _group(rows: list[RuleRow], where: str, known: dict[str, RuleSet]) -> dict[s
 
 
 def _read_csv_rows(path: Path) -> list[dict[str, str]]:
-    try:
-        text = Path(path).read_text(encoding="utf-8")
-    except OSError as exc:
-        raise InputError(_CODE_TABLE, f"cannot read {path}: {exc.strerror}") from None
+    from .fileio import read_text_input
+
+    text = read_text_input(path, _CODE_TABLE)
     return [dict(row) for row in csv_rows(text)]
 
 

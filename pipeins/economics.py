@@ -295,10 +295,9 @@ class CostTable:
         """Read a cost table; problems raise InputError("--cost-table", "<file> row N: …")."""
         path = Path(path)
         name = path.name
-        try:
-            text = path.read_text(encoding="utf-8")
-        except OSError as exc:
-            raise InputError("--cost-table", f"cannot read {path}: {exc.strerror}") from None
+        from .fileio import read_text_input
+
+        text = read_text_input(path, "--cost-table")
         reader = csv_rows(text)
         missing = [c for c in ("size", "thickness_mm", "cost_per_m") if c not in (reader.fieldnames or ())]
         if missing:

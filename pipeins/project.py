@@ -369,6 +369,9 @@ class _Reader:
         name = self.text_value(table, key, path, entry)
         if name is None:
             return None
+        if "\x00" in name:
+            self.problem(path, entry, key, "the file name contains a NUL byte")
+            return None
         full = (self.base / name).resolve()
         if not full.is_file():
             self.problem(path, entry, key, f'file "{name}" not found next to {self.file_name}')
@@ -434,8 +437,10 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
     anchors its relative paths.  Raises :class:`ProjectError` listing every problem."""
     import tomllib
 
+    from .fileio import load_toml
+
     try:
-        data = tomllib.loads(text)
+        data = load_toml(text, file_name)
     except tomllib.TOMLDecodeError as exc:
         message = str(exc)
         m = re.search(r"\(at line (\d+), column \d+\)", message)
@@ -472,6 +477,9 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
             r.problem(path, "project", "code_tables", 'code_tables must be a list of file names, e.g. ["rules.csv"]')
         else:
             for item in items:
+                if "\x00" in item:
+                    r.problem(path, "project", "code_tables", "the file name contains a NUL byte")
+                    continue
                 full = (r.base / item).resolve()
                 if full.is_file():
                     code_paths.append(full)
@@ -557,11 +565,10 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
 
 def load_project(path) -> Project:
     """Read and check the project file at *path* (see :func:`parse_project`)."""
+    from .fileio import read_text_input
+
+    text = read_text_input(path, "PROJECT")
     path = Path(path)
-    try:
-        text = path.read_text(encoding="utf-8")
-    except OSError as exc:
-        raise InputError("PROJECT", f"cannot read {path}: {exc.strerror}") from None
     return parse_project(text, path.name, path.parent)
 
 

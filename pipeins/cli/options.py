@@ -6,9 +6,6 @@ system chosen by ``--units``, which click may parse after the number itself.
 
 from __future__ import annotations
 
-import os
-import tempfile
-
 import click
 
 __all__ = ["line_options", "output_options", "spec_from_options", "emit", "parse_layer"]
@@ -91,27 +88,13 @@ def spec_from_options(opts: dict, units: str, items: list | None = None):
 
 
 def emit(report, fmt: str, units: str, output: str | None) -> None:
-    """Render *report* and print it, or write it whole to *output* (atomically)."""
+    """Render *report* and print it, or write it whole to *output* (``-`` is standard
+    output; see :func:`pipeins.fileio.write_text_output`)."""
+    from ..fileio import write_text_output
     from ..reports import render
 
     text = render(report, fmt, units)
-    if output is None:
+    if output is None or output == "-":
         click.echo(text, nl=False)
         return
-    from ..errors import InputError
-
-    folder = os.path.dirname(os.path.abspath(output))
-    try:
-        fd, tmp = tempfile.mkstemp(dir=folder, prefix=".pipeins-", suffix=".tmp")
-    except OSError as exc:
-        raise InputError("--output", f"cannot write {output}: {exc.strerror}") from None
-    try:
-        with os.fdopen(fd, "w", encoding="utf-8") as fh:
-            fh.write(text)
-        os.replace(tmp, output)
-    except BaseException as exc:
-        if os.path.exists(tmp):
-            os.unlink(tmp)
-        if isinstance(exc, OSError):
-            raise InputError("--output", f"cannot write {output}: {exc.strerror}") from None
-        raise
+    write_text_output(output, text, "--output")

@@ -2,45 +2,28 @@
 
 from __future__ import annotations
 
-import os
-import shutil
-import tempfile
-
 import click
 
 
 def write_csv_folder(report, units: str, folder: str) -> None:
-    """Write each table of *report* as its own CSV file into *folder*: all of them, or none
-    (written into a temporary folder beside it, then moved into place)."""
+    """Write each table of *report* as its own CSV file into *folder*, swapped in whole
+    (see :func:`pipeins.fileio.write_folder`)."""
     import csv
+    import io
 
-    from ..errors import InputError
+    from ..fileio import write_folder
     from ..reports import _cells
     from ..reports.schedule import CSV_NAMES
 
-    target = os.path.abspath(folder)
-    if os.path.exists(target) and not os.path.isdir(target):
-        raise InputError("--output", f'"{folder}" is a file; give a folder for the CSV files')
-    parent = os.path.dirname(target) or "."
-    if not os.path.isdir(parent):
-        raise InputError("--output", f'the folder "{parent}" does not exist')
-    tmp = tempfile.mkdtemp(dir=parent, prefix=".pipeins-")
-    try:
-        for name, table in zip(CSV_NAMES, report.tables):
-            heads, rows = _cells(table, units)
-            with open(os.path.join(tmp, name), "w", encoding="utf-8", newline="") as fh:
-                writer = csv.writer(fh, lineterminator="\n")
-                writer.writerow(heads)
-                writer.writerows(rows)
-        if not os.path.exists(target):
-            os.replace(tmp, target)
-            tmp = None
-        else:
-            for name in CSV_NAMES[: len(report.tables)]:
-                os.replace(os.path.join(tmp, name), os.path.join(target, name))
-    finally:
-        if tmp is not None and os.path.isdir(tmp):
-            shutil.rmtree(tmp, ignore_errors=True)
+    files = {}
+    for name, table in zip(CSV_NAMES, report.tables):
+        heads, rows = _cells(table, units)
+        buffer = io.StringIO()
+        writer = csv.writer(buffer, lineterminator="\n")
+        writer.writerow(heads)
+        writer.writerows(rows)
+        files[name] = buffer.getvalue()
+    write_folder(folder, files, "--output")
 
 
 @click.command()
