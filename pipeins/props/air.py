@@ -53,17 +53,20 @@ def air_properties(temp_c, pressure_pa=REFERENCE_PRESSURE_PA) -> AirProperties:
     >>> round(float(props.conductivity_w_mk), 4), round(float(props.prandtl), 3)
     (0.0259, 0.708)
     """
-    tab = _table()
     temp_c, pressure_pa = np.broadcast_arrays(np.asarray(temp_c, float), np.asarray(pressure_pa, float))
-    t = np.clip(temp_c, *TEMP_RANGE_C)
-
-    def at(name):
-        return np.asarray(np.interp(t, tab["temp_c"], tab[name]))
-
+    at = _grid()(np.clip(temp_c, *TEMP_RANGE_C))  # the table is on an even 2 K grid
     return AirProperties(
-        density_kg_m3=np.asarray(at("rho") * (pressure_pa / REFERENCE_PRESSURE_PA)),
-        viscosity_pa_s=at("mu"),
-        conductivity_w_mk=at("k"),
-        heat_capacity_j_kgk=at("cp"),
-        prandtl=at("pr"),
+        density_kg_m3=np.asarray(at["rho"] * (pressure_pa / REFERENCE_PRESSURE_PA)),
+        viscosity_pa_s=at["mu"],
+        conductivity_w_mk=at["k"],
+        heat_capacity_j_kgk=at["cp"],
+        prandtl=at["pr"],
     )
+
+
+@functools.cache
+def _grid():
+    from pipeins.props._shipped import UniformGrid
+
+    tab = _table()
+    return UniformGrid(tab["temp_c"], {k: v for k, v in tab.items() if k != "temp_c"})
