@@ -8,11 +8,24 @@ layer (each layer's temperature drop satisfies the Kirchhoff integral of k(T) ex
 gives the surface temperature back, and the marched value falls as q rises.  So
 G(Ts) = Ts − march(q_out(Ts)) rises with Ts, with slope at least 1, and changes sign
 between the lowest and the highest of the fluid, air and radiant temperatures: a bracket
-that always holds the root.  Inside it a vectorised secant step, replaced by bisection
-when it would leave the bracket or when the last two steps together failed to halve it
-(so the first step is a bisection), converges
-to a relative tolerance of 1e-9 on q in about a dozen iterations; the count is bounded
-and reported, and a case that does not converge raises :class:`SolverError`.
+that always holds the root.
+
+Inside it, a safeguarded Newton iteration (:func:`_newton_in_bracket`) starts from a
+linearised first guess and uses the derivative G' = 1 − march'(q)·q_out'(Ts): march'(q)
+and the radiation part of q_out' are analytic, the convection part
+d[h_c·(Ts − Ta)]/dTs takes h_c at the iterate and its slope from the last two iterates
+(a power-law estimate on the first step).  A step that leaves the bracket, or two steps
+that together fail to halve |G|, are replaced by bisection, so every case converges.
+Only the cases not yet converged are carried into the next iteration.
+
+A case stops when the heat flow is known to ``rtol`` relative, or when the surface
+temperature is known to within what floating point can resolve (a few ulps of the
+temperatures involved): since G' ≥ 1 the root lies within |G|/G' of the iterate, and
+q within q_out'·|G|/G'.  The second test is what ends cases with a tiny heat flow or a
+large A·h·R, where q cannot be resolved relatively.  Fluid, air and radiant temperatures
+within :data:`NO_FLOW_SPAN_K` of each other are the no-flow case, answered exactly
+(q = 0, every temperature the fluid's).  The iteration count is bounded and reported; a
+case that still does not converge raises :class:`SolverError` (a bug, never bad input).
 """
 from __future__ import annotations
 
@@ -21,14 +34,24 @@ from typing import Sequence
 
 import numpy as np
 
+from .errors import InputError
 from .model import FlatWall, Layer, Pipe, Surface, Surroundings, Fluid
 from .physics import conduction, outer, radiation
 from .results import Result
 
-__all__ = ["solve", "SolverError"]
+__all__ = ["solve", "SolverError", "RELATIVE_TOLERANCE", "MAX_ITERATIONS", "NO_FLOW_SPAN_K"]
 
-RELATIVE_TOLERANCE = 1e-9
+#: Relative tolerance on the heat flow of each case.
+RELATIVE_TOLERANCE = 1e-11
+#: Bound on the iterations of one call (every case converges in far fewer; see _newton_in_bracket).
 MAX_ITERATIONS = 200
+#: Fluid, air and radiant temperatures closer than this [K] are the exact no-flow case.
+NO_FLOW_SPAN_K = 1e-9
+# Surface-temperature resolution, in units of the largest temperature magnitude [°C] + 1 K.
+_RESOLUTION_ULPS = 16 * np.finfo(float).eps
+# Fraction of h_c taken as d[h_c]/dTs·(Ts − Ta) on the first step (laminar natural
+# convection, Nu ∝ Ra^(1/4)); later steps use the secant slope of h_c.
+_FIRST_CONVECTION_EXPONENT = 0.25
 
 
 class SolverError(RuntimeError):
@@ -43,6 +66,8 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
     Every numeric input broadcasts against every other; the result's arrays have the
     broadcast shape.  See the module docstring for the method.  *touch_limit_c*, optional, is a
     surface-temperature limit the result compares against (``over_touch_limit``).
+    ``residual_w_per_m`` of the result is the largest |q − q_out(Ts)| at the reported
+    surface temperature, by the linearisation q_out'·|G|.
 
     >>> from pipeins.catalog.materials import lookup_material
     >>> r = solve(Pipe(0.0603, 0.0039), [Layer(lookup_material("k=0.040"), 0.040)],
@@ -50,6 +75,11 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
     >>> round(float(r.heat_flow_w_per_m), 1), round(float(r.surface_temp_c), 1)
     (16.5, 24.6)
     """
+    with np.errstate(all="ignore"):  # every result is checked finite below; no warning leaks
+        return _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_iterations)
+
+
+def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_iterations):
     flat = isinstance(pipe, FlatWall)
     radiant_c = surroundings.radiant_temp_c
     fixed_h = surface.fixed_coefficient_w_m2k
@@ -95,6 +125,8 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
         layer_s = [conduction.cylinder_shape_m(radii[j + 1], radii[j + 2]) for j in range(len(layers))]
         area = 2 * math.pi * radii[-1]
         char_len = 2 * radii[-1]
+    wall_r = wall_s / c["kw"]
+    _check_network(film_r, wall_r, layer_s, area, layers)
 
     if flat:
         geometry, orientation, height = "flat", pipe.face, c["length"]
@@ -102,34 +134,22 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
         geometry, orientation = "cylinder", surroundings.orientation
         height = c["length"] if orientation == "vertical" else None
 
-    def march(q):
-        temps = [c["fluid"] - q * film_r]
-        temps.append(temps[-1] - q * wall_s / c["kw"])
-        for fit, s in zip(fits, layer_s):
-            temps.append(fit.temperature(fit.potential(temps[-1]) - q * s))
-        return temps
+    network = _Network(fits, film_r, wall_r, layer_s)
+    cases = {"fluid": c["fluid"], "air": c["air"], "rad": c["rad"], "wind": c["wind"], "p": c["p"],
+             "eps": c["eps"], "hfix": c["hfix"], "area": area, "len": char_len, **network.columns}
+    if height is not None:
+        cases["height"] = np.broadcast_to(height, (n,))
+    outer_side = _OuterSide(fixed_h is not None, geometry, orientation, height is not None)
+    cases.update(outer_side.columns(cases))
 
-    def outer_side(ts):
-        if fixed_h is not None:
-            h_c, h_r = c["hfix"], np.zeros(n)
-        else:
-            h_c = outer.outer_convection_coefficient(ts, c["air"], char_len, c["wind"], orientation,
-                                                     height, c["p"], geometry)
-            h_r = radiation.radiation_coefficient_w_m2k(ts, c["rad"], c["eps"])
-        q = area * (h_c * (ts - c["air"]) + h_r * (ts - c["rad"]))
-        return q, h_c, h_r
-
-    t_min = np.minimum(np.minimum(c["fluid"], c["air"]), c["rad"])
-    t_max = np.maximum(np.maximum(c["fluid"], c["air"]), c["rad"])
-    q, ts, iterations = _bracketed_root(lambda t: outer_side(t)[0], lambda q: march(q)[-1],
-                                        t_min, t_max, rtol, max_iterations)
-    temps = march(q)
+    q, x, h_c, h_r, q_slope, iterations = _newton_in_bracket(cases, network, outer_side, rtol, max_iterations)
+    no_flow = _no_flow(c)
+    q = np.where(no_flow, 0.0, q)
+    temps = network.temperatures(q, c["fluid"])
     ts = temps[-1]
-    q_out, h_c, h_r = outer_side(np.clip(ts, t_min, t_max))
-    if fixed_h is not None:
-        h_r = np.zeros(n)
-    if not np.all(np.isfinite(q)) or not np.all(np.isfinite(ts)):
+    if not (np.all(np.isfinite(q)) and np.all(np.isfinite(ts)) and np.all(np.isfinite(h_c + h_r))):
         raise SolverError("heat flow is not finite: report this case as a bug")
+    residual = np.where(no_flow, 0.0, q_slope * np.abs(x - ts))
 
     def shaped(x):
         return np.asarray(x).reshape(shape)
@@ -150,7 +170,7 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
         h_conv_w_m2k=shaped(h_c),
         h_rad_w_m2k=shaped(h_r),
         outer_diameter_m=None if flat else shaped(2 * radii[-1]),
-        residual_w_per_m=float(np.max(np.abs(q - q_out))) if n else 0.0,
+        residual_w_per_m=float(np.max(residual)) if n else 0.0,
         iterations=iterations,
         dew_point_c=dew_point,
         touch_limit_c=touch_limit_c,
@@ -161,52 +181,251 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
     )
 
 
-def _bracketed_root(q_out, march_surface, t_min, t_max, rtol, max_iterations):
+def _check_network(film_r, wall_r, layer_s, area, layers):
+    """Refuse resistances that floating point cannot carry (a film coefficient near 0,
+    a wall conductivity near 0, a layer so thick its factor overflows)."""
+    if not np.all(np.isfinite(film_r)):
+        raise InputError("--inner-h", "inner film coefficient too small to compute with")
+    if not np.all(np.isfinite(wall_r)):
+        raise InputError("--pipe-material", "wall conductivity too small to compute with")
+    for layer, s in zip(layers, layer_s):
+        if not np.all(np.isfinite(s)):
+            raise InputError("--layer", f"thickness of {layer.material.name} cannot be computed with")
+    if not np.all(np.isfinite(area)):
+        raise InputError("--layer", "total thickness too large to compute with")
+
+
+def _no_flow(c):
+    t_min = np.minimum(np.minimum(c["fluid"], c["air"]), c["rad"])
+    t_max = np.maximum(np.maximum(c["fluid"], c["air"]), c["rad"])
+    return t_max - t_min < NO_FLOW_SPAN_K
+
+
+class _Network:
+    """The conduction side: inner film, wall and layers, as steps of a march from the fluid.
+
+    Constant resistances (film, wall, constant-k layers) that follow each other are
+    merged for the iteration, which needs only the surface temperature and its
+    derivative; :meth:`temperatures` marches every interface for the result.  Per-case
+    arrays live in :attr:`columns` (a flat case axis, so that the solver can take any
+    subset of cases).
+    """
+
+    def __init__(self, fits, film_r, wall_r, layer_s):
+        self.fits = fits
+        self.columns = {"film_r": film_r, "wall_r": wall_r}
+        for j, s in enumerate(layer_s):
+            self.columns[f"s{j}"] = s
+        # Iteration plan: a resistance before the first k(T) layer, then per k(T) layer
+        # its factor and the merged constant resistance after it.
+        self.varying = [j for j, fit in enumerate(fits) if not fit.is_constant]
+        run = film_r + wall_r
+        after = []
+        for j, (fit, s) in enumerate(zip(fits, layer_s)):
+            if fit.is_constant:
+                run = run + s / fit.coefficients[0]
+            else:
+                after.append(run)
+                run = np.zeros_like(film_r)
+        after.append(run)
+        self.columns["r_pre"] = after[0]
+        for i, r in enumerate(after[1:]):
+            self.columns[f"r_post{i}"] = r
+
+    def surface(self, cases, q):
+        """Marched surface temperature [°C] and its derivative d Ts/d q [K per W/m] (≤ 0)."""
+        t = cases["fluid"] - q * cases["r_pre"]
+        dt = -cases["r_pre"]
+        for i, j in enumerate(self.varying):
+            fit, s = self.fits[j], cases[f"s{j}"]
+            theta, k_in = fit.potential_and_conductivity(t)
+            t = fit.temperature(theta - q * s)
+            k_out = fit.conductivity(t)
+            r_post = cases[f"r_post{i}"]
+            dt = (k_in * dt - s) / k_out - r_post
+            t = t - q * r_post
+        return t, dt
+
+    def temperatures(self, q, fluid):
+        """Every interface temperature [°C]: bore, pipe outside, each layer's outer face."""
+        c = self.columns
+        temps = [fluid - q * c["film_r"]]
+        temps.append(temps[-1] - q * c["wall_r"])
+        for j, fit in enumerate(self.fits):
+            temps.append(fit.temperature(fit.potential(temps[-1]) - q * c[f"s{j}"]))
+        return temps
+
+
+class _OuterSide:
+    """The outer side: q_out(Ts) with its film coefficients, and dq_out/dTs.
+
+    Radiation is evaluated here with the formula of
+    :func:`pipeins.physics.radiation.radiation_coefficient_w_m2k` (same operations, so the
+    same values), without re-checking its inputs on every iteration.
+    """
+
+    def __init__(self, fixed, geometry, orientation, vertical):
+        self.fixed, self.geometry, self.orientation, self.vertical = fixed, geometry, orientation, vertical
+
+    def columns(self, c):
+        """Per-case constants of the outer side (added to the solver's case arrays)."""
+        return {"rad_k": c["rad"] - radiation.ABSOLUTE_ZERO_C,
+                "eps_sigma": c["eps"] * radiation.STEFAN_BOLTZMANN}
+
+    def __call__(self, cases, ts):
+        """(q_out, h_c, h_r, dq_out/dTs without the convection-slope term)."""
+        air, rad, area = cases["air"], cases["rad"], cases["area"]
+        if self.fixed:
+            h_c = cases["hfix"]
+            h_r = np.zeros_like(h_c)
+            return area * (h_c * (ts - air) + h_r * (ts - rad)), h_c, h_r, area * h_c
+        h_c = outer.outer_convection_coefficient(ts, air, cases["len"], cases["wind"], self.orientation,
+                                                 cases["height"] if self.vertical else None, cases["p"],
+                                                 self.geometry)
+        ts_k, rad_k, eps_sigma = ts - radiation.ABSOLUTE_ZERO_C, cases["rad_k"], cases["eps_sigma"]
+        h_r = eps_sigma * (ts_k + rad_k) * (ts_k**2 + rad_k**2)
+        q = area * (h_c * (ts - air) + h_r * (ts - rad))
+        return q, h_c, h_r, area * (h_c + 4.0 * eps_sigma * (ts_k * ts_k * ts_k))
+
+    def first_guess(self, cases, network):
+        """Linearised surface temperature and the first step's (Ts − Ta)·dh_c/dTs.
+
+        The conduction side is a fixed resistance (k at the mean of the fluid and the
+        surface), the outer side a fixed film: radiation exact at the guess, convection
+        from the simplified air correlations h_N = C·(ΔT/L)^(1/4) (C = 1.32 on a horizontal
+        cylinder, 1.42 otherwise) and h_F = 4.1·V^0.618/D^0.382 across a cylinder or
+        3.84·(V/L)^0.5 along a face, combined as (h_F³ + h_N³)^(1/3) (common practice for
+        air near room temperature, from memory; only a starting point: the iteration uses
+        the real correlations).  Three fixed-point passes from h_c = 4 W/(m²·K).
+        """
+        fluid, air, rad, area = cases["fluid"], cases["air"], cases["rad"], cases["area"]
+        if self.fixed:
+            h_c = cases["hfix"]
+        else:
+            h_c = np.full(fluid.shape, 4.0)
+            wind, length = cases["wind"], cases["len"]
+            natural_len = cases["height"] if self.vertical else length
+            c_nat = 1.32 if (self.geometry == "cylinder" and not self.vertical) else 1.42
+            if self.geometry == "cylinder":
+                h_f = 4.1 * wind**0.618 / length**0.382
+            else:
+                h_f = 3.84 * np.sqrt(wind / length)
+            h_f3 = h_f**3
+        x = 0.5 * (fluid + air)
+        for _ in range(3):
+            r_in = cases["film_r"] + cases["wall_r"]
+            mean = 0.5 * (fluid + x)
+            for j, fit in enumerate(network.fits):
+                r_in = r_in + cases[f"s{j}"] / fit.conductivity(mean)
+            if self.fixed:
+                h_r = 0.0
+            else:
+                x_k, rad_k = x - radiation.ABSOLUTE_ZERO_C, cases["rad_k"]
+                h_r = cases["eps_sigma"] * (x_k + rad_k) * (x_k**2 + rad_k**2)
+            h = h_c + h_r
+            ambient = (h_c * air + h_r * rad) / h
+            r_out = 1.0 / (area * h)
+            x = ambient + (fluid - ambient) * (r_out / (r_in + r_out))
+            if not self.fixed:
+                h_n = c_nat * np.sqrt(np.sqrt(np.abs(x - air) / natural_len))
+                h_n3 = h_n**3
+                h_c = np.cbrt(h_f3 + h_n3)
+        if self.fixed:
+            return x, np.zeros(fluid.shape)
+        return x, _FIRST_CONVECTION_EXPONENT * h_n3 / np.where(h_c > 0, h_f3 + h_n3, 1.0)
+
+
+def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
     """Surface temperature Ts in [t_min, t_max] with G(Ts) = Ts − march(q_out(Ts)) = 0.
 
     G rises with Ts (q_out rises with Ts; the marched surface falls with q), and
-    G(t_min) <= 0 <= G(t_max), so [t_min, t_max] brackets the root.  Each step is a
-    secant step through the last two iterates, replaced by bisection when it would leave
-    the bracket or when the last two steps together failed to halve it (a safeguarded secant
-    method, cf. Brent, *Algorithms for Minimization without Derivatives*, 1973, ch. 4).
-    Since G' >= 1 the root lies within |G(x)| of any x; the iteration stops when that
-    bound, carried into the heat flow, or the bracket on the heat flow itself is below
-    *rtol* relative.  Returns (q, Ts, iterations).
+    G(t_min) <= 0 <= G(t_max), so [t_min, t_max] brackets the root; every evaluated
+    iterate narrows it by the sign of G.  Each step is Newton's, x − G/G', from a
+    linearised first guess; it is replaced by bisection when it would leave the bracket
+    or is not finite, or when |G| has not halved over the last two steps (a safeguarded
+    Newton method, cf. Brent, *Algorithms for Minimization without Derivatives*, 1973,
+    ch. 4).  So each case either halves |G| (and |x − root| ≤ |G|) or halves its bracket
+    at least every other step, and reaches the stop test (module docstring) within about
+    2·(52 + 52) steps at worst; most cases take 3 to 5.
+
+    Returns (q, Ts, h_c, h_r, dq_out/dTs, iterations), each case at its last evaluated
+    iterate.
     """
-    a, b = t_min.copy(), t_max.copy()
-    qa, qb = q_out(a), q_out(b)
-    ga, gb = a - march_surface(qa), b - march_surface(qb)
-    x0, g0, x1, g1 = a, ga, b, gb
-    x, qx = 0.5 * (a + b), 0.5 * (qa + qb)
-    done = np.abs(qb - qa) <= rtol * np.maximum(np.abs(qa), np.abs(qb)) + 1e-12
-    history = [b - a] * 3
+    n = cases["fluid"].size
+    fluid, air, rad = cases["fluid"], cases["air"], cases["rad"]
+    t_min = np.minimum(np.minimum(fluid, air), rad)
+    t_max = np.maximum(np.maximum(fluid, air), rad)
+    out = {k: np.zeros(n) for k in ("q", "x", "h_c", "h_r", "slope")}
+    if n == 0:
+        return out["q"], out["x"], out["h_c"], out["h_r"], out["slope"], 0
+
+    guess, first_exponent = outer_side.first_guess(cases, network)
+    guess = np.clip(guess, t_min, t_max)
+    scale = np.maximum(np.abs(t_min), np.abs(t_max)) + 1.0
+    # Iteration state of the cases still carried (idx maps them into the full arrays);
+    # "live" marks those not yet converged.  Converged cases are dropped from the arrays
+    # only once they are half of them, since gathering costs about as much as computing.
+    state = {
+        "a": t_min, "b": t_max, "res": _RESOLUTION_ULPS * scale, "secant_dx": 1e-7 * scale,
+        "x": np.where(np.isfinite(guess), guess, 0.5 * (t_min + t_max)),
+        "x_prev": np.zeros(n), "hc_prev": np.zeros(n), "conv": np.zeros(n),
+        "g_old": np.full(n, np.inf), "g_last": np.full(n, np.inf), "size_prev": np.ones(n),
+        "live": np.ones(n, dtype=bool),
+    }
+    idx, work = np.arange(n), cases
     iterations = 0
-    while not np.all(done):
+    while True:
         if iterations >= max_iterations:
             raise SolverError(f"heat flow not converged in {max_iterations} iterations "
-                              f"({np.count_nonzero(~done)} of {done.size} cases)")
+                              f"({np.count_nonzero(state['live'])} of {n} cases)")
         iterations += 1
-        with np.errstate(divide="ignore", invalid="ignore"):
-            x_new = x1 - g1 * (x1 - x0) / (g1 - g0)
-        bisect = (b - a > 0.5 * history[0]) | ~np.isfinite(x_new) | (x_new <= a) | (x_new >= b)
-        x_new = np.where(bisect, 0.5 * (a + b), x_new)
-        q_new = q_out(x_new)
-        g_new = x_new - march_surface(q_new)
-        x, qx = np.where(done, x, x_new), np.where(done, qx, q_new)
-        right, left = g_new > 0, g_new < 0
-        b, gb, qb = np.where(right, x_new, b), np.where(right, g_new, gb), np.where(right, q_new, qb)
-        a, ga, qa = np.where(left, x_new, a), np.where(left, g_new, ga), np.where(left, q_new, qa)
-        x0, g0, x1, g1 = x1, g1, x_new, g_new
-        history = history[1:] + [b - a]
-        # G' >= 1, so the root lies within |g_new| of x_new, and q within about
-        # q_out' * |g_new| of q_new (q_out' estimated, with a factor 2, by the bracket's
-        # secant slope).
-        with np.errstate(divide="ignore", invalid="ignore"):
-            slope = np.where(b > a, (qb - qa) / (b - a), 0.0)
-        tol = rtol * np.abs(q_new) + 1e-12
-        done = (done | (2 * slope * np.abs(g_new) <= tol)
-                | (np.abs(qb - qa) <= rtol * np.maximum(np.abs(qa), np.abs(qb)) + 1e-12))
-    return qx, x, iterations
+        st = state
+        x, a, b, res = st["x"], st["a"], st["b"], st["res"]
+        q, h_c, h_r, q_slope = outer_side(work, x)
+        ts, dts_dq = network.surface(work, q)
+        g = x - ts
+        conv = st["conv"]
+        if not outer_side.fixed:
+            # Convection part of q_out': (Ts − Ta)·dh_c/dTs, by the secant of h_c over the
+            # last two iterates (the previous value where they are too close).
+            if iterations == 1:
+                conv = first_exponent * h_c
+            else:
+                dx = x - st["x_prev"]
+                conv = np.where(np.abs(dx) > st["secant_dx"], (x - work["air"]) * (h_c - st["hc_prev"]) / dx, conv)
+                conv = np.maximum(conv, -0.5 * h_c)
+            q_slope = q_slope + work["area"] * conv
+        g_slope = 1.0 - dts_dq * q_slope  # >= 1
+        step = g / g_slope  # the Newton step is −step; the root lies within |step| of x
+        size = np.abs(step)
+        a = np.where(g < 0, x, a)
+        b = np.where(g > 0, x, b)
+        x_new = x - step
+        inside = (x_new > a) & (x_new < b)
+        # Error left after the step: |step| times the last contraction ratio (at most 1).
+        after = size * np.minimum(1.0, size / st["size_prev"]) if iterations > 1 else size
+        done = ((inside & ((q_slope * after <= rtol * np.abs(q)) | (after <= res)))
+                | (size <= res) | (b - a <= res)) & st["live"]
+        if np.any(done):
+            at = idx[done]
+            take = inside[done]
+            out["q"][at] = np.where(take, q[done] - q_slope[done] * step[done], q[done])
+            out["x"][at] = np.where(take, x_new[done], x[done])
+            for name, value in (("h_c", h_c), ("h_r", h_r), ("slope", q_slope)):
+                out[name][at] = value[done]
+        live = st["live"] & ~done
+        remaining = np.count_nonzero(live)
+        if remaining == 0:
+            break
+        newton = inside & (np.abs(g) <= 0.5 * st["g_old"])
+        state = {"a": a, "b": b, "res": res, "secant_dx": st["secant_dx"],
+                 "x": np.where(newton, x_new, 0.5 * (a + b)), "x_prev": x, "hc_prev": h_c, "conv": conv,
+                 "g_old": st["g_last"], "g_last": np.abs(g), "size_prev": size, "live": live}
+        if remaining <= live.size // 2:
+            idx = idx[live]
+            work = {k: v[idx] for k, v in cases.items()}
+            state = {k: v[live] for k, v in state.items()}
+    return out["q"], out["x"], out["h_c"], out["h_r"], out["slope"], iterations
 
 
 def _span(values) -> str:
