@@ -276,6 +276,12 @@ def clean_stale(folder: str) -> None:
             pass
 
 
+def _no_folder(folder: str) -> str:
+    if os.path.lexists(folder):
+        return f"{_shown(folder)} is not a folder"
+    return f"the folder {_shown(folder)} does not exist"
+
+
 def _fsync_folder(folder: str) -> None:
     try:
         fd = os.open(folder, os.O_RDONLY)
@@ -355,7 +361,7 @@ def write_text_output(path, text: str, what: str = "--output") -> None:
         raise InputError(what, f"cannot write {shown}: the file name contains a NUL byte")
     try:
         st = os.stat(path)
-    except FileNotFoundError:
+    except (FileNotFoundError, NotADirectoryError):
         st = None
     except OSError as exc:
         raise InputError(what, f"cannot write {shown}: {_reason(exc)}") from None
@@ -406,7 +412,7 @@ def _atomic_file(real: str, data: bytes, mode: int | None, what: str, shown: str
     folder, name = os.path.split(real)
     folder = folder or "."
     if not os.path.isdir(folder):
-        raise InputError(what, f"cannot write {shown}: the folder {_shown(folder)} does not exist")
+        raise InputError(what, f"cannot write {shown}: {_no_folder(folder)}")
     clean_stale(folder)
     tmp = os.path.join(folder, _temp_name(name))
     fd = None
@@ -502,7 +508,7 @@ def write_folder(path, files: dict[str, str], what: str = "--output") -> None:
     if os.path.lexists(target) and not os.path.isdir(target):
         raise InputError(what, f"{shown} is a file, not a folder; give a folder for the CSV files")
     if not os.path.isdir(parent):
-        raise InputError(what, f"cannot write {shown}: the folder {_shown(parent)} does not exist")
+        raise InputError(what, f"cannot write {shown}: {_no_folder(parent)}")
     for file_name in files:
         if os.sep in file_name or file_name in ("", ".", ".."):
             raise ValueError(f"not a plain file name: {file_name!r}")

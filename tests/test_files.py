@@ -605,3 +605,16 @@ def test_input_from_a_pipe(tmp_path):
     writer.start()
     assert fileio.read_text_input(fifo, "--cost-table") == "size\n"
     writer.join(10)
+
+
+def test_output_folder_and_name_clash_one_line_via_the_cli(run, tmp_path):
+    assert run(*CHECK, "-o", str(tmp_path)) == (
+        2, "", f"Error: --output: {tmp_path} is a folder, not a file; give a file path or - for standard output\n")
+    a_file = tmp_path / "plain"
+    a_file.write_text("mine\n")
+    assert run(*CHECK, "-o", f"{a_file}/report.txt") == (
+        2, "", f"Error: --output: cannot write {a_file}/report.txt: {a_file} is not a folder\n")
+    with pytest.raises(InputError) as info:
+        fileio.write_folder(f"{a_file}/csv", CSV)
+    assert str(info.value) == f"--output: cannot write {a_file}/csv: {a_file} is not a folder"
+    assert a_file.read_text() == "mine\n"

@@ -53,8 +53,8 @@ def line_options(func):
 
 
 def output_options(func):
-    func = click.option("--output", "-o", type=click.Path(dir_okay=False, writable=True),
-                        help="Write to this file (written whole, or not at all).")(func)
+    func = click.option("--output", "-o", type=click.Path(),
+                        help="Write to this file (written whole, or not at all; - for standard output).")(func)
     func = click.option("--units", type=click.Choice(["si", "us"]), default="si", show_default=True,
                         help="Default units of bare numbers and units shown.")(func)
     func = click.option("--format", "fmt", default="text", show_default=True,
