@@ -369,6 +369,27 @@ _DEFAULT_DIGITS = {
 }
 
 
+# Outside diameters of NPS 1/8 to 12 in inches, as the inch tables print them (ASME B36.10M,
+# B36.19M and the IPS sizes of ASTM D1785 share them); the steel catalogue holds the mm column,
+# rounded to 0.1 mm, so 60.3 mm reads 2.374 in where the table says 2.375.  From NPS 14 up the
+# outside diameter is the NPS itself, and the mm column is rounded to whole millimetres
+# (457 mm for 18 in).  format_quantity shows a diameter within that rounding of one of these
+# (0.06 mm up to NPS 12, 0.5 mm above) as the inch value.
+_IPS_OD_IN = (0.405, 0.540, 0.675, 0.840, 1.050, 1.315, 1.660, 1.900, 2.375, 2.875, 3.500, 4.000,
+              4.500, 5.563, 6.625, 8.625, 10.750, 12.750)
+
+
+def _inch_table_value(diameter_m: float) -> float | None:
+    """The inch-table outside diameter [in] that *diameter_m* [m] rounds from, or None."""
+    for od_in in _IPS_OD_IN:
+        if abs(diameter_m - od_in * _INCH_M) <= 0.06e-3:
+            return od_in
+    inches = diameter_m / _INCH_M
+    if 13.5 < inches < 80.5 and round(inches) % 2 == 0 and abs(diameter_m - round(inches) * _INCH_M) <= 0.5e-3:
+        return float(round(inches))  # NPS 14 and up, even sizes: OD = NPS
+    return None
+
+
 @dataclass(frozen=True)
 class Flow:
     """A flow read from text: ``value_si`` in kg/s (``basis="mass"``) or m³/s (``"volume"``)."""
@@ -1102,7 +1123,11 @@ def format_quantity(value_si, kind: str, units: str = "si", digits: int | None =
         Unit system.
     digits : int, optional
         Decimal places; default depends on kind and system (e.g. 0 for mm, 2 for inches,
-        1 for temperatures).
+        1 for temperatures).  A thickness in inches is shown with one decimal more than
+        asked and never fewer than two (an inch is 25.4 mm: 1.0 in would hide a pick
+        between 1 and 1.5 in).  An outside diameter in inches that the inch tables list
+        (NPS 1/8 to 12) is shown as they print it: NPS 2 is 2.375 in, not the 2.374 in
+        its rounded 60.3 mm converts to.
 
     Returns
     -------
@@ -1117,15 +1142,26 @@ def format_quantity(value_si, kind: str, units: str = "si", digits: int | None =
     '2.00 in'
     >>> format_quantity([20.0, 100.0], "temperature", "us", digits=0)
     ['68 °F', '212 °F']
+    >>> format_quantity(0.0603, "diameter", "us"), format_quantity(0.0254, "thickness", "us", 1)
+    ('2.375 in', '1.00 in')
     """
     import numpy as np  # imported here: keeps "pipeins --help" fast
 
-    shown = to_display(value_si, kind, units)
     system = _check_system(units)
+    shown = to_display(value_si, kind, system)
     places = _DEFAULT_DIGITS[(kind, system)] if digits is None else int(digits)
+    if kind == "thickness" and system == "us" and digits is not None:
+        places = max(2, places + 1)
     label = unit_label(kind, system)
+    if kind == "diameter" and system == "us":
+        snapped = [_inch_table_value(float(v)) for v in np.ravel(value_si)]
+        shown = np.where([x is not None for x in snapped],
+                         [x if x is not None else 0.0 for x in snapped], np.ravel(shown))
+        shown = float(shown[0]) if np.ndim(value_si) == 0 else shown
 
     def one(v):
+        if not math.isfinite(v):
+            return "–"  # never "nan" or "inf" in a report
         text = f"{v:.{places}f}"
         if text.startswith("-") and float(text) == 0.0:
             text = text[1:]  # no "-0.0"

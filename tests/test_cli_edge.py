@@ -264,3 +264,19 @@ def test_project_steam_pressure_needs_gauge_or_absolute():
 def test_project_k_in_us_units():
     material = project(units="us", material="k=0.25").services["hot"].material
     assert float(material.split("=")[1]) == pytest.approx(K_SI, rel=1e-5)  # pint, six digits kept
+
+
+# --------------------------------------------------------------------------------------
+# US spellings and trade words reach the catalogues; inch display
+# --------------------------------------------------------------------------------------
+def test_us_spellings_on_the_command_line(run):
+    a = json_of(run, *HOT[:-2], "--layer", "fiberglass:2in", "--finish", "aluminum, oxidized")
+    b = json_of(run, *HOT[:-2], "--layer", "glass wool:2in", "--finish", "aluminium, weathered")
+    assert a == b
+
+
+def test_inch_outside_diameter_in_check_text(run):
+    code, out, err = run("check", "--pipe", "NPS 2", "--fluid-temp", "300F", "--layer", "k=0.25:1in",
+                         "--units", "us")
+    assert code == 0, err
+    assert "2.375" in out and "2.374" not in out

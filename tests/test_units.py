@@ -717,3 +717,78 @@ def test_parse_quantity_narrower_range():
                        what="a fixed outer coefficient")
     assert str(info.value) == ('--outer-h: "1e9" is out of range; a fixed outer coefficient is from '
                                "0.1 to 10,000 W/(m²·K)")
+
+
+# --------------------------------------------------------------------------------------
+# Display precision: inch tables, inch thicknesses; aliases
+# --------------------------------------------------------------------------------------
+def test_inch_outside_diameters_as_the_inch_tables_print_them():
+    # fluids.piping NPS_D1785/S40o_D1785 hold the IPS outside diameters of ASTM D1785 [mm],
+    # converted exactly from the inch values ASME B36.10M prints; our steel table holds
+    # B36.10M's mm column (60.3 for NPS 2), which must still show as the inch value.
+    from fractions import Fraction
+
+    import fluids.piping
+
+    from pipeins.catalog.pipes import lookup_pipe
+
+    checked = 0
+    for nps, od_mm in zip(fluids.piping.NPS_D1785, fluids.piping.S40o_D1785):
+        whole, part = divmod(Fraction(nps).limit_denominator(8), 1)
+        label = "NPS " + ("-".join(x for x in (str(whole) if whole else "", str(part) if part else "") if x))
+        expected = f"{od_mm / 25.4:.3f} in"
+        assert format_quantity(lookup_pipe(label).outer_diameter_m, "diameter", "us") == expected, label
+        checked += 1
+    assert checked >= 18
+    assert format_quantity(lookup_pipe("NPS 2").outer_diameter_m, "diameter", "us") == "2.375 in"
+
+
+@pytest.mark.parametrize("value_m, digits, text", [
+    (0.0254, 1, "1.00 in"), (0.0381, 1, "1.50 in"), (0.0254, None, "1.00 in"), (0.02546, 2, "1.002 in"),
+    (0.0254, 0, "1.00 in"),
+])
+def test_inch_thickness_shows_the_pick(value_m, digits, text):  # project convention
+    assert format_quantity(value_m, "thickness", "us", digits) == text
+
+
+def test_no_nan_or_inf_in_text():
+    assert format_quantity(math.inf, "heat_flow_per_length", "si") == "–"
+    assert format_quantity(math.nan, "temperature", "us") == "–"
+
+
+@pytest.mark.parametrize("name, key", [
+    ("fiberglass", "glass_wool"), ("Fiberglass pipe section", "glass_wool"), ("fibreglass", "glass_wool"),
+    ("rock wool", "mineral_wool"), ("stone wool", "mineral_wool"), ("calsil", "calcium_silicate"),
+    ("polyiso", "polyisocyanurate_foam"), ("PIR", "polyisocyanurate_foam"), ("perlite", "expanded_perlite"),
+])
+def test_material_trade_words(name, key):  # common practice: trade names of material types
+    from pipeins.catalog.materials import lookup_material
+
+    assert lookup_material(name).key == key
+
+
+@pytest.mark.parametrize("name, key", [
+    ("aluminum, oxidized", "aluminium_weathered"), ("Aluminum, bright", "aluminium_bright"),
+    ("galvanized steel, new", "galvanised_new"), ("painted steel, any color", "painted_steel"),
+    ("ASJ", "paper_facing"), ("all-service jacket", "paper_facing"),
+    ("stainless steel, oxidized", "stainless_weathered"),
+])
+def test_finish_us_spellings(name, key):  # common practice: US spellings and trade words
+    from pipeins.catalog.finishes import lookup_finish
+
+    assert lookup_finish(name).key == key
+
+
+def test_every_trade_word_finds_a_catalogue_entry():
+    from pipeins.catalog.aliases import TRADE_WORDS
+    from pipeins.catalog.finishes import lookup_finish
+    from pipeins.catalog.materials import lookup_material
+
+    for word in TRADE_WORDS:
+        found = []
+        for lookup in (lookup_material, lookup_finish):
+            try:
+                found.append(lookup(word))
+            except InputError:
+                pass
+        assert found, word

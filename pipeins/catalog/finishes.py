@@ -11,7 +11,6 @@ of ``bare_metal``, ``metal_jacket`` or ``non_metallic`` and selects the touch li
 from __future__ import annotations
 
 import functools
-import re
 from dataclasses import dataclass
 
 from pipeins.errors import near_hint
@@ -65,7 +64,9 @@ class Finish:
 
 
 def _norm(text: str) -> str:
-    return re.sub(r"[\s_\-,]+", " ", str(text).strip().lower()).strip()
+    from .aliases import canonical_words  # US spellings and trade words (oxidized, ASJ)
+
+    return canonical_words(text)
 
 
 @functools.cache

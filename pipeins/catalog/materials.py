@@ -90,7 +90,9 @@ class WallMaterial:
 
 
 def _norm(text: str) -> str:
-    return re.sub(r"[\s_\-]+", " ", str(text).strip().lower())
+    from .aliases import canonical_words  # US spellings and trade words (aluminum, fiberglass)
+
+    return canonical_words(text)
 
 
 @functools.cache

@@ -84,11 +84,16 @@ def _pipes(kind, schedule, match, units):
     def size(mm: float) -> str:  # SI: the value as the standard prints it; US: inches to 3 places
         return f"{mm:g}" if units == "si" else f"{to_display(mm / 1000.0, 'diameter', units):.3f}"
 
+    def outside(mm: float) -> str:  # US: as the inch tables print it (NPS 2 is 2.375 in)
+        from ..units import format_quantity
+
+        return f"{mm:g}" if units == "si" else format_quantity(mm / 1000.0, "diameter", units, 3).split(" ")[0]
+
     table = Table("Pipe and tube sizes", [
         Column("size"), Column("catalogue"), Column("schedule or type"),
         Column(f"outside diameter [{mm_label}]"), Column(f"wall [{mm_label}]"),
         Column(f"inside diameter [{mm_label}]"), Column("source"),
-    ], [[r["label"], r["kind"], r["schedule"] or "–", size(r["outer_diameter_mm"]), size(r["wall_mm"]),
+    ], [[r["label"], r["kind"], r["schedule"] or "–", outside(r["outer_diameter_mm"]), size(r["wall_mm"]),
          size(round(r["outer_diameter_mm"] - 2.0 * r["wall_mm"], 3)), r["source"]] for r in rows])
     data = [{"label": r["label"], "kind": r["kind"], "schedule": r["schedule"] or None,
              "outer_diameter_m": round(r["outer_diameter_mm"] / 1000.0, 9),
