@@ -350,7 +350,7 @@ def write_text_output(path, text: str, what: str = "--output") -> None:
         ``<what>: PATH is a device, not a file; …`` (or a folder, a socket), or
         ``<what>: cannot write PATH: reason`` for any OS error.
     """
-    data = text.encode("utf-8", "backslashreplace")
+    data = text if isinstance(text, bytes) else text.encode("utf-8", "backslashreplace")  # bytes: xlsx, png
     if os.fspath(path) == "-":
         sys.stdout.flush()
         _straight_to_fd(1, data, what, "-")

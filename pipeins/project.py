@@ -1,6 +1,6 @@
 """The project file: a whole job's lines, services and surroundings in one TOML file.
 
-A project file has five kinds of table (see ``examples/*.toml``)::
+A project file has six kinds of table (see ``examples/*.toml``)::
 
     [project]               name, units ("si" or "us"), currency, code, cost_table, code_tables
     [energy]                price, co2, efficiency, cop, hours, discount_rate, life, escalation
@@ -11,6 +11,8 @@ A project file has five kinds of table (see ``examples/*.toml``)::
                             contact_time, dew_margin, code, cost_table, and the energy keys
                             (price, co2, efficiency, cop, hours) to override [energy]
     [[lines]]               service, size, length, condition, valves, flanges, strainers, tag
+    [report]                project, number, client, revision, date, prepared_by, checked_by
+                            (the title block of the HTML and XLSX reports; text)
 
 Quantities are text with their unit (``"82 C"``, ``"2 in"``, ``"120 m"``, ``"10 barg"``,
 ``"0.09/kWh"``); a bare number takes the unit of the project's unit system
@@ -69,8 +71,10 @@ _KEYS = {
                  "ice_fraction", "touch_limit", "contact_time", "dew_margin", "code", "cost_table",
                  "price", "co2", "efficiency", "cop", "hours"},
     "lines": {"service", "size", "length", "condition", "tag"} | set(_FITTINGS),
+    # the title block of the HTML and XLSX reports (pipeins.reports.html.TITLE_BLOCK_KEYS)
+    "report": {"project", "number", "client", "revision", "date", "prepared_by", "checked_by"},
 }
-_TOP = ("project", "energy", "conditions", "services", "lines")
+_TOP = ("project", "energy", "conditions", "services", "lines", "report")
 
 
 class ProjectError(InputError):
@@ -170,6 +174,7 @@ class Project:
     lines: list[Line]
     cost_table: Any = None
     file_name: str = ""
+    report: dict = field(default_factory=dict)  # [report]: title block texts by key
 
     def where(self, file_line: int, entry: str, key: str | None = None) -> str:
         return _where(self.file_name, file_line, entry, key)
@@ -489,6 +494,19 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
     code = r.rule_set(head, path, "project", None)
     cost_table = r.cost_table(head, path, "project")
 
+    # [report]: title-block texts (a TOML date is taken as written)
+    report_block = {}
+    report_table = data.get("report", {})
+    if not isinstance(report_table, dict):
+        r.problems.append(f"{file_name}: report must be a table [report]")
+    else:
+        r.check_keys(report_table, "report", ("report",), "report")
+        for key in sorted(report_table.keys() & _KEYS["report"]):
+            if hasattr(report_table[key], "isoformat"):
+                report_block[key] = report_table[key].isoformat()
+            else:
+                report_block[key] = r.text_value(report_table, key, ("report",), "report")
+
     # [energy]
     energy_table = data.get("energy", {})
     energy = Energy()
@@ -560,7 +578,7 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
         out.append(Line(line.index, f"{line.service} {line.size.label} {line.condition} #{counter[key]}",
                         line.service, line.size, line.length_m, line.condition, line.fittings, line.file_line))
     return Project(name, units, r.currency, Path(base_dir) / file_name, code, r.code_paths, energy, conditions,
-                   services, out, cost_table, file_name)
+                   services, out, cost_table, file_name, {k: v for k, v in report_block.items() if v})
 
 
 def load_project(path) -> Project:

@@ -81,7 +81,7 @@ BAD_INPUT = [
                  "Error: --altitude: give --air-pressure or --altitude, not both",
                  id="pressure-and-altitude"),
     pytest.param(INSULATED + ("--format", "xml"),
-                 'Error: --format: unknown format "xml"; use text, json, csv, markdown',
+                 'Error: --format: unknown format "xml"; use text, json, csv, markdown, html, xlsx',
                  id="unknown-format"),
 ]
 

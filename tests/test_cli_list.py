@@ -84,7 +84,7 @@ def test_unknown_catalogue_error_line(run):
                  "30, 40, 40S, STD, 60, 80, 80S, XS, 100, 120, 140, 160, XXS",
                  id="unknown-schedule"),
     pytest.param(("series", "--format", "xml"),
-                 'Error: --format: unknown format "xml"; use text, json, csv, markdown', id="format"),
+                 'Error: --format: unknown format "xml"; use text, json, csv, markdown, html, xlsx', id="format"),
 ])
 def test_bad_filters(run, args, line):
     code, out, err = run(*args)

@@ -107,7 +107,7 @@ def test_matrix_layout(run):
       "--max-heat-flow", "5W/m"),
      None),
     (("size", "--pipe", "NPS 2", *HOT, "--format", "xml"),
-     'Error: --format: unknown format "xml"; use text, json, csv, markdown'),
+     'Error: --format: unknown format "xml"; use text, json, csv, markdown, html, xlsx'),
 ])
 def test_bad_input_lines(run, args, line):
     code, out, err = run(*args)

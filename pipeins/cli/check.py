@@ -4,12 +4,13 @@ from __future__ import annotations
 
 import click
 
-from .options import emit, line_options, output_options, spec_from_options
+from .options import emit, line_options, output_options, plot_option, spec_from_options
 
 
 @click.command()
 @line_options
 @output_options
+@plot_option
 def check(fmt, units, output, **opts):
     """Heat flow and temperatures of one insulated (or bare) line.
 
@@ -26,10 +27,13 @@ def check(fmt, units, output, **opts):
       pipeins check --pipe DN50 --fluid-temp 6C --ambient-temp 28C --rh 75 \\
           --layer "flexible elastomeric foam:19mm" --format json
     """
+    from ..reports.charts import check_charts
     from ..reports.check import check_report
     from ..runs import run_extras
 
     spec = spec_from_options(opts, units)
     result = spec.solve()
     rows, data, warnings = run_extras(spec, result, units)
-    emit(check_report(spec, result, units, rows, data, warnings), fmt, units, output)
+    report = check_report(spec, result, units, rows, data, warnings)
+    report.charts = check_charts(spec, result)
+    emit(report, fmt, units, output)

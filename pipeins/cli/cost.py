@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from .energy_options import basis_from_options, energy_options
-from .options import emit, line_options, output_options, spec_from_options
+from .options import emit, line_options, output_options, plot_option, spec_from_options
 
 
 @click.command()
@@ -17,6 +17,7 @@ from .options import emit, line_options, output_options, spec_from_options
                                  'e.g. "82C:3000h,70C:2500h,55C:1500h".')
 @energy_options
 @output_options
+@plot_option
 def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
     """Annual energy, cost and CO2 of a line: bare against insulated, and the economic thickness.
 
@@ -35,6 +36,7 @@ def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
           --co2-factor 0.20/kWh --cost-table examples/costs_demo.csv --currency EUR
     """
     from ..costing import cost_study
+    from ..reports.charts import cost_charts
     from ..reports.cost import cost_report
 
     from ..errors import InputError
@@ -55,4 +57,6 @@ def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
     spec = spec_from_options(opts, units)
     basis = basis_from_options(opts, units, need_price=True)
     study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers}, conditions)
-    emit(cost_report(study, units), fmt, units, output)
+    report = cost_report(study, units)
+    report.charts = cost_charts(study)
+    emit(report, fmt, units, output)

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import click
 
-__all__ = ["line_options", "output_options", "spec_from_options", "emit", "parse_layer"]
+__all__ = ["line_options", "output_options", "plot_option", "spec_from_options", "emit", "parse_layer"]
 
 
 def _opt(*names, **kw):
@@ -58,8 +58,23 @@ def output_options(func):
     func = click.option("--units", type=click.Choice(["si", "us"]), default="si", show_default=True,
                         help="Default units of bare numbers and units shown.")(func)
     func = click.option("--format", "fmt", default="text", show_default=True,
-                        help="Output format: text, json, csv or markdown.")(func)
+                        help="Output format: text, json, csv, markdown, html (one self-contained page "
+                             "with charts) or xlsx (a workbook, needs --output).")(func)
     return func
+
+
+def _check_plot(ctx, param, value):
+    if value is not None and not value.lower().endswith((".svg", ".png")):
+        from ..errors import InputError
+
+        raise InputError("--plot", f'"{value}": give a file name ending in .svg or .png')
+    return value
+
+
+def plot_option(func):
+    """``--plot FILE.svg|png``: also draw the command's charts into that file (see :func:`emit`)."""
+    return click.option("--plot", metavar="FILE.svg|png", callback=_check_plot, expose_value=True,
+                        help="Also draw the charts into this file: SVG or PNG by its ending.")(func)
 
 
 def _q(opts, name, kind, units):
@@ -89,12 +104,29 @@ def spec_from_options(opts: dict, units: str, items: list | None = None):
 
 def emit(report, fmt: str, units: str, output: str | None) -> None:
     """Render *report* and print it, or write it whole to *output* (``-`` is standard
-    output; see :func:`pipeins.fileio.write_text_output`)."""
-    from ..fileio import write_text_output
-    from ..reports import render
+    output; see :func:`pipeins.fileio.write_text_output`).
 
+    A binary format (xlsx) needs *output* (not a terminal).  When the command has
+    ``--plot FILE`` (read from the click context), the report's charts are drawn into FILE
+    as well.
+    """
+    import sys
+
+    from ..errors import InputError
+    from ..fileio import write_text_output
+    from ..reports import BINARY_FORMATS, render
+
+    if fmt in BINARY_FORMATS and (output is None or (output == "-" and sys.stdout.isatty())):
+        raise InputError("--format", f"{fmt} is a binary workbook, not written to a terminal; "
+                                     f"give --output FILE.{fmt}")
     text = render(report, fmt, units)
-    if output is None or output == "-":
+    ctx = click.get_current_context(silent=True)
+    plot = ctx.params.get("plot") if ctx is not None else None
+    if plot:
+        from ..reports.charts import plot_bytes
+
+        write_text_output(plot, plot_bytes(report.charts, plot, units), "--plot")
+    if (output is None or output == "-") and not isinstance(text, bytes):
         click.echo(text, nl=False)
         return
     write_text_output(output, text, "--output")

@@ -29,7 +29,8 @@ def write_csv_folder(report, units: str, folder: str) -> None:
 @click.command()
 @click.argument("project_file", metavar="PROJECT.toml", type=click.Path(dir_okay=False))
 @click.option("--format", "fmt", default="text", show_default=True,
-              help="Output format: text, markdown, json (one document) or csv (one file per table, needs --output).")
+              help="Output format: text, markdown, json (one document), html (one self-contained page), "
+                   "xlsx (one workbook, needs --output) or csv (one file per table, needs --output).")
 @click.option("--units", type=click.Choice(["si", "us"]), default=None,
               help="Units shown (default: the project's unit system).")
 @click.option("--output", "-o", type=click.Path(),
@@ -64,6 +65,7 @@ def schedule(project_file, fmt, units, output):
     result = compute_schedule(project)
     shown = units or project.units
     report = schedule_report(result, shown)
+    report.title_block = {"project": project.name, **project.report}
     if fmt == "csv":
         write_csv_folder(report, shown, output)
         return

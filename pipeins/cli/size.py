@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import click
 
-from .options import emit, line_options, output_options, spec_from_options
+from .options import emit, line_options, output_options, plot_option, spec_from_options
 from .energy_options import basis_from_options, code_options, energy_options
 from .sizing_options import parse_series, requirements_from_options, sizing_options
 
@@ -15,6 +15,7 @@ from .sizing_options import parse_series, requirements_from_options, sizing_opti
 @code_options
 @energy_options
 @output_options
+@plot_option
 def size(fmt, units, output, material, series, code, code_table, **opts):
     """The least insulation thickness that meets each criterion, for one line.
 
@@ -34,6 +35,7 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     """
     from ..errors import InputError
     from ..line import LineSpec
+    from ..reports.charts import size_charts
     from ..reports.check import check_report
     from ..reports.sizing import CRITERION_OPTIONS, size_report
     from ..runs import run_extras
@@ -65,4 +67,6 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     rows, data, warnings = run_extras(at, result, units)
     check = check_report(at, result, units, rows, data, warnings,
                          title="Check at the selected thickness")
-    emit(size_report(selection, check, units), fmt, units, output)
+    report = size_report(selection, check, units)
+    report.charts = size_charts(selection, result)
+    emit(report, fmt, units, output)

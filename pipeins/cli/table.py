@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import click
 
-from .options import emit, line_options, output_options, spec_from_options
+from .options import emit, line_options, output_options, plot_option, spec_from_options
 from .energy_options import basis_from_options, code_options, energy_options
 from .sizing_options import parse_series, requirements_from_options, sizing_options
 
@@ -19,6 +19,7 @@ from .sizing_options import parse_series, requirements_from_options, sizing_opti
 @code_options
 @energy_options
 @output_options
+@plot_option
 def table(fmt, units, output, sizes, matrix, material, series, code, code_table, **opts):
     """Thickness table per pipe size for one service.
 
@@ -37,6 +38,7 @@ def table(fmt, units, output, sizes, matrix, material, series, code, code_table,
     """
     from ..catalog.pipes import pipe_range
     from ..errors import InputError
+    from ..reports.charts import table_charts
     from ..reports.sizing import CRITERION_OPTIONS, matrix_report, table_report
     from ..selection import select
     from ..units import material_in_si
@@ -67,4 +69,5 @@ def table(fmt, units, output, sizes, matrix, material, series, code, code_table,
                 raise InputError(CRITERION_OPTIONS.get(failed.key, "--series"),
                                  f"{failed.messages[-1]} (largest size {selection.sizes[-1].label}); no size can meet it")
         report = table_report(selection, units)
+    report.charts = table_charts(selection, report)
     emit(report, fmt, units, output)

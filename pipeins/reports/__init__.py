@@ -1,9 +1,10 @@
 """Reports: tables of SI values that know their units, rendered in one place.
 
 A :class:`Report` is a title, some :class:`Table` s, warnings and cautions, and the
-JSON payload (always SI).  :func:`render` turns it into text, Markdown, CSV or JSON in the
-chosen unit system; every command prints through it, so an unknown format is refused
-in one place.
+JSON payload (always SI).  :func:`render` turns it into text, Markdown, CSV, JSON, a
+self-contained HTML page (:mod:`pipeins.reports.html`) or an XLSX workbook
+(:mod:`pipeins.reports.xlsx`, bytes) in the chosen unit system; every command prints
+through it, so an unknown format is refused in one place.
 """
 
 from __future__ import annotations
@@ -17,9 +18,11 @@ from typing import Any
 
 from ..errors import InputError
 
-__all__ = ["Column", "Table", "Report", "render", "FORMATS"]
+__all__ = ["Column", "Table", "Report", "render", "FORMATS", "BINARY_FORMATS"]
 
-FORMATS = ("text", "json", "csv", "markdown")
+FORMATS = ("text", "json", "csv", "markdown", "html", "xlsx")
+#: Formats that are bytes, not text (written to a file only).
+BINARY_FORMATS = ("xlsx",)
 
 
 @dataclass(frozen=True)
@@ -67,6 +70,10 @@ class Report:
     cautions: list[str] = field(default_factory=list)
     footer: list[str] = field(default_factory=list)
     csv_table: int = 0  # which table CSV output carries
+    # Drawn by the HTML report and --plot only (pipeins.reports.charts.Chart; data computed lazily).
+    charts: list = field(default_factory=list)
+    # Title block of the HTML and XLSX reports: keys of pipeins.reports.html.TITLE_BLOCK_KEYS.
+    title_block: dict = field(default_factory=dict)
 
 
 def _cells(table: Table, units: str) -> tuple[list[str], list[list[str]]]:
@@ -113,8 +120,9 @@ def _csv(report: Report, units: str) -> str:
     return out.getvalue()
 
 
-def render(report: Report, fmt: str = "text", units: str = "si") -> str:
-    """The report as text, Markdown, CSV (its main table) or JSON (SI, whatever *units*)."""
+def render(report: Report, fmt: str = "text", units: str = "si") -> str | bytes:
+    """The report as text, Markdown, CSV (its main table), JSON (SI, whatever *units*),
+    HTML (text) or XLSX (bytes)."""
     if fmt == "json":
         payload = dict(report.data)
         payload.setdefault("warnings", report.warnings)
@@ -124,4 +132,12 @@ def render(report: Report, fmt: str = "text", units: str = "si") -> str:
         return _csv(report, units)
     if fmt in ("text", "markdown"):
         return _text(report, units, markdown=fmt == "markdown")
+    if fmt == "html":
+        from .html import render_html
+
+        return render_html(report, units)
+    if fmt == "xlsx":
+        from .xlsx import render_xlsx
+
+        return render_xlsx(report, units)
     raise InputError("--format", f'unknown format "{fmt}"; use {", ".join(FORMATS)}')
