@@ -23,6 +23,7 @@ COMMANDS = {
     "cost": ("pipeins.cli.cost", "cost", "Annual energy, cost and CO2; bare against insulated; economic thickness."),
     "schedule": ("pipeins.cli.schedule", "schedule", "Insulation schedule of a whole project file."),
     "list": ("pipeins.cli.listing", "list_", "Show the catalogues: pipes, materials, finishes, series, rules."),
+    "verify": ("pipeins.cli.verify", "verify", "Run the published checks shipped with pipeins and compare."),
 }
 
 
