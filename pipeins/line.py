@@ -279,16 +279,19 @@ class LineSpec:
             from .props.liquids import check_fluid_temp
 
             check_fluid_temp(self.fluid, temp)
-        h = self.inner_h_w_m2k
+        h, notes = self.inner_h_w_m2k, ()
         if h is None and self.fluid and (self.velocity_m_s is not None or self.flow is not None):
             if self.steam_pressure_pa is not None:
                 raise InputError("fluid", "condensing steam has no computed inner film; give a fixed inner film "
                                           "coefficient or none")
-            h, _ = inner_film_for_flow(self.fluid, temp, pipe.inner_diameter_m, self.velocity_m_s, self.flow)
+            h, velocity = inner_film_for_flow(self.fluid, temp, pipe.inner_diameter_m, self.velocity_m_s, self.flow)
+            from .physics.inner import inner_film_notes
+
+            notes = inner_film_notes(self.fluid, temp, pipe.inner_diameter_m, velocity)
         shape = self.shape()
         if np.shape(temp) != shape:  # every array input broadcasts, RH included
             temp = np.broadcast_to(np.asarray(temp, dtype=float), np.broadcast_shapes(np.shape(temp), shape))
-        return Fluid(temp, h, self.fluid_name() or "")
+        return Fluid(temp, h, self.fluid_name() or "", notes)
 
     def build_surroundings(self) -> Surroundings:
         return Surroundings(self.air_temp_c, self.surroundings_temp_c, self.wind_m_s, self.rh_percent,

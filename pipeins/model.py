@@ -129,6 +129,8 @@ class Fluid:
     temp_c: Any
     film_coefficient_w_m2k: Any = None
     name: str = ""
+    #: Validity notes of the correlation that gave the film coefficient (carried into results).
+    film_notes: tuple[str, ...] = ()
 
     def __post_init__(self):
         _temperature("fluid_temp_c", self.temp_c)

@@ -7,7 +7,7 @@ from typing import Any
 
 import numpy as np
 
-__all__ = ["Result"]
+__all__ = ["Result", "film_warnings"]
 
 
 def _plain(x):
@@ -44,6 +44,10 @@ class Result:
     geometry: str
     warnings: list[str] = field(default_factory=list)
     inputs: dict[str, Any] = field(default_factory=dict, repr=False)
+
+    def __post_init__(self):
+        # The films' validity notes travel with every result, once each.
+        self.warnings = list(dict.fromkeys(list(self.warnings) + film_warnings(self)))
 
     @property
     def shape(self) -> tuple[int, ...]:
@@ -103,3 +107,33 @@ class Result:
             "residual_w_per_m": self.residual_w_per_m,
             "warnings": list(self.warnings),
         }
+
+
+def film_warnings(result: "Result") -> list[str]:
+    """Validity warnings of the film correlations behind a solved result.
+
+    The outer film's (natural, forced and mixed convection, the vertical-cylinder curvature
+    correction; :func:`pipeins.physics.outer.outer_convection_warnings`) at the converged
+    surface temperatures, and the inner film's notes carried by the fluid
+    (``Fluid.film_notes``, see :func:`pipeins.physics.inner.inner_film_warnings`).  None
+    for a fixed outer coefficient, which stands in for the outer correlations.
+    """
+    inputs = result.inputs
+    if not inputs:
+        return []
+    out = list(getattr(inputs["fluid"], "film_notes", ()) or ())
+    surface, surroundings, pipe = inputs["surface"], inputs["surroundings"], inputs["pipe"]
+    if surface.fixed_coefficient_w_m2k is not None or np.size(result.surface_temp_c) == 0:
+        return out
+    from .physics.outer import outer_convection_warnings
+
+    if result.geometry == "flat":
+        length, orientation, height = pipe.length_m, pipe.face, pipe.length_m
+    else:
+        orientation = surroundings.orientation
+        length = result.outer_diameter_m
+        height = surroundings.height_m if orientation == "vertical" else None
+    out += outer_convection_warnings(result.surface_temp_c, surroundings.air_temp_c, length,
+                                     surroundings.wind_speed_m_s, orientation, height,
+                                     surroundings.pressure_pa, result.geometry)
+    return out

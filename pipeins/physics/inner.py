@@ -16,7 +16,8 @@ import numpy as np
 from pipeins.errors import InputError
 from pipeins.physics.convection import nusselt_pipe_internal
 
-__all__ = ["reynolds_number", "prandtl_number", "inner_film_coefficient", "inner_film_warnings"]
+__all__ = ["reynolds_number", "prandtl_number", "inner_film_coefficient", "inner_film_warnings",
+           "inner_film_notes"]
 
 
 def _positive(value, name, what):
@@ -161,7 +162,7 @@ def inner_film_warnings(
     >>> inner_film_warnings(1.5, 0.05, 998.0, 1.0e-3, 0.6, 4182.0)
     []
     >>> inner_film_warnings(0.01, 0.05, 998.0, 1.0e-3, 0.6, 4182.0)
-    ['inner film: laminar flow (Re below 2300) in 1 of 1 cases; fully developed Nu = 4.36 used, entry-length enhancement neglected']
+    ['inner film: laminar flow (Re below 2300); fully developed Nu = 4.36 used, entry-length enhancement neglected']
     """
     reynolds = reynolds_number(velocity_m_s, inner_diameter_m, density_kg_m3, viscosity_pa_s)
     prandtl = prandtl_number(viscosity_pa_s, heat_capacity_j_kgk, conductivity_w_mk)
@@ -179,5 +180,26 @@ def inner_film_warnings(
     for mask, what, consequence in checks:
         count = int(np.count_nonzero(mask))
         if count:
-            found.append(f"inner film: {what} in {count} of {total} cases; {consequence}")
+            where = f" in {count} of {total} cases" if total > 1 else ""
+            found.append(f"inner film: {what}{where}; {consequence}")
     return found
+
+
+def inner_film_notes(fluid: str, temp_c, inner_diameter_m, velocity_m_s) -> tuple[str, ...]:
+    """:func:`inner_film_warnings` for *fluid* (a name :mod:`pipeins.props.liquids` knows) at
+    *temp_c* [°C] flowing at *velocity_m_s* [m/s] in a bore of *inner_diameter_m* [m], with
+    the fluid's own properties.  The caller stores them on the
+    :class:`~pipeins.model.Fluid` (``film_notes``), so the result carries them.
+
+    Examples
+    --------
+    >>> inner_film_notes("water", 60.0, 0.1023, 1.5)
+    ()
+    >>> inner_film_notes("water", 60.0, 0.1023, 0.01)[0][:43]
+    'inner film: laminar flow (Re below 2300); f'
+    """
+    from pipeins.props.liquids import fluid_properties
+
+    props = fluid_properties(fluid, temp_c)
+    return tuple(inner_film_warnings(velocity_m_s, inner_diameter_m, props.density_kg_m3, props.viscosity_pa_s,
+                                     props.conductivity_w_mk, props.heat_capacity_j_kgk))

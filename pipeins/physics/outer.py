@@ -190,7 +190,8 @@ def _outer_film(
         for mask, what, consequence in notes:
             count = int(np.count_nonzero(mask))
             if count:
-                warnings.append(f"outer film: {what} in {count} of {total} cases; {consequence}")
+                where = f" in {count} of {total} cases" if total > 1 else ""
+                warnings.append(f"outer film: {what}{where}; {consequence}")
     return h, warnings
 
 
@@ -299,7 +300,7 @@ def outer_convection_warnings(
     >>> outer_convection_warnings(120.0, 15.0, 0.15)
     []
     >>> outer_convection_warnings(60.0, 20.0, 5.0, orientation="top", geometry="flat")
-    ['outer film: Rayleigh number above 1e11 on a horizontal face (enhanced case) in 1 of 1 cases; beyond the McAdams range; extrapolated']
+    ['outer film: Rayleigh number above 1e11 on a horizontal face (enhanced case); beyond the McAdams range; extrapolated']
     """
     _, warnings = _outer_film(
         surface_temp_c, air_temp_c, characteristic_length_m, wind_speed_m_s, orientation, height_m, pressure_pa, geometry,
