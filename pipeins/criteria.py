@@ -20,7 +20,8 @@ import numpy as np
 from .errors import InputError
 from .sizing import DEFAULT_DEW_MARGIN_K, Condensation, HeatFlowCap, TouchSafety
 
-__all__ = ["Requirements", "build_criteria", "touch_limit_for"]
+__all__ = ["Requirements", "build_criteria", "touch_limit_for", "no_criterion_message",
+           "CONDENSATION_NOT_APPLICABLE", "FREEZE_NOT_APPLICABLE"]
 
 
 @dataclass(frozen=True)
@@ -54,11 +55,28 @@ def touch_limit_for(req: Requirements, surface_kind: str) -> tuple[float, str]:
     return DEFAULT_TOUCH_LIMIT_C, DEFAULT_TOUCH_LIMIT_SOURCE
 
 
+#: What a criterion that does not apply says (exact texts; reports print them as given).
+CONDENSATION_NOT_APPLICABLE = "condensation control does not apply: the surface stays above the dew point bare"
+FREEZE_NOT_APPLICABLE = ("freeze hold does not apply: fluid above 0 °C in air and surroundings at or above "
+                         "0 °C, so still water does not freeze")
+
+
 def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_kind: str):
-    """The criteria that apply, and notes on criteria that were asked for but do not apply."""
+    """The criteria that apply, and notes on criteria that were asked for but do not apply.
+
+    Condensation control is built whenever the relative humidity is given and some surface
+    between the fluid, air and radiant temperatures could sit below the dew point plus the
+    margin (a line colder than the air, or one under a cold sky, whose insulation cools
+    below the air); the search drops it, with :data:`CONDENSATION_NOT_APPLICABLE`, when no
+    thickness from bare to the thickest fails it.  The freeze hold applies only where the air
+    or the surroundings are below 0 °C.
+    """
     fluid_hot = float(np.max(fluid_temp_c))
     fluid_cold = float(np.min(fluid_temp_c))
     air = np.asarray(air_temp_c, dtype=float)
+    radiant = np.asarray(spec.air_temp_c if spec.surroundings_temp_c is None else spec.surroundings_temp_c,
+                         dtype=float)
+    coldest_outside = float(min(np.min(air), np.min(radiant)))
     criteria, notes = [], []
     limit, source = touch_limit_for(req, surface_kind)
     if req.touch:
@@ -70,15 +88,24 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
         if fluid_hot > limit:
             criteria.append(TouchSafety(limit, source))
         elif req.touch_limit_c is not None or req.contact_time_s is not None:
-            notes.append(f"touch safety: the fluid ({fluid_hot:g} °C) is not above the limit ({limit:g} °C); "
-                         "no insulation is needed for it")
-    if fluid_cold < float(np.min(air)):
+            notes.append(f"touch safety does not apply: the fluid ({fluid_hot:g} °C) is not above the "
+                         f"{limit:g} °C limit, so no surface can exceed it")
+    cold_sky = float(np.min(radiant)) < float(np.min(air))
+    if fluid_cold < float(np.max(air)) or cold_sky:
         if spec.rh_percent is not None:
             if req.dew_margin_k < 0:
                 raise InputError("dew_margin_k", "the dew-point margin must be zero or more")
-            criteria.append(Condensation(req.dew_margin_k))
-        else:
+            from .props.humid import dew_point_c
+
+            dew = float(np.max(dew_point_c(air, spec.rh_percent, spec.pressure_pa)))
+            if min(fluid_cold, coldest_outside) < dew + req.dew_margin_k:
+                criteria.append(Condensation(req.dew_margin_k, cold_sky))
+            else:
+                notes.append(CONDENSATION_NOT_APPLICABLE)
+        elif fluid_cold < float(np.min(air)):
             notes.append("condensation not checked: the line is colder than the air; give --rh")
+    elif spec.rh_percent is not None:
+        notes.append(CONDENSATION_NOT_APPLICABLE)
     if req.max_heat_flow_w_per_m is not None or req.min_reduction is not None:
         criteria.append(HeatFlowCap(req.max_heat_flow_w_per_m, req.min_reduction))
     if req.max_temp_change_k is not None:
@@ -94,5 +121,18 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
 
         if req.hold_time_s <= 0:
             raise InputError("hold_time_s", "the hold time must be greater than zero")
-        criteria.append(FreezeHold(req.hold_time_s, req.ice_fraction))
+        if coldest_outside >= 0.0 and fluid_cold >= 0.0:
+            notes.append(FREEZE_NOT_APPLICABLE)
+        else:
+            criteria.append(FreezeHold(req.hold_time_s, req.ice_fraction))
     return criteria, notes
+
+
+def no_criterion_message(notes, rh_given: bool) -> str:
+    """The error text when no criterion is left to size for: why, and what could be asked."""
+    asks = ["touch_limit_c"] + ([] if rh_given else ["rh_percent (condensation)"]) + [
+        "max_heat_flow_w_per_m", "min_reduction", "{code}"]
+    reasons = "; ".join(notes)
+    text = "no sizing criterion applies to this line"
+    return f"{text} ({reasons}); give one of {', '.join(asks)}" if reasons else \
+        f"{text}; give one of {', '.join(asks)}"

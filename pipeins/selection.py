@@ -85,8 +85,13 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
 
         econ, curves = economic_outcome(problem, size_list, economic)
         extra.append(econ)
+    if not criteria and not extra:
+        from .criteria import no_criterion_message
+
+        raise InputError("touch_limit_c", no_criterion_message(notes, spec.rh_percent is not None))
     outcome = size(problem, criteria, series_m, extra_required=extra)
-    selection = Selection(spec, size_list, material, name, problem, criteria, outcome, notes)
+    notes = notes + [n for n in outcome.not_applicable if n not in notes]
+    selection = Selection(spec, size_list, material, name, problem, outcome.active, outcome, notes)
     selection.economic_curves = curves
     return selection
 

@@ -79,10 +79,15 @@ def _q(value_si: float, kind: str, units: str) -> str:
 
 
 class Criterion:
-    """Base class: ``key`` (JSON), ``label`` (reports), ``unit`` of the margin."""
+    """Base class: ``key`` (JSON), ``label`` (reports), ``unit`` of the margin.
+
+    A criterion whose ``not_applicable`` text is set is dropped by :func:`size`, with that
+    text as a note, when every thickness from bare to the thickest passes it.
+    """
 
     key = ""
     label = ""
+    not_applicable = ""
 
     def margin(self, problem: SizingProblem, result, thickness_m) -> np.ndarray:
         raise NotImplementedError
@@ -135,8 +140,10 @@ class Condensation(Criterion):
     """Surface at or above the ambient dew point plus ``margin_k`` (lines colder than air)."""
 
     margin_k: float = DEFAULT_DEW_MARGIN_K
+    cold_sky: bool = False
     key = "condensation"
     label = "condensation control"
+    not_applicable = "condensation control does not apply: the surface stays above the dew point bare"
 
     def margin(self, problem, result, thickness_m):
         if result.dew_point_c is None:
@@ -152,8 +159,12 @@ class Condensation(Criterion):
         return f"surface {ts:.1f} °C, {ts - dew:.1f} K above the dew point {dew:.1f} °C"
 
     def miss(self, margin, thickness_m):
-        return (f"condensation control cannot be met: with {thickness_m * 1000:.0f} mm the surface is still "
+        text = (f"condensation control cannot be met: with {thickness_m * 1000:.0f} mm the surface is still "
                 f"{-margin:.2f} K below the dew point plus {self.margin_k:g} K")
+        if self.cold_sky:
+            text += ("; surroundings colder than the air cool an insulated surface by radiation, so more "
+                     "insulation does not help: a low-emittance jacket or a cover over the line may")
+        return text
 
 
 @dataclass
@@ -233,6 +244,10 @@ class SizingOutcome:
     feasible: np.ndarray
     result: object
     messages: list[list[str]]
+    #: Notes of criteria dropped because no thickness fails them (see ``Criterion.not_applicable``).
+    not_applicable: list[str] = field(default_factory=list)
+    #: The criteria that took part in the choice.
+    active: list = field(default_factory=list)
 
     def required_thickness_mm(self, index: int = 0) -> dict:
         out = {}
@@ -298,6 +313,14 @@ def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequen
     thickest = series[-1] * max_layers
     grid = np.unique(np.concatenate([_GRID[_GRID < thickest], [thickest]]))
     margins, _ = _margins(criteria, problem, np.broadcast_to(grid, (n, grid.size)))
+    dropped = [bool(c.not_applicable) and bool(np.all(m >= 0)) for c, m in zip(criteria, margins)]
+    not_applicable = [c.not_applicable for c, d in zip(criteria, dropped) if d]
+    if all(dropped) and not extra_required:
+        from .criteria import no_criterion_message
+
+        raise InputError("touch_limit_c", no_criterion_message(not_applicable, rh_given=True))
+    margins = [m for m, d in zip(margins, dropped) if not d]
+    criteria = [c for c, d in zip(criteria, dropped) if not d]
     outcomes = [_continuous(c, problem, grid, m) for c, m in zip(criteria, margins)]
     outcomes += list(extra_required)
 
@@ -348,4 +371,5 @@ def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequen
         feasible[i] = feasible[i] and all(o.feasible[i] for o in outcomes)
     shown = np.where(np.isfinite(selected), selected, option_totals[-1])
     result = problem.solve(shown[:, None])
-    return SizingOutcome(outcomes, tuple(series), selected, split, governing, feasible, result, messages)
+    return SizingOutcome(outcomes, tuple(series), selected, split, governing, feasible, result, messages,
+                         not_applicable, list(criteria))

@@ -116,11 +116,16 @@ def check_report(spec, result, units: str = "si", extra_rows=(), extra_data=None
     if result.touch_limit_c is not None and surface > result.touch_limit_c:
         warnings.append(f"surface {surface:.1f} °C is above the touch limit of {result.touch_limit_c:g} °C")
     air = result.inputs["surroundings"]
-    if air.relative_humidity_percent is None and float(np.min(result.inputs["fluid"].temp_c)) < float(np.min(air.air_temp_c)):
-        warnings.append("condensation not checked: the line is colder than the air; give --rh")
+    if air.relative_humidity_percent is None:
+        if float(np.min(result.inputs["fluid"].temp_c)) < float(np.min(air.air_temp_c)):
+            warnings.append("condensation not checked: the line is colder than the air; give --rh")
+        elif surface < float(np.min(air.air_temp_c)):
+            warnings.append(f"condensation not checked: surroundings colder than the air cool the surface to "
+                            f"{surface:.1f} °C, below the air; give --rh")
     if result.dew_point_c is not None and surface < _f(result.dew_point_c):
         warnings.append(f"surface {surface:.1f} °C is below the dew point {_f(result.dew_point_c):.1f} °C: "
                         "it will sweat")
+    warnings = list(dict.fromkeys(warnings))
     report = Report(title or f"Heat flow check: {pipe.label or 'custom pipe'}", tables,
                     check_data(spec, result, extra_data), warnings,
                     cautions_for(spec, result), csv_table=1)

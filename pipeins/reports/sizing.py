@@ -12,7 +12,7 @@ __all__ = ["size_report", "table_report", "matrix_report", "CRITERION_OPTIONS", 
 
 CRITERION_OPTIONS = {
     "surface_temp": "--touch-limit",
-    "condensation": "--dew-margin",
+    "condensation": "--rh",
     "heat_flow": "--max-heat-flow",
     "temp_change": "--max-temp-change",
     "freeze": "--hold-time",
@@ -100,7 +100,7 @@ def size_report(selection, check, units: str = "si") -> Report:
                      for c in out.criteria],
         "result": check.data,
     }
-    warnings = list(selection.notes) + list(out.messages[0]) + list(check.warnings)
+    warnings = list(dict.fromkeys(list(selection.notes) + list(out.messages[0]) + list(check.warnings)))
     data["warnings"] = warnings
     cautions = _cautions(selection)
     data["cautions"] = cautions
@@ -158,7 +158,7 @@ def table_report(selection, units: str = "si") -> Report:
     warnings = list(selection.notes)
     for i, size in enumerate(selection.sizes):
         warnings += [f"{size.label}: {m}" for m in out.messages[i]]
-    warnings += list(dict.fromkeys(out.result.warnings))
+    warnings = list(dict.fromkeys(warnings + list(out.result.warnings)))
     cautions = _cautions(selection)
     footer = conditions_footer(selection, units)
     title = f"Thickness table: {selection.material.name}, {selection.sizes[0].label} to {selection.sizes[-1].label}"
