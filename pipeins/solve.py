@@ -45,6 +45,8 @@ __all__ = ["solve", "SolverError", "RELATIVE_TOLERANCE", "MAX_ITERATIONS", "NO_F
 RELATIVE_TOLERANCE = 1e-11
 #: Bound on the iterations of one call (every case converges in far fewer; see _newton_in_bracket).
 MAX_ITERATIONS = 200
+#: Largest outer circumference (per metre of pipe) the outer-film correlations can compute with [m].
+MAX_OUTER_SIZE_M = 1e6
 #: Fluid, air and radiant temperatures closer than this [K] are the exact no-flow case.
 NO_FLOW_SPAN_K = 1e-9
 # Surface-temperature resolution, in units of the largest temperature magnitude [°C] + 1 K.
@@ -191,8 +193,8 @@ def _check_network(film_r, wall_r, layer_s, area, layers):
     for layer, s in zip(layers, layer_s):
         if not np.all(np.isfinite(s)):
             raise InputError("--layer", f"thickness of {layer.material.name} cannot be computed with")
-    if not np.all(np.isfinite(area)):
-        raise InputError("--layer", "total thickness too large to compute with")
+    if not np.all(np.isfinite(area) & (area <= MAX_OUTER_SIZE_M)):
+        raise InputError("--layer", f"total thickness too large to compute with (outer size above {MAX_OUTER_SIZE_M:g} m)")
 
 
 def _no_flow(c):
@@ -282,6 +284,9 @@ class _OuterSide:
         h_c = outer.outer_convection_coefficient(ts, air, cases["len"], cases["wind"], self.orientation,
                                                  cases["height"] if self.vertical else None, cases["p"],
                                                  self.geometry)
+        if not np.all(np.isfinite(h_c)):
+            raise InputError("outer film", "the convection coefficient overflows for these inputs (a height, "
+                             "size, wind speed or air pressure far beyond any real line)")
         ts_k, rad_k, eps_sigma = ts - radiation.ABSOLUTE_ZERO_C, cases["rad_k"], cases["eps_sigma"]
         h_r = eps_sigma * (ts_k + rad_k) * (ts_k**2 + rad_k**2)
         q = area * (h_c * (ts - air) + h_r * (ts - rad))
@@ -404,13 +409,19 @@ def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
         inside = (x_new > a) & (x_new < b)
         # Error left after the step: |step| times the last contraction ratio (at most 1).
         after = size * np.minimum(1.0, size / st["size_prev"]) if iterations > 1 else size
-        done = ((inside & ((q_slope * after <= rtol * np.abs(q)) | (after <= res)))
-                | (size <= res) | (b - a <= res)) & st["live"]
+        on_q = inside & (q_slope * after <= rtol * np.abs(q))
+        done = (on_q | (inside & (after <= res)) | (size <= res) | (b - a <= res)) & st["live"]
         if np.any(done):
+            # Each converged case takes its last step without another evaluation: Ts moves
+            # by −step and q by −q_out'·step (the joint linearisation of both sides).
             at = idx[done]
-            take = inside[done]
-            out["q"][at] = np.where(take, q[done] - q_slope[done] * step[done], q[done])
-            out["x"][at] = np.where(take, x_new[done], x[done])
+            d_step = step[done]
+            take = np.isfinite(d_step) & (size[done] <= np.maximum((b - a)[done], res[done]))
+            out["q"][at] = np.where(take, q[done] - q_slope[done] * d_step, q[done])
+            out["x"][at] = np.where(take, np.clip(x_new[done], a[done], b[done]), x[done])
+            polish = ~on_q[done]
+            if np.any(polish):
+                _heat_flow_at_surface(cases, network, at[polish], out, rtol)
             for name, value in (("h_c", h_c), ("h_r", h_r), ("slope", q_slope)):
                 out[name][at] = value[done]
         live = st["live"] & ~done
@@ -426,6 +437,27 @@ def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
             work = {k: v[idx] for k, v in cases.items()}
             state = {k: v[live] for k, v in state.items()}
     return out["q"], out["x"], out["h_c"], out["h_r"], out["slope"], iterations
+
+
+def _heat_flow_at_surface(cases, network, at, out, rtol, max_steps=50):
+    """Heat flow of the cases *at* from the conduction side, their surface temperature fixed.
+
+    For cases stopped on the surface temperature (resolved to floating point, but with q
+    not yet to *rtol*, as when A·h·R is huge or the flow is tiny), q is the root of
+    march(q) = Ts: Newton steps on the march alone (decreasing in q, derivative exact),
+    no outer-film evaluation.  A step that is not finite keeps the previous q.
+    """
+    sub = {k: v[at] for k, v in cases.items()}
+    x, q = out["x"][at], out["q"][at]
+    for _ in range(max_steps):
+        ts, dts_dq = network.surface(sub, q)
+        dq = (x - ts) / dts_dq
+        q_new = np.where(np.isfinite(dq), q + dq, q)
+        settled = ~(np.abs(q_new - q) > rtol * np.abs(q_new))
+        q = q_new
+        if np.all(settled):
+            break
+    out["q"][at] = q
 
 
 def _span(values) -> str:
