@@ -33,7 +33,7 @@ import time
 from .errors import InputError
 
 __all__ = ["MAX_INPUT_BYTES", "MAX_TOML_DEPTH", "read_text_input", "load_toml", "input_path_problem",
-           "write_text_output", "write_folder"]
+           "write_text_output", "write_bytes_output", "write_folder"]
 
 MAX_INPUT_BYTES = 20 * 1024 * 1024
 """Largest input file read [bytes] (20 MiB): far above any real project or table."""
@@ -350,10 +350,26 @@ def write_text_output(path, text: str, what: str = "--output") -> None:
         ``<what>: PATH is a device, not a file; …`` (or a folder, a socket), or
         ``<what>: cannot write PATH: reason`` for any OS error.
     """
-    data = text if isinstance(text, bytes) else text.encode("utf-8", "backslashreplace")  # bytes: xlsx, png
+    if isinstance(text, bytes):  # a binary format (xlsx, png) handed as bytes
+        write_bytes_output(path, text, what)
+        return
     if os.fspath(path) == "-":
+        sys.stdout.write(text)
         sys.stdout.flush()
-        _straight_to_fd(1, data, what, "-")
+        return
+    write_bytes_output(path, text.encode("utf-8", "backslashreplace"), what)
+
+
+def write_bytes_output(path, data: bytes, what: str = "--output") -> None:
+    """Write *data* to *path* as :func:`write_text_output` writes text (``-`` is the
+    binary standard output)."""
+    if os.fspath(path) == "-":
+        binary = getattr(sys.stdout, "buffer", None)
+        if binary is None:
+            raise InputError(what, "this standard output takes text only; give a file path")
+        sys.stdout.flush()
+        binary.write(data)
+        binary.flush()
         return
     shown = _shown(path)
     path = os.fspath(path)

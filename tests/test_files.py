@@ -618,3 +618,13 @@ def test_output_folder_and_name_clash_one_line_via_the_cli(run, tmp_path):
         fileio.write_folder(f"{a_file}/csv", CSV)
     assert str(info.value) == f"--output: cannot write {a_file}/csv: {a_file} is not a folder"
     assert a_file.read_text() == "mine\n"
+
+
+def test_bytes_output_for_binary_formats(tmp_path, umask, capfdbinary):
+    umask(0o022)
+    target = tmp_path / "book.bin"
+    fileio.write_bytes_output(str(target), b"\x00\xffbinary")
+    assert target.read_bytes() == b"\x00\xffbinary"
+    assert stat.S_IMODE(target.stat().st_mode) == 0o644
+    fileio.write_bytes_output("-", b"\x00raw")
+    assert capfdbinary.readouterr().out == b"\x00raw"
