@@ -1,25 +1,35 @@
 """The project file: a whole job's lines, services and surroundings in one TOML file.
 
-A project file has six kinds of table (see ``examples/*.toml``)::
+A project file has six kinds of table (see ``examples/*.toml``; every key, with its unit
+and default, in ``docs/project-file.md``)::
 
     [project]               name, units ("si" or "us"), currency, code, cost_table, code_tables
-    [energy]                price, co2, efficiency, cop, hours, discount_rate, life, escalation
-    [conditions.<name>]     air, rh, wind, surroundings, altitude
-    [services.<name>]       fluid, temperature or steam_pressure, material, finish, series,
-                            schedule, criteria, max_heat_flow, min_reduction, flow,
-                            max_temp_change, hold_time, ice_fraction, touch_limit,
-                            contact_time, dew_margin, code, cost_table, and the energy keys
-                            (price, co2, efficiency, cop, hours) to override [energy]
-    [[lines]]               service, size, length, condition, valves, flanges, strainers, tag
+    [energy]                price, co2, efficiency, cop, hours, discount_rate, life, escalation,
+                            maintenance
+    [conditions.<name>]     air, rh, wind, surroundings, altitude or air_pressure, orientation,
+                            height, outer_h
+    [services.<name>]       fluid, temperature or steam_pressure, material, finish, emittance,
+                            series, schedule, pipe_material, criteria and their keys, flow,
+                            velocity, inner_h, code, cost_table, and the energy keys
+    [[lines]]               service, size (or od and wall), length, condition, tag, fittings,
+                            and per-line overrides: material, thickness, finish, emittance,
+                            pipe_material, orientation, height
     [report]                project, number, client, revision, date, prepared_by, checked_by
                             (the title block of the HTML and XLSX reports; text)
 
-Quantities are text with their unit (``"82 C"``, ``"2 in"``, ``"120 m"``, ``"10 barg"``,
-``"0.09/kWh"``); a bare number takes the unit of the project's unit system
-(:func:`pipeins.units.parse_quantity`).  Paths are relative to the project file.
+Every value is read by :func:`pipeins.inputs.parse_value`, the reader the command line
+uses too, so the file and the flags accept and refuse the same things.  Quantities are
+text with their unit (``"82 C"``, ``"2 in"``, ``"120 m"``, ``"10 barg"``, ``"0.09/kWh"``); a
+bare number takes the unit of the project's unit system.  Paths are relative to the
+project file.
+
+A line that overrides its service's build-up (material, thickness, finish …) or its
+location (orientation, height) is scheduled under a service or location of its own,
+named after the original with the overrides, e.g. ``hot water (cellular glass)`` or
+``plant_room (vertical, 12 m)``.
 
 :func:`load_project` reads and checks the whole file and raises ONE :class:`ProjectError`
-that lists every problem, each as ``<file>: line <n> (<entry>, <key>): <message>``.
+that lists every problem, each as ``<file>: line <n> (<entry>): <key>: <message>``.
 
 >>> text = '''
 ... [project]
@@ -41,20 +51,21 @@ that lists every problem, each as ``<file>: line <n> (<entry>, <key>): <message>
 >>> parse_project(text.replace("mineral wool", "glas wool"), "demo.toml")
 Traceback (most recent call last):
 ...
-pipeins.project.ProjectError: demo.toml: line 8 (service "hot", material): unknown material "glas wool"; did you mean "glass wool"?
+pipeins.project.ProjectError: demo.toml: line 8 (service "hot"): material: unknown material "glas wool"; did you mean "glass wool"?
 """
 
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
 from .errors import InputError, closest_names
+from .inputs import BY_NAME, PARAMS, check_line, file_word, in_words, parse_value
 
 __all__ = ["ProjectError", "Project", "Energy", "Condition", "Service", "Line", "load_project",
-           "parse_project", "CRITERIA", "DEFAULT_HOURS_PER_YEAR"]
+           "parse_project", "CRITERIA", "DEFAULT_HOURS_PER_YEAR", "KEYS"]
 
 #: Criteria a service may list, in report order.
 CRITERIA = ("code", "touch", "condensation", "heat_flow", "temp_change", "freeze", "economic")
@@ -62,19 +73,29 @@ CRITERIA = ("code", "touch", "condensation", "heat_flow", "temp_change", "freeze
 DEFAULT_HOURS_PER_YEAR = 8760.0
 _FITTINGS = {"valves": "valve", "flanges": "flange", "strainers": "strainer"}
 
-_KEYS = {
-    "project": {"name", "units", "currency", "code", "cost_table", "code_tables"},
-    "energy": {"price", "co2", "efficiency", "cop", "hours", "discount_rate", "life", "escalation"},
-    "conditions": {"air", "rh", "wind", "surroundings", "altitude"},
-    "services": {"fluid", "temperature", "steam_pressure", "material", "finish", "series", "schedule",
-                 "criteria", "max_heat_flow", "min_reduction", "flow", "max_temp_change", "hold_time",
-                 "ice_fraction", "touch_limit", "contact_time", "dew_margin", "code", "cost_table",
-                 "price", "co2", "efficiency", "cop", "hours"},
-    "lines": {"service", "size", "length", "condition", "tag"} | set(_FITTINGS),
+
+def _param_keys(table: str) -> set:
+    return {p.key for p in PARAMS if p.key and table in p.tables}
+
+
+#: Every key the reader knows, per kind of table (the key reference, docs/project-file.md,
+#: lists each one; a test checks it).
+KEYS = {
+    "project": {"name", "units"} | _param_keys("project"),
+    "energy": _param_keys("energy"),
+    "conditions": _param_keys("conditions"),
+    "services": _param_keys("services") | {"criteria"},
+    "lines": _param_keys("lines") | {"service", "condition", "tag"},
     # the title block of the HTML and XLSX reports (pipeins.reports.html.TITLE_BLOCK_KEYS)
     "report": {"project", "number", "client", "revision", "date", "prepared_by", "checked_by"},
 }
+_KEYS = KEYS
+#: (table, key) -> the parameter it fills.
+_PARAM_OF = {(t, p.key): p.name for p in PARAMS if p.key for t in p.tables}
 _TOP = ("project", "energy", "conditions", "services", "lines", "report")
+#: Line keys that give the line a build-up of its own, and those that give it a location of its own.
+_LINE_SERVICE_KEYS = ("material", "thickness", "finish", "emittance", "pipe_material")
+_LINE_CONDITION_KEYS = ("orientation", "height")
 
 
 class ProjectError(InputError):
@@ -85,7 +106,7 @@ class ProjectError(InputError):
     """
 
     def __init__(self, problems: list[str]):
-        self.problems = list(problems)
+        self.problems = list(dict.fromkeys(problems))
         super().__init__("", "\n".join(self.problems))
 
 
@@ -101,6 +122,7 @@ class Energy:
     discount_rate: float = 0.05
     years: float = 20.0
     escalation: float = 0.0
+    maintenance: float = 0.0   # share of the installed cost per year
 
 
 @dataclass(frozen=True)
@@ -114,6 +136,18 @@ class Condition:
     surroundings_temp_c: float | None = None
     pressure_pa: float = 101_325.0
     file_line: int = 0
+    orientation: str = "horizontal"
+    height_m: float | None = None
+    outer_h_w_m2k: float | None = None
+
+    @property
+    def spec_kw(self) -> dict:
+        """The :class:`pipeins.line.LineSpec` fields this location sets beyond air, RH, wind,
+        surroundings and pressure."""
+        kw = {"orientation": self.orientation, "height_m": self.height_m}
+        if self.outer_h_w_m2k is not None:
+            kw["outer_h_w_m2k"] = self.outer_h_w_m2k
+        return kw
 
 
 @dataclass(frozen=True)
@@ -135,6 +169,11 @@ class Service:
     energy: Energy
     cost_table: Any            # pipeins.economics.CostTable or None
     file_line: int = 0
+    emittance: float | None = None
+    pipe_material: str | None = None
+    velocity_m_s: float | None = None
+    inner_h_w_m2k: float | None = None
+    base: str | None = None    # the service a line's overrides derive this one from
 
     @property
     def fluid_temp_c(self) -> float:
@@ -144,6 +183,14 @@ class Service:
 
             return float(saturation_temp_c(self.steam_pressure_pa))
         return float(self.temp_c)
+
+    @property
+    def spec_kw(self) -> dict:
+        """The :class:`pipeins.line.LineSpec` fields this service sets beyond fluid,
+        temperature, flow and finish."""
+        kw = {"emittance": self.emittance, "pipe_material": self.pipe_material,
+              "velocity_m_s": self.velocity_m_s, "inner_h_w_m2k": self.inner_h_w_m2k}
+        return {k: v for k, v in kw.items() if v is not None}
 
 
 @dataclass(frozen=True)
@@ -236,8 +283,7 @@ class _Positions:
 
 def _where(file_name: str, file_line: int, entry: str, key: str | None = None) -> str:
     place = f"line {file_line} " if file_line else ""
-    inside = f"{entry}, {key}" if key else entry
-    return f"{file_name}: {place}({inside})"
+    return f"{file_name}: {place}({entry})" + (f": {key}" if key else "")
 
 
 # --------------------------------------------------------------------------- the reader
@@ -249,27 +295,30 @@ class _Reader:
         self.pos = _Positions(text)
         self.problems: list[str] = []
         self.units = "si"
+        self.currency = ""
+        self.code_paths: tuple = ()
 
     # -- reporting --------------------------------------------------------------------
     def problem(self, path: tuple, entry: str, key: str | None, message: str) -> None:
         line = self.pos.key(path, key) if key else self.pos.header(path)
-        self.problems.append(f"{_where(self.file_name, line, entry, key)}: {message}")
+        self.problems.append(f"{_where(self.file_name, line, entry, key)}: {in_words(message, file_word)}")
 
     def guard(self, path, entry, key, func, *args, **kw):
         """Call *func*; an InputError becomes a problem at (path, key) and the result None."""
         try:
             return func(*args, **kw)
         except InputError as exc:
-            self.problem(path, entry, key, exc.message)
+            for name, message in getattr(exc, "items", None) or [(exc.name, exc.message)]:
+                self.problem(path, entry, key, message)
             return None
 
     # -- typed values -----------------------------------------------------------------
     def check_keys(self, table: dict, kind: str, path: tuple, entry: str, required=()):
-        allowed = _KEYS[kind]
+        allowed = KEYS[kind]
         for key in table:
             if key not in allowed:
-                hint = closest_names(key, sorted(allowed))
-                self.problem(path, entry, key, f'unknown key "{key}"; {hint}')
+                hint = closest_names(str(key), sorted(allowed))
+                self.problem(path, entry, str(key), f'unknown key "{key}"; {hint}')
         for key in required:
             if key not in table:
                 self.problem(path, entry, None, f'the key "{key}" is missing')
@@ -283,92 +332,40 @@ class _Reader:
             return default
         return value.strip()
 
-    def quantity(self, table, key, kind, path, entry, default=None, positive=False, at_least_zero=False):
+    def value(self, table, kind, key, path, entry, default=None):
+        """The value of *key*, read by :func:`pipeins.inputs.parse_value` (the command
+        line's reader) for the parameter the key fills; *default* when absent or refused."""
         if key not in table:
             return default
-        from .units import parse_quantity
-
-        value = table[key]
-        if isinstance(value, bool) or not isinstance(value, (str, int, float)):
+        param = BY_NAME[_PARAM_OF[(kind, key)]]
+        raw = table[key]
+        if param.kind == "text":
+            return self.text_value(table, key, path, entry, default)
+        if param.kind not in ("count", "choice") and (isinstance(raw, bool) or not isinstance(raw, (str, int, float))):
             self.problem(path, entry, key, f"{key} must be a number or text with a unit, e.g. {key} = \"…\"")
             return default
-        result = self.guard(path, entry, key, parse_quantity, value, kind, key, self.units)
-        if result is None:
-            return default
-        number = getattr(result, "value_si", result)
-        if positive and not number > 0:
-            self.problem(path, entry, key, f"{key} must be greater than zero")
-            return default
-        if at_least_zero and not number >= 0:
-            self.problem(path, entry, key, f"{key} must be zero or more")
-            return default
-        return result
+        result = self.guard(path, entry, key, parse_value, param.name, raw, self.units)
+        return default if result is None else result
 
-    def fraction(self, table, key, path, entry, default=None, low=0.0, high=None, what=""):
-        """A percentage ("6%", or a bare number read as percent) → fraction."""
-        value = self.quantity(table, key, "percent", path, entry)
-        if value is None:
-            return default
-        frac = value / 100.0
-        if frac < low or (high is not None and frac > high):
-            self.problem(path, entry, key, what)
-            return default
-        return frac
+    def values(self, table, kind, path, entry, keys) -> dict:
+        """Parameter → value of every *keys* present in *table* (refused ones left out)."""
+        out = {}
+        for key in keys:
+            if key in table:
+                v = self.value(table, kind, key, path, entry)
+                if v is not None:
+                    out[_PARAM_OF[(kind, key)]] = v
+        return out
 
-    def number(self, table, key, path, entry, default=None, check=None, what=""):
-        if key not in table:
-            return default
-        value = table[key]
-        if isinstance(value, bool) or not isinstance(value, (int, float)):
-            self.problem(path, entry, key, f"{key} must be a plain number; {what}")
-            return default
-        if check is not None and not check(float(value)):
-            self.problem(path, entry, key, f"{value:g} is not allowed; {what}")
-            return default
-        return float(value)
-
-    def count(self, table, key, path, entry):
-        if key not in table:
-            return 0
-        value = table[key]
-        if isinstance(value, bool) or not isinstance(value, int) or value < 0:
-            self.problem(path, entry, key, f"{key} must be a whole number, 0 or more")
-            return 0
-        return int(value)
-
-    def per_energy(self, table, key, path, entry, what):
-        """"0.085/kWh" (price) or "0.20 kg/kWh" (CO2) → (number, unit)."""
-        if key not in table:
-            return None
-        value = table[key]
-        m = re.match(r"^\s*[$€£¥]?\s*(\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*[$€£¥]?\s*(?:kg\s*)?(?:/|\bper\b)\s*(\S+)\s*$",
-                     value if isinstance(value, str) else "", re.IGNORECASE)
-        if not m:
-            self.problem(path, entry, key, f'cannot read {value!r} as {what}; use e.g. "0.09/kWh", "9/GJ" '
-                                           'or "1.05/therm"')
-            return None
-        from .units import energy_unit_joules
-
-        if self.guard(path, entry, key, energy_unit_joules, m.group(2)) is None:
-            return None
-        return float(m.group(1)), m.group(2)
-
-    def years(self, table, key, path, entry):
-        if key not in table:
-            return None
-        value = table[key]
-        m = re.match(r"^\s*(\d+\.?\d*)\s*(years?|yr|a)?\s*$", value if isinstance(value, str) else "", re.I)
-        if isinstance(value, (int, float)) and not isinstance(value, bool):
-            number = float(value)
-        elif m:
-            number = float(m.group(1))
-        else:
-            self.problem(path, entry, key, f'cannot read {value!r} as a life; use e.g. "15 years" or 15')
-            return None
-        if not number > 0:
-            self.problem(path, entry, key, "the life must be greater than zero years")
-            return None
-        return number
+    def cross_check(self, given: dict, origin: dict, fallback: tuple, skip=()) -> None:
+        """The rules between inputs (:func:`pipeins.inputs.check_line`), each problem
+        placed at the key of the parameter it names (``origin``: parameter → (path,
+        entry, key))."""
+        for name, message in check_line(given):
+            if (name, message) in skip:
+                continue
+            path, entry, key = origin.get(name) or fallback
+            self.problem(path, entry, key, message)
 
     def path_value(self, table, key, path, entry):
         name = self.text_value(table, key, path, entry)
@@ -385,33 +382,20 @@ class _Reader:
 
     # -- tables -----------------------------------------------------------------------
     def energy_fields(self, table, path, entry, base: Energy | None) -> Energy:
-        from .economics import EmissionFactor, EnergyPrice
-
         base = base or Energy()
         kw = dict(base.__dict__)
-        price = self.per_energy(table, "price", path, entry, "an energy price")
-        if price is not None:
-            kw["price"] = self.guard(path, entry, "price", EnergyPrice, price[0], price[1], self.currency)
-        co2 = self.per_energy(table, "co2", path, entry, "an emission factor (kg CO2 per unit)")
-        if co2 is not None:
-            kw["co2"] = self.guard(path, entry, "co2", EmissionFactor, co2[0], co2[1])
-        kw["efficiency"] = self.quantity(table, "efficiency", "efficiency", path, entry, base.efficiency)
-        kw["cop"] = self.number(table, "cop", path, entry, base.cop, lambda x: x > 0, "the COP is greater than 0")
-        hours = self.quantity(table, "hours", "time", path, entry)
-        if hours is not None:
-            if not 0 < hours / 3600 <= 8784:
-                self.problem(path, entry, "hours", "operating hours must be above 0 and at most 8784 h per year")
-            else:
-                kw["hours_per_year"] = hours / 3600
-        if "discount_rate" in table:
-            kw["discount_rate"] = self.fraction(table, "discount_rate", path, entry, base.discount_rate, -0.99, None,
-                                                "the discount rate must be above -100 %")
-        if "escalation" in table:
-            kw["escalation"] = self.fraction(table, "escalation", path, entry, base.escalation, -0.99, None,
-                                             "the escalation must be above -100 %")
-        life = self.years(table, "life", path, entry)
-        if life is not None:
-            kw["years"] = life
+        v = self.values(table, "energy", path, entry, [k for k in KEYS["energy"] if k in table])
+        if "price" in v:
+            kw["price"] = replace(v["price"], currency=self.currency or v["price"].currency)
+        if "emission" in v:
+            kw["co2"] = v["emission"]
+        for name, target in (("efficiency", "efficiency"), ("cop", "cop"), ("discount_rate", "discount_rate"),
+                             ("years", "years"), ("escalation", "escalation"),
+                             ("maintenance_fraction", "maintenance")):
+            if name in v:
+                kw[target] = v[name]
+        if "hours_per_year" in v:
+            kw["hours_per_year"] = v["hours_per_year"] / 3600.0
         return Energy(**kw)
 
     def rule_set(self, table, path, entry, default):
@@ -501,7 +485,7 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
         r.problems.append(f"{file_name}: report must be a table [report]")
     else:
         r.check_keys(report_table, "report", ("report",), "report")
-        for key in sorted(report_table.keys() & _KEYS["report"]):
+        for key in sorted(report_table.keys() & KEYS["report"]):
             if hasattr(report_table[key], "isoformat"):
                 report_block[key] = report_table[key].isoformat()
             else:
@@ -513,32 +497,37 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
     if isinstance(energy_table, dict):
         r.check_keys(energy_table, "energy", ("energy",), "energy")
         energy = r.energy_fields(energy_table, ("energy",), "energy", None)
+    else:
+        r.problems.append(f"{file_name}: energy must be a table [energy] with keys")
 
     # [conditions.*]
     conditions: dict[str, Condition] = {}
+    condition_values: dict[str, tuple] = {}
     for cname, table in _named_tables(r, data, "conditions", "condition").items():
         p, entry = ("conditions", cname), f'condition "{cname}"'
         r.check_keys(table, "conditions", p, entry, required=("air",))
-        air = r.quantity(table, "air", "temperature", p, entry)
-        rh = r.quantity(table, "rh", "percent", p, entry)
-        if rh is not None and not 0 < rh <= 100:
-            r.problem(p, entry, "rh", f"{rh:g} % is not allowed; relative humidity is above 0 and at most 100 %")
-            rh = None
-        wind = r.quantity(table, "wind", "speed", p, entry, 0.0, at_least_zero=True)
-        surroundings = r.quantity(table, "surroundings", "temperature", p, entry)
-        altitude = r.quantity(table, "altitude", "length", p, entry)
-        pressure = 101_325.0
-        if altitude is not None:
+        before = len(r.problems)
+        v = r.values(table, "conditions", p, entry, [k for k in KEYS["conditions"] if k in table])
+        origin = {_PARAM_OF[("conditions", k)]: (p, entry, k) for k in table if ("conditions", k) in _PARAM_OF}
+        r.cross_check(v, origin, (p, entry, None))
+        condition_values[cname] = (v, origin)
+        pressure = v.get("pressure_pa", 101_325.0)
+        if "altitude_m" in v and "pressure_pa" not in v:
             from .model import pressure_at_altitude_pa
 
-            pressure = r.guard(p, entry, "altitude", lambda a: float(pressure_at_altitude_pa(a)), altitude) or pressure
-        if air is not None:
-            conditions[cname] = Condition(cname, air, rh, wind, surroundings, pressure, r.pos.header(p))
+            pressure = r.guard(p, entry, "altitude", lambda a: float(pressure_at_altitude_pa(a)),
+                               v["altitude_m"]) or pressure
+        if "air_temp_c" in v and len(r.problems) == before:
+            conditions[cname] = Condition(cname, v["air_temp_c"], v.get("rh_percent"), v.get("wind_m_s", 0.0),
+                                          v.get("surroundings_temp_c"), pressure, r.pos.header(p),
+                                          v.get("orientation", "horizontal"), v.get("height_m"),
+                                          v.get("outer_h_w_m2k"))
 
     # [services.*]
     services: dict[str, Service] = {}
+    service_values: dict[str, tuple] = {}
     for sname, table in _named_tables(r, data, "services", "service").items():
-        service = _service(r, sname, table, energy, code, cost_table)
+        service = _service(r, sname, table, energy, code, cost_table, service_values)
         if service is not None:
             services[sname] = service
 
@@ -550,24 +539,24 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
         raw_lines = []
     if not raw_lines:
         r.problems.append(f"{file_name}: no [[lines]]: add at least one line with service, size, length "
-                              "and condition")
-    counter: dict[tuple, int] = {}
+                          "and condition")
+    raw_services = data.get("services", {}) if isinstance(data.get("services"), dict) else {}
+    raw_conditions = data.get("conditions", {}) if isinstance(data.get("conditions"), dict) else {}
+    seen: dict[str, int] = {}
     for index, table in enumerate(raw_lines, start=1):
-        line = _line(r, index, table, services, conditions, data.get("services", {}), data.get("conditions", {}))
+        # tags name lines: a repeated one is reported with the line's other problems
+        tag = table.get("tag") if isinstance(table.get("tag"), str) else ""
+        duplicate = seen.get(tag) if tag else None
+        if tag:
+            seen.setdefault(tag, index)
+        line = _line(r, index, table, services, conditions, raw_services, raw_conditions, service_values,
+                     condition_values, duplicate)
         if line is not None:
             lines.append(line)
-    # tags name lines: unique ones
-    seen: dict[str, int] = {}
-    for line in lines:
-        if not line.tag:
-            continue
-        if line.tag in seen:
-            r.problem(("lines", line.index), f"lines entry {line.index}", "tag",
-                      f'tag "{line.tag}" is already used by lines entry {seen[line.tag]}')
-        seen.setdefault(line.tag, line.index)
     if r.problems:
         raise ProjectError(r.problems)
     # automatic ids: "service size condition #n"
+    counter: dict[tuple, int] = {}
     out = []
     for line in lines:
         if line.tag:
@@ -575,8 +564,7 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
             continue
         key = (line.service, line.size.label, line.condition)
         counter[key] = counter.get(key, 0) + 1
-        out.append(Line(line.index, f"{line.service} {line.size.label} {line.condition} #{counter[key]}",
-                        line.service, line.size, line.length_m, line.condition, line.fittings, line.file_line))
+        out.append(replace(line, tag=f"{line.service} {line.size.label} {line.condition} #{counter[key]}"))
     return Project(name, units, r.currency, Path(base_dir) / file_name, code, r.code_paths, energy, conditions,
                    services, out, cost_table, file_name, {k: v for k, v in report_block.items() if v})
 
@@ -606,15 +594,19 @@ def _named_tables(r: _Reader, data: dict, top: str, what: str) -> dict[str, dict
     return out
 
 
-def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_table) -> Service | None:
+def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_table, service_values) -> Service | None:
     from .criteria import Requirements
     from .sizing import DEFAULT_DEW_MARGIN_K
 
     p, entry = ("services", sname), f'service "{sname}"'
     r.check_keys(table, "services", p, entry, required=("material",))
     ok_before = len(r.problems)
-    temp = r.quantity(table, "temperature", "temperature", p, entry)
-    steam = r.quantity(table, "steam_pressure", "steam_pressure", p, entry, positive=True)
+    quantity_keys = [k for k in KEYS["services"] if k in table and k not in
+                     ("criteria", "code", "cost_table", "fluid", "material", "finish", "series", "schedule",
+                      "pipe_material") and k not in KEYS["energy"]]
+    v = r.values(table, "services", p, entry, quantity_keys)
+    origin = {_PARAM_OF[("services", k)]: (p, entry, k) for k in table if ("services", k) in _PARAM_OF}
+    temp, steam = v.get("fluid_temp_c"), v.get("steam_pressure_pa")
     if "temperature" in table and "steam_pressure" in table:
         r.problem(p, entry, "steam_pressure", "give temperature or steam_pressure, not both")
     elif "temperature" not in table and "steam_pressure" not in table:
@@ -645,6 +637,11 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
         from .catalog.finishes import lookup_finish
 
         r.guard(p, entry, "finish", lookup_finish, finish)
+    pipe_material = r.text_value(table, "pipe_material", p, entry)
+    if pipe_material is not None:
+        from .catalog.materials import lookup_wall_material
+
+        r.guard(p, entry, "pipe_material", lookup_wall_material, pipe_material)
     series = r.text_value(table, "series", p, entry)
     if series is not None:
         from .catalog.series import series_names
@@ -652,6 +649,10 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
         if series not in series_names():
             r.problem(p, entry, "series", f'unknown thickness series "{series}"; {closest_names(series, series_names())}')
     schedule = r.text_value(table, "schedule", p, entry)
+    given = {**v, "finish": finish}
+    r.cross_check({k: x for k, x in given.items() if k not in ("fluid_temp_c", "steam_pressure_pa")}, origin,
+                  (p, entry, None))
+    service_values[sname] = (given, origin)
     criteria = None
     if "criteria" in table:
         items = table["criteria"]
@@ -664,16 +665,8 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
                     r.problem(p, entry, "criteria", f'unknown criterion "{item}"; {closest_names(item, CRITERIA)}')
                 else:
                     criteria.append(item)
-    max_q = r.quantity(table, "max_heat_flow", "heat_flow_per_length", p, entry, positive=True)
-    reduction = r.fraction(table, "min_reduction", p, entry, None, 0.0, 1.0,
-                           "the reduction must be above 0 % and below 100 %")
-    flow = r.quantity(table, "flow", "flow", p, entry, positive=True)
-    max_dt = r.quantity(table, "max_temp_change", "temperature_difference", p, entry, positive=True)
-    hold = r.quantity(table, "hold_time", "time", p, entry, positive=True)
-    ice = r.fraction(table, "ice_fraction", p, entry, 0.0, 0.0, 1.0, "the ice fraction is from 0 to 100 %")
-    touch_limit = r.quantity(table, "touch_limit", "temperature", p, entry)
-    contact = r.quantity(table, "contact_time", "time", p, entry, positive=True)
-    dew = r.quantity(table, "dew_margin", "temperature_difference", p, entry, DEFAULT_DEW_MARGIN_K, at_least_zero=True)
+    max_q, reduction = v.get("max_heat_flow_w_per_m"), v.get("min_reduction")
+    flow, max_dt, hold = v.get("flow"), v.get("max_temp_change_k"), v.get("hold_time_s")
     scode = r.rule_set(table, p, entry, code)
     scost = r.cost_table(table, p, entry) if "cost_table" in table else cost_table
     senergy = r.energy_fields(table, p, entry, energy)
@@ -709,27 +702,32 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
         return None
     req = Requirements(
         touch="touch" in criteria,
-        touch_limit_c=touch_limit, contact_time_s=contact, dew_margin_k=dew,
+        touch_limit_c=v.get("touch_limit_c"), contact_time_s=v.get("contact_time_s"),
+        dew_margin_k=v.get("dew_margin_k", DEFAULT_DEW_MARGIN_K),
         max_heat_flow_w_per_m=max_q if "heat_flow" in criteria else None,
         min_reduction=reduction if "heat_flow" in criteria else None,
         max_temp_change_k=max_dt if "temp_change" in criteria else None,
         hold_time_s=hold if "freeze" in criteria else None,
-        ice_fraction=ice,
+        ice_fraction=v.get("ice_fraction", 0.0),
     )
     return Service(sname, fluid, temp, steam, material, finish, series, schedule, tuple(criteria), req, flow,
-                   scode if "code" in criteria else None, senergy,
-                   scost, r.pos.header(p))
+                   scode if "code" in criteria else None, senergy, scost, r.pos.header(p),
+                   emittance=v.get("emittance"), pipe_material=pipe_material, velocity_m_s=v.get("velocity_m_s"),
+                   inner_h_w_m2k=v.get("inner_h_w_m2k"))
 
 
-def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict, raw_services,
-          raw_conditions) -> Line | None:
+def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict, raw_services, raw_conditions,
+          service_values, condition_values, duplicate: int | None) -> Line | None:
     p = ("lines", index)
     tag = table.get("tag") if isinstance(table.get("tag"), str) else ""
     entry = f"lines entry {index}" + (f' "{tag}"' if tag else "")
-    r.check_keys(table, "lines", p, entry, required=("service", "size", "length", "condition"))
+    required = ("service", "length", "condition") + (() if "od" in table or "wall" in table else ("size",))
+    r.check_keys(table, "lines", p, entry, required=required)
     before = len(r.problems)
     if "tag" in table:
         r.text_value(table, "tag", p, entry)
+    if duplicate is not None:
+        r.problem(p, entry, "tag", f'tag "{tag}" is already used by lines entry {duplicate}')
     sname = r.text_value(table, "service", p, entry)
     if sname is not None and sname not in raw_services:
         r.problem(p, entry, "service", f'unknown service "{sname}"; {closest_names(sname, list(raw_services) or ["(none)"])}')
@@ -737,24 +735,93 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     if cname is not None and cname not in raw_conditions:
         known = list(raw_conditions) or ["(none)"]
         r.problem(p, entry, "condition", f'unknown condition "{cname}"; {closest_names(cname, known)}')
+    own_keys = [k for k in KEYS["lines"] if k in table and k not in ("service", "condition", "tag", "size")]
+    v = r.values(table, "lines", p, entry, own_keys)
+    origin = {_PARAM_OF[("lines", k)]: (p, entry, k) for k in table if ("lines", k) in _PARAM_OF}
     size_text = r.text_value(table, "size", p, entry)
+    service = services.get(sname)
     size = None
     if size_text is not None:
         from .catalog.pipes import lookup_pipe
 
-        service = services.get(sname)
         schedule = service.schedule if service is not None else None
         if schedule is not None and not size_text.strip().upper().startswith("NPS"):
             schedule = None  # a steel schedule applies to NPS sizes only
         size = r.guard(p, entry, "size", lookup_pipe, size_text, schedule)
-    length = r.quantity(table, "length", "length", p, entry, positive=True)
-    fittings = {kind: r.count(table, key, p, entry) for key, kind in _FITTINGS.items()}
+    if "od" in table or "wall" in table:
+        if size_text is not None:
+            r.problem(p, entry, "od", "give a catalogue size or od with wall, not both")
+        elif "outer_diameter_m" in v and "wall_m" in v:
+            from .catalog.pipes import custom_pipe
+
+            size = r.guard(p, entry, "wall", custom_pipe, v["outer_diameter_m"], v["wall_m"])
+        elif "od" not in table or "wall" not in table:
+            r.problem(p, entry, "od" if "od" not in table else "wall", "a pipe not in the catalogues needs both "
+                                                                        "od and wall")
+    if "material" in v:
+        from .units import material_in_si
+
+        v["material"] = r.guard(p, entry, "material", material_in_si, v["material"], r.units, "material")
+        if v["material"] is None:
+            del v["material"]
+    for key in ("material", "finish", "pipe_material"):
+        if key in v:
+            from .catalog.finishes import lookup_finish
+            from .catalog.materials import lookup_material, lookup_wall_material
+
+            look = {"material": lookup_material, "finish": lookup_finish, "pipe_material": lookup_wall_material}[key]
+            r.guard(p, entry, key, look, v[key])
+    # the rules between inputs, over what this line gets from its location, its service and itself
+    cvals, corigin = condition_values.get(cname, ({}, {}))
+    svals, sorigin = service_values.get(sname, ({}, {}))
+    merged = {**cvals, **{k: x for k, x in svals.items() if k not in ("fluid_temp_c", "steam_pressure_pa")}, **v}
+    already = set(check_line(cvals)) | set(check_line(svals))
+    r.cross_check(merged, {**corigin, **sorigin, **origin}, (p, entry, None), skip=already)
+    fittings = {}
+    for key, kind in _FITTINGS.items():
+        fittings[kind] = v.get(key, 0) if key in v else 0
     if size is not None and any(fittings.values()):
         from .catalog.fittings import equivalent_length_m
 
         for kind, n in fittings.items():
             if n:
                 r.guard(p, entry, kind + "s", equivalent_length_m, kind, size.outer_diameter_m)
-    if len(r.problems) > before or sname not in services or cname not in conditions:
+    if (len(r.problems) > before or sname not in services or cname not in conditions or size is None
+            or "length_m" not in v):
         return None
-    return Line(index, tag, sname, size, length, cname, fittings, r.pos.header(p))
+    sname = _line_service(services, sname, table, v, r.pos.header(p))
+    cname = _line_condition(conditions, cname, table, v)
+    return Line(index, tag, sname, size, v["length_m"], cname, fittings, r.pos.header(p))
+
+
+def _written(table: dict, keys) -> str:
+    return ", ".join(str(table[k]) for k in keys if k in table)
+
+
+def _line_service(services: dict, sname: str, table: dict, v: dict, file_line: int) -> str:
+    """The service a line is scheduled under: its own service, or one derived from it
+    with the line's build-up (material, thickness, finish, emittance, pipe material)."""
+    if not any(k in table for k in _LINE_SERVICE_KEYS):
+        return sname
+    base = services[sname]
+    name = f"{sname} ({_written(table, _LINE_SERVICE_KEYS)})"
+    if name not in services:
+        services[name] = replace(
+            base, name=name, material=v.get("material", base.material), finish=v.get("finish", base.finish),
+            emittance=v.get("emittance", base.emittance), pipe_material=v.get("pipe_material", base.pipe_material),
+            series=(v["thickness_m"],) if "thickness_m" in v else base.series, file_line=file_line, base=sname)
+    return name
+
+
+def _line_condition(conditions: dict, cname: str, table: dict, v: dict) -> str:
+    """The location a line is scheduled in: its own, or one derived with the line's
+    orientation and height."""
+    if not any(k in table for k in _LINE_CONDITION_KEYS):
+        return cname
+    base = conditions[cname]
+    name = f"{cname} ({_written(table, _LINE_CONDITION_KEYS)})"
+    if name not in conditions:
+        orientation = v.get("orientation", base.orientation)
+        conditions[name] = replace(base, name=name, orientation=orientation,
+                                   height_m=v.get("height_m", base.height_m if orientation == "vertical" else None))
+    return name

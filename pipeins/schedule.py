@@ -129,6 +129,8 @@ def _spec(service, condition, length_m=None, with_rh=True):
               pressure_pa=condition.pressure_pa, finish=service.finish, length_m=length_m)
     if service.requirements.touch_limit_c is not None:
         kw["touch_limit_c"] = service.requirements.touch_limit_c
+    kw.update(condition.spec_kw)   # orientation, height, fixed outer coefficient
+    kw.update(service.spec_kw)     # emittance, pipe material, velocity, inner film
     return LineSpec(**kw)
 
 
@@ -139,7 +141,7 @@ def _basis(service, cold: bool, with_cost: bool):
     return EnergyBasis(hours_per_year=e.hours_per_year, price=e.price,
                        efficiency=1.0 if cold and e.cop else e.efficiency,
                        cop=e.cop if cold else None, emission=e.co2, discount_rate=e.discount_rate,
-                       years=e.years, escalation=e.escalation,
+                       years=e.years, escalation=e.escalation, maintenance_fraction=e.maintenance,
                        cost_table=service.cost_table if with_cost else None)
 
 
