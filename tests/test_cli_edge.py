@@ -240,7 +240,7 @@ def project_problems(**kw):
 
 def test_project_rh_fraction_refused():
     assert project_problems(rh="0.7") == [
-        'edge.toml: line 9 (condition "room", rh): 0.7 is read as percent; did you mean 70 %? '
+        'edge.toml: line 9 (condition "room"): rh: 0.7 is read as percent; did you mean 70 %? '
         "(write 0.7 % if you mean it)"]
 
 
@@ -256,7 +256,7 @@ def test_project_efficiency_spellings(text):
 
 def test_project_steam_pressure_needs_gauge_or_absolute():
     assert project_problems(service='steam_pressure = "10 bar"') == [
-        'edge.toml: line 11 (service "hot", steam_pressure): "10 bar" does not say gauge or absolute; '
+        'edge.toml: line 11 (service "hot"): steam_pressure: "10 bar" does not say gauge or absolute; '
         "write e.g. 10 barg (gauge) or 10 bara (absolute)"]
     assert project(service='steam_pressure = "10 barg"').services["hot"].steam_pressure_pa == 1_101_325.0
 
