@@ -517,7 +517,7 @@ def test_cost_table_not_utf8(run, tmp_path):
     assert (code, out) == (2, "")
     line = next(n for n, row in enumerate((tmp_path / "hospital_steam.toml").read_text().splitlines(), 1)
                 if row.startswith("cost_table"))
-    assert err.splitlines()[0] == (f"Error: hospital_steam.toml: line {line} (project, cost_table): "
+    assert err.splitlines()[0] == (f"Error: hospital_steam.toml: line {line} (project): cost_table: "
                                    f"{tmp_path}/costs_demo.csv: not UTF-8 text (byte 0xa0 at offset {offset + 3}); "
                                    "save it as UTF-8")
     assert all(row.startswith("Error: hospital_steam.toml: line ") for row in err.splitlines())
@@ -558,8 +558,8 @@ def test_nul_byte_in_a_path(run, tmp_path):
     path.write_text('[project]\nname = "nul"\ncost_table = "\\u0000"\ncode_tables = ["a\\u0000b"]\n')
     code, out, err = run("schedule", str(path))
     assert (code, out) == (2, "")
-    assert "Error: nul.toml: line 3 (project, cost_table): the file name contains a NUL byte\n" in err
-    assert "Error: nul.toml: line 4 (project, code_tables): the file name contains a NUL byte\n" in err
+    assert "Error: nul.toml: line 3 (project): cost_table: the file name contains a NUL byte\n" in err
+    assert "Error: nul.toml: line 4 (project): code_tables: the file name contains a NUL byte\n" in err
     with pytest.raises(InputError) as info:
         fileio.read_text_input("a\x00b", "--cost-table")
     assert str(info.value) == "--cost-table: a\\x00b: the file name contains a NUL byte"
