@@ -254,7 +254,7 @@ def test_unknown_report_key_is_an_error():
     text = '[project]\nname = "x"\n[report]\nchecker = "B"\n'
     with pytest.raises(Exception) as exc:
         parse_project(text, "demo.toml")
-    assert 'demo.toml: line 4 (report, checker): unknown key "checker"' in str(exc.value)
+    assert 'demo.toml: line 4 (report): checker: unknown key "checker"' in str(exc.value)
 
 
 def test_every_text_is_escaped():
