@@ -295,6 +295,17 @@ def _fsync_folder(folder: str) -> None:
         os.close(fd)
 
 
+_O_NOCTTY = getattr(os, "O_NOCTTY", 0)
+_O_BINARY = getattr(os, "O_BINARY", 0)  # Windows: no newline translation
+
+
+def _chmod(fd: int, path: str, mode: int) -> None:
+    if hasattr(os, "fchmod"):
+        os.fchmod(fd, mode)
+    else:  # Windows keeps only the read-only bit
+        os.chmod(path, mode)
+
+
 def _write_fd(fd: int, data: bytes) -> None:
     view = memoryview(data)
     while view:
@@ -317,7 +328,7 @@ def _is_terminal(st: os.stat_result, path: str) -> bool:
     if sys.platform.startswith("linux"):
         return os.major(st.st_rdev) in _TTY_MAJORS
     try:
-        fd = os.open(path, os.O_RDONLY | os.O_NOCTTY | os.O_NONBLOCK)
+        fd = os.open(path, os.O_RDONLY | _O_NOCTTY | getattr(os, "O_NONBLOCK", 0))
     except OSError:
         return False
     try:
@@ -400,7 +411,7 @@ def write_bytes_output(path, data: bytes, what: str = "--output") -> None:
             _straight_to_fd(std, data, what, shown)
             return
         try:
-            fd = os.open(path, os.O_WRONLY | os.O_NOCTTY)
+            fd = os.open(path, os.O_WRONLY | _O_NOCTTY)
         except OSError as exc:
             raise InputError(what, f"cannot write {shown}: {_reason(exc)}") from None
         try:
@@ -435,8 +446,8 @@ def _atomic_file(real: str, data: bytes, mode: int | None, what: str, shown: str
     try:
         with _signals_abort():
             try:
-                fd = os.open(tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o600)
-                os.fchmod(fd, (0o666 & ~_umask()) if mode is None else mode)
+                fd = os.open(tmp, os.O_WRONLY | os.O_CREAT | os.O_EXCL | _O_BINARY, 0o600)
+                _chmod(fd, tmp, (0o666 & ~_umask()) if mode is None else mode)
                 _write_fd(fd, data)
                 os.fsync(fd)
                 os.close(fd)
@@ -546,9 +557,9 @@ def _swap_in(parent, name, target, files, shown, what):
     aside = None  # the old folder, once set aside by hand
     try:
         for file_name, text in files.items():
-            fd = os.open(os.path.join(new, file_name), os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o600)
+            fd = os.open(os.path.join(new, file_name), os.O_WRONLY | os.O_CREAT | os.O_EXCL | _O_BINARY, 0o600)
             try:
-                os.fchmod(fd, 0o666 & ~umask)
+                _chmod(fd, os.path.join(new, file_name), 0o666 & ~umask)
                 _write_fd(fd, text.encode("utf-8", "backslashreplace"))
                 os.fsync(fd)
             finally:
