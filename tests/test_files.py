@@ -16,6 +16,8 @@ import time
 from pathlib import Path
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from pipeins import fileio
 from pipeins.errors import InputError
@@ -628,3 +630,34 @@ def test_bytes_output_for_binary_formats(tmp_path, umask, capfdbinary):
     assert stat.S_IMODE(target.stat().st_mode) == 0o644
     fileio.write_bytes_output("-", b"\x00raw")
     assert capfdbinary.readouterr().out == b"\x00raw"
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.binary(max_size=300))
+def test_any_bytes_read_as_text_or_one_line_error(tmp_path_factory, data):
+    path = tmp_path_factory.mktemp("fuzz") / "x.toml"
+    path.write_bytes(data)
+    try:
+        text = fileio.read_text_input(path, "PROJECT")
+    except InputError as exc:
+        assert "\n" not in str(exc) and str(exc).startswith(f"PROJECT: {path}: ")
+        return
+    assert "\x00" not in text and not text.startswith("\ufeff")
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.lists(st.sampled_from(["[", "]", "{", "}", "a = ", "1", ",", '"', "\n", "#", "'"]), max_size=400))
+def test_any_bracket_soup_parses_or_fails_cleanly(tokens):
+    import tomllib
+
+    text = "".join(tokens)
+    try:
+        fileio.load_toml(text, "soup.toml")
+    except (InputError, tomllib.TOMLDecodeError) as exc:
+        assert "\n" not in str(exc)
+    levels = len(tokens) * 3 + 1
+    deep = "x = " + "[" * levels + "]" * levels
+    try:
+        assert fileio.load_toml(deep, "deep.toml")["x"] is not None and levels <= fileio.MAX_TOML_DEPTH
+    except InputError as exc:
+        assert str(exc) == "deep.toml: line 1: tables and arrays nested deeper than 32 levels"
