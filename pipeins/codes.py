@@ -148,6 +148,22 @@ class Interval:
 
         return f"{'[' if self.low_closed else '('}{num(self.low)}..{num(self.high)}{']' if self.high_closed else ')'}"
 
+    def text(self, unit: str) -> str:
+        """The range for a report, never showing inf: ``[105..140] °F``, ``above 350 °F``,
+        ``8 in NPS and above``, ``below 40 °F``, ``all``.
+
+        >>> Interval.parse("(350..inf)").text("°F"), Interval.parse("[8..inf)").text("in NPS")
+        ('above 350 °F', '8 in NPS and above')
+        """
+        low, high = (_fmt(x, 9) for x in (self.low, self.high))
+        if math.isinf(self.low) and math.isinf(self.high):
+            return f"all ({unit})"
+        if math.isinf(self.high):
+            return f"{low} {unit} and above" if self.low_closed else f"above {low} {unit}"
+        if math.isinf(self.low):
+            return f"{high} {unit} and below" if self.high_closed else f"below {high} {unit}"
+        return f"{self} {unit}"
+
 
 @dataclass(frozen=True)
 class RuleRow:
@@ -460,7 +476,7 @@ def list_rules(extra_paths=()) -> tuple[dict[str, str], ...]:
 
     >>> rows = list_rules()
     >>> rows[0]["rule_set"], rows[0]["fluid_temp"], rows[0]["size"], rows[0]["thickness"]
-    ('ashrae-90.1-2019', '(350..inf) °F', '[0..1) in NPS', '4.5 in')
+    ('ashrae-90.1-2019', 'above 350 °F', '[0..1) in NPS', '4.5 in')
     """
     out = []
     for rule_set in load_rule_sets(extra_paths).values():
@@ -474,8 +490,8 @@ def list_rules(extra_paths=()) -> tuple[dict[str, str], ...]:
                 {
                     "rule_set": row.rule_set,
                     "service": row.service,
-                    "fluid_temp": f"{row.temp_range} {_TEMP_UNITS[row.temp_unit]}",
-                    "size": f"{row.size_range} {_SIZE_COLUMNS[row.size_column][2]}",
+                    "fluid_temp": row.temp_range.text(_TEMP_UNITS[row.temp_unit]),
+                    "size": row.size_range.text(_SIZE_COLUMNS[row.size_column][2]),
                     "conductivity": f"{_fmt(row.conductivity_min, 4)}–{_fmt(row.conductivity_max, 4)} {k_label}",
                     "mean_rating_temp": f"{_fmt(row.mean_rating_temp)} {_TEMP_UNITS[row.temp_unit]}",
                     "thickness": thickness,

@@ -325,7 +325,7 @@ RANGES: dict[str, tuple[float, float]] = {
     "steam_pressure": (0.0, 1e8),
     "heat_flow_per_length": (-1e7, 1e7),
     "heat_flux": (-1e8, 1e8),
-    "heat_transfer_coefficient": (-1e6, 1e6),
+    "heat_transfer_coefficient": (-1e9, 1e9),
     "conductivity": (-1e4, 1e4),
     "time": (-1e10, 1e10),
     "percent": (-1000.0, 1000.0),
@@ -1027,7 +1027,18 @@ def parse_money_per_energy(text, option: str = "--energy-price") -> float:
         joules = energy_unit_joules(match["unit"])
     except InputError:
         raise unreadable from None
-    return float(match["number"]) / joules
+    value = float(match["number"]) / joules
+    if not math.isfinite(value):
+        raise InputError(option, f'"{_clip(shown)}" is not a finite number per unit of energy')
+    if value * 3.6e6 > MAX_PER_KWH:
+        raise InputError(option, f'"{_clip(shown)}" is out of range; give at most {_nice(MAX_PER_KWH)} per kWh '
+                                 "(in any currency or kg)")
+    return value
+
+
+#: Largest price (or emission factor) per kWh read by :func:`parse_money_per_energy`: far above
+#: any energy price in any currency (a unit slip or an overflow, not a price).
+MAX_PER_KWH = 1e6
 
 
 # --------------------------------------------------------------------------------------

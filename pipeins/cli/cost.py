@@ -10,9 +10,9 @@ from .options import emit, line_options, output_options, plot_option, spec_from_
 
 @click.command()
 @line_options
-@click.option("--valves", default=0, type=click.IntRange(min=0), help="Bare valves on the run (count).")
-@click.option("--flanges", default=0, type=click.IntRange(min=0), help="Bare flange pairs on the run (count).")
-@click.option("--strainers", default=0, type=click.IntRange(min=0), help="Bare strainers on the run (count).")
+@click.option("--valves", default=0, type=click.IntRange(min=0, max=1_000_000), help="Bare valves on the run (count).")
+@click.option("--flanges", default=0, type=click.IntRange(min=0, max=1_000_000), help="Bare flange pairs on the run (count).")
+@click.option("--strainers", default=0, type=click.IntRange(min=0, max=1_000_000), help="Bare strainers on the run (count).")
 @click.option("--profile", help='Operating profile instead of --fluid-temp/--hours: "TEMP:HOURS,…", '
                                  'e.g. "82C:3000h,70C:2500h,55C:1500h".')
 @energy_options
