@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import difflib
 
-__all__ = ["InputError", "closest_names", "near_hint"]
+__all__ = ["InputError", "closest_names", "near_hint", "one_line"]
 
 
 class InputError(ValueError):
@@ -51,3 +51,28 @@ def near_hint(word: str, names) -> str:
     best = max(scores.values(), default=0.0)
     near = [n for n in names if scores[n] >= best - 0.1]
     return closest_names(word, near if best >= 0.5 else names)
+
+
+def one_line(text: str) -> str:
+    """*text* safe to print as one line: newlines, tabs and other control characters
+    (ESC, NUL, DEL, C1 and Unicode format/separator controls) shown as escapes.
+
+    >>> one_line('unknown pipe "NPS\\n4\\x1b[31m"')
+    'unknown pipe "NPS\\\\n4\\\\x1b[31m"'
+    """
+    import unicodedata
+
+    out = []
+    for ch in str(text):
+        if ch == "\n":
+            out.append("\\n")
+        elif ch == "\r":
+            out.append("\\r")
+        elif ch == "\t":
+            out.append("\\t")
+        elif unicodedata.category(ch) in ("Cc", "Cf", "Zl", "Zp", "Cs"):
+            code = ord(ch)
+            out.append(f"\\x{code:02x}" if code < 0x100 else f"\\u{code:04x}")
+        else:
+            out.append(ch)
+    return "".join(out)

@@ -8,6 +8,9 @@ as the user wrote it, what is allowed, exit 2, nothing on stdout).
 from __future__ import annotations
 
 import json
+import os
+import subprocess
+import sys
 from pathlib import Path
 
 import pint
@@ -280,3 +283,49 @@ def test_inch_outside_diameter_in_check_text(run):
                          "--units", "us")
     assert code == 0, err
     assert "2.375" in out and "2.374" not in out
+# --------------------------------------------------------------------------------------
+# Clean streams
+# --------------------------------------------------------------------------------------
+def test_console_that_cannot_encode_unicode():
+    # a Windows console code page: the box rules and some unit signs do not exist in cp1252
+    env = {**os.environ, "PYTHONIOENCODING": "cp1252", "PYTHONPATH": str(ROOT)}
+    done = subprocess.run([sys.executable, "-c", "from pipeins.cli import main; main()", *HOT],
+                          capture_output=True, env=env,
+                          cwd=ROOT, timeout=120)
+    assert done.returncode == 0, done.stderr.decode("cp1252", "replace")
+    done.stdout.decode("cp1252")
+
+
+def test_ascii_flag_gives_plain_ascii(run):
+    for fmt in ("text", "markdown", "csv", "json"):
+        code, out, err = run(*HOT, "--units", "us", "--ascii", "--format", fmt)
+        assert code == 0, err
+        out.encode("ascii")  # nothing outside ASCII
+    code, out, _ = run(*HOT, "--ascii")
+    assert "degC" in out and "W/(m2*K)" in out or "W/m" in out
+    code, plain, _ = run(*HOT, "--ascii", "--format", "json")
+    code, fancy, _ = run(*HOT, "--format", "json")
+    assert json.loads(plain) == json.loads(fancy)
+
+
+def test_ascii_keeps_tables_aligned(run):
+    code, out, _ = run(*HOT, "--ascii")
+    lines = out.splitlines()
+    rule = next(i for i, line in enumerate(lines) if set(line.replace(" ", "")) == {"-"} and "  " in line)
+    # the header above the dashes and the rule have the same width
+    assert len(lines[rule - 1].rstrip()) <= len(lines[rule])
+
+
+@pytest.mark.parametrize("value", ["NPZ\n4", "NPS\x1b[31m4", "NPZ\r4", "NPS\x00 4", "NPZ\u20284"])
+def test_control_characters_escaped_in_error_lines(run, value):
+    code, out, err = run("check", "--pipe", value, "--fluid-temp", "80C")
+    assert code == 2 and out == ""
+    assert len(err.splitlines()) == 1 and err.startswith("Error: --pipe: ")
+    assert "\x1b" not in err and "\r" not in err and "\x00" not in err and "\u2028" not in err
+
+
+def test_click_errors_are_one_line(run):
+    assert error_line(run, "check", "--pipe", "NPS 4", "--bogus", "1") == (
+        "Error: No such option '--bogus'. (see pipeins check --help)")
+    assert error_line(run, "check", "--pipe", "NPS 4", "--orientation", "sideways").startswith(
+        "Error: Invalid value for '--orientation'")

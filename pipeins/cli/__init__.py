@@ -63,7 +63,10 @@ def cli():
 
 def main(argv=None):
     """Entry point: run the CLI and turn bad input into ``Error: …`` with exit status 2."""
-    from ..errors import InputError
+    from ..errors import InputError, one_line
+
+    def errors(lines) -> None:  # one line each, control characters escaped
+        click.echo("\n".join(f"Error: {one_line(p)}" for p in lines), err=True)
 
     try:
         cli.main(args=argv, prog_name="pipeins", standalone_mode=False)
@@ -76,13 +79,17 @@ def main(argv=None):
             lines = exc.problems
         else:
             lines = [cli_line(exc.name, exc.message)]
-        click.echo("\n".join(f"Error: {p}" for p in lines), err=True)
+        errors(lines)
         sys.exit(2)
     except click.exceptions.Abort:
         click.echo("Aborted.", err=True)
         sys.exit(1)
+    except click.UsageError as exc:  # click's own checks (unknown option, bad choice): one line too
+        command = exc.ctx.command_path if exc.ctx is not None else "pipeins"
+        errors([f"{exc.format_message()} (see {command} --help)"])
+        sys.exit(2)
     except click.ClickException as exc:
-        exc.show()
+        errors([exc.format_message()])
         sys.exit(exc.exit_code)
     except click.exceptions.Exit as exc:
         sys.exit(exc.exit_code)

@@ -57,10 +57,42 @@ def output_options(func):
                         help="Write to this file (written whole, or not at all; - for standard output).")(func)
     func = click.option("--units", type=click.Choice(["si", "us"]), default="si", show_default=True,
                         help="Default units of bare numbers and units shown.")(func)
+    func = click.option("--ascii", is_flag=True, expose_value=False, callback=_set_ascii,
+                        help="Plain ASCII text (rules, bullets, unit signs spelt out); chosen by "
+                             "itself when the console cannot show Unicode.")(func)
     func = click.option("--format", "fmt", default="text", show_default=True,
                         help="Output format: text, json, csv, markdown, html (one self-contained page "
                              "with charts) or xlsx (a workbook, needs --output).")(func)
     return func
+
+
+def _set_ascii(ctx, param, value):
+    ctx.meta["pipeins.ascii"] = bool(value)
+    return value
+
+
+def _render(report, fmt: str, units: str, output: str | None):
+    """The report rendered for where it goes: plain ASCII with ``--ascii``, and also when
+    it goes to a console whose encoding cannot show it (a Windows code page, say)."""
+    import sys
+
+    from ..reports import render
+
+    ctx = click.get_current_context(silent=True)
+    wanted = bool(ctx is not None and ctx.meta.get("pipeins.ascii"))
+    text = render(report, fmt, units, ascii=wanted)
+    if wanted or isinstance(text, bytes) or output not in (None, "-"):
+        return text
+    encoding = getattr(sys.stdout, "encoding", None) or "utf-8"
+    try:
+        text.encode(encoding)
+        return text
+    except UnicodeEncodeError:
+        pass
+    except LookupError:
+        return text
+    text = render(report, fmt, units, ascii=True)
+    return text.encode(encoding, "replace").decode(encoding)
 
 
 def _check_plot(ctx, param, value):
@@ -119,7 +151,7 @@ def emit(report, fmt: str, units: str, output: str | None) -> None:
     if fmt in BINARY_FORMATS and (output is None or (output == "-" and sys.stdout.isatty())):
         raise InputError("--format", f"{fmt} is a binary workbook, not written to a terminal; "
                                      f"give --output FILE.{fmt}")
-    text = render(report, fmt, units)
+    text = _render(report, fmt, units, output)
     ctx = click.get_current_context(silent=True)
     plot = ctx.params.get("plot") if ctx is not None else None
     if plot:

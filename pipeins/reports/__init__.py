@@ -18,7 +18,7 @@ from typing import Any
 
 from ..errors import InputError
 
-__all__ = ["Column", "Table", "Report", "render", "FORMATS", "BINARY_FORMATS"]
+__all__ = ["Column", "Table", "Report", "render", "to_ascii", "FORMATS", "BINARY_FORMATS"]
 
 FORMATS = ("text", "json", "csv", "markdown", "html", "xlsx")
 #: Formats that are bytes, not text (written to a file only).
@@ -82,37 +82,75 @@ def _cells(table: Table, units: str) -> tuple[list[str], list[list[str]]]:
     return heads, rows
 
 
-def _text(report: Report, units: str, markdown: bool) -> str:
+# Plain-ASCII spellings for a console that cannot show Unicode (and for --ascii).
+_ASCII = {
+    "═": "=", "─": "-", "•": "*", "°": "deg", "²": "2", "³": "3", "·": "*", "⋅": "*", "–": "-",
+    "—": "--", "…": "...", "≤": "<=", "≥": ">=", "−": "-", "×": "x", "µ": "u", "±": "+/-", "’": "'",
+    "‘": "'", "“": '"', "”": '"', "→": "->", "←": "<-", "≈": "~", "₂": "2", "Δ": "d", "ε": "e",
+    "℃": "degC", "℉": "degF", "€": "EUR", "£": "GBP", "¥": "JPY", "\u00a0": " ", "\u202f": " ",
+}
+
+
+def to_ascii(text: str) -> str:
+    """*text* in plain ASCII: rules and bullets as ``=``, ``-``, ``*``, unit signs spelt out
+    (``°C`` → ``degC``, ``m²`` → ``m2``), accents dropped, anything else ``?``.
+
+    >>> to_ascii("60 °C · W/(m²·K) – ≤ 5 %")
+    '60 degC * W/(m2*K) - <= 5 %'
+    """
+    import unicodedata
+
+    out = []
+    for ch in str(text):
+        if ord(ch) < 128:
+            out.append(ch)
+        elif ch in _ASCII:
+            out.append(_ASCII[ch])
+        else:
+            plain = unicodedata.normalize("NFKD", ch).encode("ascii", "ignore").decode()
+            out.append(plain or "?")
+    return "".join(out)
+
+
+def _text(report: Report, units: str, markdown: bool, ascii: bool = False) -> str:
     from tabulate import tabulate
 
+    a = to_ascii if ascii else str
+    double, single, bullet = ("=", "-", "*") if ascii else ("═", "─", "•")
     out = io.StringIO()
+    title = a(report.title)
     if markdown:
-        out.write(f"# {report.title}\n")
+        out.write(f"# {title}\n")
     else:
-        out.write(f"{report.title}\n{'═' * len(report.title)}\n")
+        out.write(f"{title}\n{double * len(title)}\n")
     for table in report.tables:
         heads, rows = _cells(table, units)
+        if ascii:
+            heads, rows = [a(h) for h in heads], [[a(c) for c in row] for row in rows]
+        name = a(table.title)
         if markdown:
-            out.write(f"\n## {table.title}\n\n")
+            out.write(f"\n## {name}\n\n")
             out.write(tabulate(rows, heads, tablefmt="pipe", disable_numparse=True))
         else:
-            out.write(f"\n{table.title}\n{'─' * len(table.title)}\n")
+            out.write(f"\n{name}\n{single * len(name)}\n")
             out.write(tabulate(rows, heads, tablefmt="simple", disable_numparse=True))
         out.write("\n")
         if table.note:
-            out.write(f"{table.note}\n")
+            out.write(f"{a(table.note)}\n")
     for heading, lines in (("Warnings", report.warnings), ("Cautions", report.cautions),
                            ("Basis", report.footer)):
         if lines:
-            out.write(f"\n## {heading}\n\n" if markdown else f"\n{heading}\n{'─' * len(heading)}\n")
+            out.write(f"\n## {heading}\n\n" if markdown else f"\n{heading}\n{single * len(heading)}\n")
             for line in lines:
-                out.write(f"- {line}\n" if markdown else f"  • {line}\n")
+                out.write(f"- {a(line)}\n" if markdown else f"  {bullet} {a(line)}\n")
     return out.getvalue()
 
 
-def _csv(report: Report, units: str) -> str:
+def _csv(report: Report, units: str, ascii: bool = False) -> str:
     table = report.tables[report.csv_table]
     heads, rows = _cells(table, units)
+    if ascii:
+        heads, rows = [to_ascii(h) for h in heads], [[to_ascii(c) for c in row] for row in rows]
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
     writer.writerow(heads)
@@ -120,22 +158,25 @@ def _csv(report: Report, units: str) -> str:
     return out.getvalue()
 
 
-def render(report: Report, fmt: str = "text", units: str = "si") -> str | bytes:
+def render(report: Report, fmt: str = "text", units: str = "si", ascii: bool = False) -> str | bytes:
     """The report as text, Markdown, CSV (its main table), JSON (SI, whatever *units*),
-    HTML (text) or XLSX (bytes)."""
+    HTML (text) or XLSX (bytes).  With *ascii* the text is plain ASCII: rules, bullets and
+    unit signs spelt out (:func:`to_ascii`), JSON strings escaped (``\\u00b0``), HTML
+    characters as references."""
     if fmt == "json":
         payload = dict(report.data)
         payload.setdefault("warnings", report.warnings)
         payload.setdefault("cautions", report.cautions)
-        return json.dumps(payload, indent=2, ensure_ascii=False, allow_nan=False) + "\n"
+        return json.dumps(payload, indent=2, ensure_ascii=ascii, allow_nan=False) + "\n"
     if fmt == "csv":
-        return _csv(report, units)
+        return _csv(report, units, ascii)
     if fmt in ("text", "markdown"):
-        return _text(report, units, markdown=fmt == "markdown")
+        return _text(report, units, markdown=fmt == "markdown", ascii=ascii)
     if fmt == "html":
         from .html import render_html
 
-        return render_html(report, units)
+        page = render_html(report, units)
+        return page.encode("ascii", "xmlcharrefreplace").decode("ascii") if ascii else page
     if fmt == "xlsx":
         from .xlsx import render_xlsx
 
