@@ -174,6 +174,27 @@ def _churchill_bernstein(reynolds, prandtl):
     return lambda: float(nusselt_cylinder_crossflow_churchill_bernstein(reynolds, prandtl))
 
 
+def _run_outlet():
+    from .catalog.materials import lookup_material
+    from .model import Layer, Pipe, Surface, Surroundings
+    from .runs import temperature_along_run
+
+    run = temperature_along_run(Pipe(0.0603, 0.0039, 50.0), [Layer(lookup_material("k=0.04"), 0.03)], "water",
+                                40.0, 0.05, 100.0, Surroundings(0.0), Surface(fixed_coefficient_w_m2k=10.0),
+                                inner_h_w_m2k=500.0)
+    return float(run.outlet_temp_c)
+
+
+def _freeze_time():
+    from .catalog.materials import lookup_material
+    from .freezing import freeze_times
+    from .model import Layer, Pipe, Surface, Surroundings
+
+    r = freeze_times(Pipe(0.0334, 0.00338, 50.0), [Layer(lookup_material("k=0.04"), 0.025)], Surroundings(-10.0),
+                     Surface(fixed_coefficient_w_m2k=10.0), 10.0, ice_fraction=0.5)
+    return float(r.time_to_ice_fraction_s)
+
+
 def _ashrae_footnote():
     from .codes import adjusted_thickness_m
 
@@ -295,6 +316,13 @@ CHECKS: tuple[Check, ...] = (
     Check("ht-coolprop-outer-film-60c", "ht 1.2.0 Churchill-Chu, CoolProp 8.0.0 Air at the film, fluids 1.3.1",
           "natural-convection coefficient: pipe D 0.3 m at 60 °C, still air 20 °C", "W/(m²·K)",
           4.86032520566, 5e-3, True, _outer_h(60.0, 20.0, 0.3), _LIBRARY),
+    Check("incropera-8.46-run-outlet", "Incropera 6th ed. Eq. 8.46 (from memory), c_p from iapws 1.5.5 IAPWS95",
+          "outlet temperature: water 40 °C, 0.05 kg/s, 100 m of NPS 2 (wall k 50) under 30 mm of k 0.04, "
+          "h_i 500, h_o 10, air 0 °C", "°C", 34.1475131566, 0.01, False, _run_outlet, _LIBRARY),
+    Check("incropera-5.6-freeze-half", "Incropera 6th ed. Eq. 5.6 lumped (from memory), water from iapws 1.5.5 "
+          "IAPWS95, steel 7854 kg/m³ and 434 J/(kg·K) (Table A.1), L_f 333.55 kJ/kg (CRC, from memory)",
+          "time to half frozen: still water 10 °C in NPS 1 (wall k 50) under 25 mm of k 0.04, h_o 10, air -10 °C",
+          "s", 46961.9094627, 5e-3, True, _freeze_time, _LIBRARY),
     Check("coolprop-propylene-glycol-30-density", "CoolProp 8.0.0 PropsSI INCOMP::MPG[0.3] (Melinder 2010)",
           "density of 30 % propylene glycol at -5 °C", "kg/m³", 1033.02438729, 1e-4, True,
           _liquid("30% propylene glycol", -5.0, "density_kg_m3"), _LIBRARY),
