@@ -151,7 +151,7 @@ PARAMS: tuple[Param, ...] = (
     Param("efficiency", "--efficiency", "efficiency", _E, "efficiency", "heat source efficiency for heat losses "
           "(88 % or 0.88)", "1 (100 %)", 0.0, 1.0, True),
     Param("cop", "--cop", "cop", _E, "number", "chiller coefficient of performance for heat gains", "none",
-          0.0, None, True),
+          0.0, 100.0, True),
     Param("emission", "--co2-factor", "co2", _E, "co2", "CO2 per unit of energy bought (0.20/kWh, 0.20 kg/kWh)",
           "none"),
     Param("discount_rate", "--discount-rate", "discount_rate", _E, "fraction", "discount rate per year [%]", "5 %",
@@ -183,6 +183,7 @@ CLI_ONLY = {
     "--sizes": "a table's size range; the project file lists its lines, each with its size",
     "--matrix": "an output layout of the table command",
     "--profile": "an operating profile of one line; a project service runs at one temperature",
+    "--plot": "an extra chart file beside one command's output; the schedule's formats carry their charts",
 }
 #: Project-file keys with no command-line option, and why.
 FILE_ONLY = {
@@ -368,7 +369,11 @@ def parse_value(name: str, value, units: str = "si"):
     elif kind == "efficiency":
         number, unit = _efficiency(value, name, units), ""
     elif kind == "number":
-        number, unit = _plain_number(value, name, f"a number ({p.help})"), ""
+        from .units import parse_number
+
+        if isinstance(value, bool):
+            raise InputError(name, f"cannot read {value!r} as a number")
+        number, unit = parse_number(value, name, f"the {noun(p)}"), ""
     elif kind == "fraction":
         number, unit = parse_quantity(value, "percent", name, units) / 100.0, "%"
     else:

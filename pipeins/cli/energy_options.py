@@ -46,41 +46,41 @@ def code_options(func):
 def basis_from_options(opts: dict, units: str, need_price: bool = False):
     """An :class:`pipeins.annual.EnergyBasis` from the energy options (None when no
     energy option was given and none is needed)."""
-    from ..annual import EnergyBasis, emission_from_text, price_from_text
+    from ..annual import EnergyBasis, price_from_text
     from ..economics import CostTable
     from ..errors import InputError
-    from ..units import parse_number, parse_quantity
 
     given = any(opts.get(k) for k in ("hours", "energy_price", "efficiency", "cop", "co2_factor",
                                       "discount_rate", "years", "escalation", "maintenance", "cost_table"))
     if not given and not need_price:
         return None
 
-    def percent(name):
+    from ..inputs import parse_value  # the project file's reader too: both accept the same values
+
+    def percent(name, param):
         text = opts.get(name)
-        return None if text is None else parse_quantity(text, "percent", "--" + name.replace("_", "-"), units) / 100
+        return None if text is None else parse_value(param, text, units)
 
     kw = {}
     if opts.get("hours"):
-        kw["hours_per_year"] = parse_quantity(opts["hours"], "time", "--hours", units) / 3600.0
+        kw["hours_per_year"] = parse_value("hours_per_year", opts["hours"], units) / 3600.0
     if opts.get("energy_price"):
         kw["price"] = price_from_text(opts["energy_price"], opts.get("currency") or "")
     elif need_price:
         raise InputError("--energy-price", "the energy price is missing; use e.g. 0.09/kWh")
     if opts.get("efficiency"):
-        kw["efficiency"] = parse_quantity(opts["efficiency"], "efficiency", "--efficiency", units)
+        kw["efficiency"] = parse_value("efficiency", opts["efficiency"], units)
     if opts.get("cop"):
-        kw["cop"] = parse_number(opts["cop"], "--cop", "a coefficient of performance", 0.0, 100.0, low_open=True)
+        kw["cop"] = parse_value("cop", opts["cop"], units)
     if opts.get("co2_factor"):
-        kw["emission"] = emission_from_text(opts["co2_factor"])
+        kw["emission"] = parse_value("emission", opts["co2_factor"], units)
     for name, key in (("discount_rate", "discount_rate"), ("escalation", "escalation"),
                       ("maintenance", "maintenance_fraction")):
-        value = percent(name)
+        value = percent(name, key)
         if value is not None:
             kw[key] = value
     if opts.get("years"):
-        kw["years"] = parse_number(opts["years"], "--years", "an evaluation life in years", 0.0, 200.0,
-                                   low_open=True)
+        kw["years"] = parse_value("years", opts["years"], units)
     if opts.get("cost_table"):
         kw["cost_table"] = CostTable.from_csv(opts["cost_table"])
     basis = EnergyBasis(**kw)
