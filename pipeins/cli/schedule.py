@@ -45,6 +45,8 @@ def schedule(project_file, fmt, units, output):
     bare pipe), and the totals bare against insulated: heat, energy, cost, CO2, installed
     cost and payback.  Every problem in the file is reported at once, with its line.
 
+    Every project-file key, with its unit and default: docs/project-file.md.
+
     \b
     Example:
       pipeins schedule examples/hospital_steam.toml
