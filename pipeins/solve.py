@@ -42,7 +42,7 @@ from .results import Result
 __all__ = ["solve", "SolverError", "RELATIVE_TOLERANCE", "MAX_ITERATIONS", "NO_FLOW_SPAN_K"]
 
 #: Relative tolerance on the heat flow of each case.
-RELATIVE_TOLERANCE = 1e-11
+RELATIVE_TOLERANCE = 1e-10
 #: Bound on the iterations of one call (every case converges in far fewer; see _newton_in_bracket).
 MAX_ITERATIONS = 200
 #: Largest outer circumference (per metre of pipe) the outer-film correlations can compute with [m].
@@ -51,6 +51,8 @@ MAX_OUTER_SIZE_M = 1e6
 NO_FLOW_SPAN_K = 1e-9
 # Surface-temperature resolution, in units of the largest temperature magnitude [°C] + 1 K.
 _RESOLUTION_ULPS = 16 * np.finfo(float).eps
+# Safety factor on the superlinear estimate of the error left after a step.
+_AFTER_SAFETY = 4.0
 # Fraction of h_c taken as d[h_c]/dTs·(Ts − Ta) on the first step (laminar natural
 # convection, Nu ∝ Ra^(1/4)); later steps use the secant slope of h_c.
 _FIRST_CONVECTION_EXPONENT = 0.25
@@ -375,6 +377,7 @@ def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
         "x": np.where(np.isfinite(guess), guess, 0.5 * (t_min + t_max)),
         "x_prev": np.zeros(n), "hc_prev": np.zeros(n), "conv": np.zeros(n),
         "g_old": np.full(n, np.inf), "g_last": np.full(n, np.inf), "size_prev": np.ones(n),
+        "size_prev2": np.ones(n),
         "live": np.ones(n, dtype=bool),
     }
     idx, work = np.arange(n), cases
@@ -407,9 +410,24 @@ def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
         b = np.where(g > 0, x, b)
         x_new = x - step
         inside = (x_new > a) & (x_new < b)
-        # Error left after the step: |step| times the last contraction ratio (at most 1).
-        after = size * np.minimum(1.0, size / st["size_prev"]) if iterations > 1 else size
-        on_q = inside & (q_slope * after <= rtol * np.abs(q))
+        # Error left after the step.  Superlinear (secant-like) convergence has
+        # e₊ ≈ C·e·e₋, and C ≈ e/(e₋·e₋₋) gives e₊ ≈ e²/e₋₋; kept within a factor of
+        # _AFTER_SAFETY of that, and never above |step| times the last contraction ratio.
+        if iterations == 1:
+            after = size
+        else:
+            after = size * np.minimum(1.0, size / st["size_prev"])
+            if iterations > 2:
+                after = np.minimum(after, _AFTER_SAFETY * size * (size / st["size_prev2"]))
+        # Heat-flow error after the step: from the error left in Ts, and from the error of
+        # the estimated q_out' (taken as its last change, all of it on the first step),
+        # which moves the joint solution by δ(q_out')·|step|/G' (counted twice, for safety).
+        if outer_side.fixed:
+            q_err = q_slope * after
+        else:
+            slope_err = work["area"] * (conv if iterations == 1 else np.abs(conv - st["conv"]))
+            q_err = np.maximum(q_slope * after, 2.0 * slope_err * size / g_slope)
+        on_q = inside & (q_err <= rtol * np.abs(q))
         done = (on_q | (inside & (after <= res)) | (size <= res) | (b - a <= res)) & st["live"]
         if np.any(done):
             # Each converged case takes its last step without another evaluation: Ts moves
@@ -431,7 +449,8 @@ def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
         newton = inside & (np.abs(g) <= 0.5 * st["g_old"])
         state = {"a": a, "b": b, "res": res, "secant_dx": st["secant_dx"],
                  "x": np.where(newton, x_new, 0.5 * (a + b)), "x_prev": x, "hc_prev": h_c, "conv": conv,
-                 "g_old": st["g_last"], "g_last": np.abs(g), "size_prev": size, "live": live}
+                 "g_old": st["g_last"], "g_last": np.abs(g), "size_prev": size,
+                 "size_prev2": st["size_prev"], "live": live}
         if remaining <= live.size // 2:
             idx = idx[live]
             work = {k: v[idx] for k, v in cases.items()}
