@@ -11,9 +11,8 @@ from .options import emit, output_options
 __all__ = ["verify", "verification_report"]
 
 
-def _value(value: float, unit: str) -> str:
-    text = f"{value:.7g}" if abs(value) >= 1e6 else f"{value:.6g}"
-    return text if unit == "–" else f"{text} {unit}"
+def _value(value: float) -> str:
+    return f"{value:.7g}" if abs(value) >= 1e6 else f"{value:.6g}"
 
 
 def _deviation(outcome) -> str:
@@ -34,11 +33,11 @@ def verification_report(outcomes):
 
     from ..verification import REFERENCES
 
-    columns = [Column(h) for h in ("check", "source", "quantity", "published", "pipeins",
+    columns = [Column(h) for h in ("check", "source", "quantity", "unit", "published", "pipeins",
                                    "deviation", "tolerance", "result")]
     rows = [
-        [o.check.id, o.check.source, o.check.quantity, _value(o.check.expected, o.check.unit),
-         _value(o.actual, o.check.unit), _deviation(o), _tolerance(o.check), "pass" if o.passed else "FAIL"]
+        [o.check.id, o.check.source, o.check.quantity, o.check.unit, _value(o.check.expected),
+         _value(o.actual), _deviation(o), _tolerance(o.check), "pass" if o.passed else "FAIL"]
         for o in outcomes
     ]
     failed = [o.check.id for o in outcomes if not o.passed]
