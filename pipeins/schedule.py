@@ -220,7 +220,7 @@ def _select(project, service, condition, sizes, length):
     spec = _spec(service, condition, length, with_rh="condensation" in service.criteria)
     economic = _basis(service, cold, True) if "economic" in service.criteria else None
     return select(spec, service.material, service.requirements, service.series, project.units, sizes=sizes,
-                  code=service.code, economic=economic, code_paths=project.code_paths)
+                  code=service.code, economic=economic, code_paths=project.code_paths, add_inner_layer=False)
 
 
 def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[LineResult]:

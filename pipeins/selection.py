@@ -34,6 +34,23 @@ class Selection:
     criteria: list
     outcome: SizingOutcome
     notes: list[str] = field(default_factory=list)
+    #: (material, thickness per size [m]) of an inner layer added so that the sized material
+    #: stays inside its service range (0 where a size needs none), or None.
+    inner_layer: tuple | None = None
+
+    def added_layers(self, index: int = 0) -> tuple[tuple[str, float], ...]:
+        """The layers the selection adds over the line's own, inner to outer, for size *index*:
+        ``((material name, thickness [m]), ...)`` (the sized layer at its selected total)."""
+        out = []
+        if self.inner_layer is not None and self.inner_layer[1][index] > 0:
+            out.append((self.inner_layer[0].key, float(self.inner_layer[1][index])))
+        return tuple(out) + ((self.material.key, float(self.outcome.selected_m[index])),)
+
+    def interface_temp_c(self, index: int = 0) -> float:
+        """Temperature [°C] at the sized layer's inner face (the interface over the layers
+        under it) at the selected build-up of size *index*."""
+        temps = self.outcome.result.interface_temps_c[len(self.problem.fixed_layers) + 1]
+        return float(np.ravel(np.broadcast_to(temps, self.outcome.result.shape))[index])
 
 
 def series_for(material, series: str | tuple | None, units: str = "si") -> tuple[str, tuple[float, ...]]:
@@ -54,12 +71,20 @@ def series_for(material, series: str | tuple | None, units: str = "si") -> tuple
 
 
 def select(spec, material_name: str, req, series=None, units: str = "si", sizes=None,
-           code: str | None = None, economic=None, code_paths=()) -> Selection:
+           code: str | None = None, economic=None, code_paths=(), inner_material: str | None = None,
+           add_inner_layer: bool = True) -> Selection:
     """Size the outer layer of *material_name* over the line's fixed layers.
 
     *code* names a rule set of :mod:`pipeins.codes` whose minimum thickness joins the
     criteria; *economic* (an :class:`pipeins.annual.EnergyBasis` with a cost table) adds the
     economic thickness.  Both act as lower bounds on the commercial pick.
+
+    Every layer must stay inside its material's service range (always on, see
+    :class:`pipeins.sizing.ServiceLimits`).  Where the sized material cannot, an inner layer
+    of *inner_material* (default: the first of :data:`INNER_LAYER_CHOICES` rated for the
+    fluid temperature) is added under it, per size, and the outcome says so (with
+    ``add_inner_layer=False``, or where nothing helps, the size is infeasible with a message
+    naming the materials rated for the line).
     """
     from .catalog.materials import lookup_material
     from .criteria import build_criteria
@@ -91,9 +116,126 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
         raise InputError("touch_limit_c", no_criterion_message(notes, spec.rh_percent is not None))
     outcome = size(problem, criteria, series_m, extra_required=extra)
     notes = notes + [n for n in outcome.not_applicable if n not in notes]
-    selection = Selection(spec, size_list, material, name, problem, outcome.active, outcome, notes)
+    problem, outcome, inner, curves = _within_service_limits(problem, outcome, criteria, series_m, extra, units,
+                                                             size_list, economic, curves, inner_material, notes,
+                                                             add_inner_layer)
+    selection = Selection(spec, size_list, material, name, problem, outcome.active, outcome, notes, inner)
     selection.economic_curves = curves
     return selection
+
+
+#: Inner layers tried, in order, when the sized material cannot serve at the fluid temperature
+#: (common practice: a mineral-fibre or rigid high-temperature section under a foam, cellular glass
+#: under a foam on cryogenic lines).
+INNER_LAYER_CHOICES = ("mineral wool", "calcium silicate", "cellular glass", "expanded perlite")
+
+
+def materials_rated_for(low_c: float, high_c: float) -> list:
+    """Catalogue insulation materials whose service range covers *low_c* to *high_c* [°C]."""
+    from .catalog.materials import list_materials, lookup_material
+
+    return [lookup_material(m["key"]) for m in list_materials()
+            if m["min_temp_c"] <= low_c and m["max_temp_c"] >= high_c]
+
+
+def _service_failures(problem, outcome):
+    """Per size: (index of the first layer beyond its limits or -1, hot-face failure?) at the
+    selected build-up."""
+    from .sizing import layer_face_margins
+
+    n = problem.n_sizes
+    first = np.full(n, -1)
+    hot_side = np.zeros(n, dtype=bool)
+    for j, (_, hot, cold) in enumerate(layer_face_margins(outcome.result)):
+        hot = np.ravel(np.broadcast_to(hot, outcome.result.shape))
+        cold = np.ravel(np.broadcast_to(cold, outcome.result.shape))
+        bad = (first < 0) & ((hot < 0) | (cold < 0))
+        hot_side = np.where(bad, hot < 0, hot_side)
+        first = np.where(bad, j, first)
+    return first, hot_side
+
+
+def _within_service_limits(problem, outcome, criteria, series_m, extra, units, size_list, economic, curves,
+                           inner_material, notes, add_inner_layer=True):
+    """Meet the service limits of every layer (always on): where the sized material runs beyond
+    its range at the selected build-up, add an inner layer of a material that can serve, the
+    least thickness of its series that brings the sized layer's face inside its range (sized
+    again over it), per size.  Returns (problem, outcome, inner layer or None, curves); the
+    outcome gains the ``service_limit`` criterion."""
+    from .catalog.materials import lookup_material
+    from .model import Layer
+    from .sizing import CriterionOutcome, ServiceLimits, size
+    from .units import format_quantity as fq
+
+    n, material = problem.n_sizes, problem.material
+    sized_index = len(problem.fixed_layers)
+    first, _ = _service_failures(problem, outcome)
+    fluid = np.asarray(problem.fluid.temp_c, dtype=float)
+    low, high = float(np.min(fluid)), float(np.max(fluid))
+    inner, inner_m = None, np.zeros(n)
+    if add_inner_layer and np.any(first == sized_index):
+        if inner_material is not None:
+            candidates = [lookup_material(inner_material, option="inner_material")]
+        else:
+            candidates = [lookup_material(name) for name in INNER_LAYER_CHOICES]
+        candidates = [m for m in candidates if m.min_temp_c <= low and m.max_temp_c >= high and m.key != material.key]
+        if candidates:
+            inner = candidates[0]
+            _, inner_series = series_for(inner, None, units)
+            base = list(problem.fixed_layers)
+            need = first == sized_index
+            for t in inner_series:
+                inner_m = np.where(need, t, inner_m)
+                thick = np.where(inner_m > 0, inner_m, 1e-9)[:, None]
+                trial = replace(problem, fixed_layers=base + [Layer(inner, thick)], context={})
+                trial_extra = list(extra)
+                if economic is not None:
+                    from .annual import economic_outcome
+
+                    econ, curves = economic_outcome(trial, size_list, economic)
+                    trial_extra = [e for e in extra if e.key != "economic"] + [econ]
+                problem, outcome = trial, size(trial, criteria, series_m, extra_required=trial_extra)
+                first, _ = _service_failures(problem, outcome)
+                need = first == sized_index + 1
+                if not need.any():
+                    break
+            sized_index += 1
+    # the always-on criterion, judged on the selected build-up
+    service = ServiceLimits()
+    margin = np.ravel(np.broadcast_to(service.margin(problem, outcome.result, None), outcome.result.shape))
+    ok = margin >= 0
+    messages = []
+    materials = [layer.material for layer in problem.fixed_layers] + [material]
+    for i in range(n):
+        if ok[i]:
+            messages.append("")
+            continue
+        j = int(first[i]) if first[i] >= 0 else sized_index
+        rated = [m.name for m in materials_rated_for(low, high)]
+        state = service.state(problem, outcome.result, i)
+        text = f"service temperature cannot be met: {state}"
+        if j == sized_index and inner is not None:
+            text += f", even over {fq(inner_m[i], 'thickness', units)} of {inner.name} inside"
+        elif j != sized_index:
+            text += "; that layer is given, not sized"
+        text += (f"; rated for {fq(low, 'temperature', units)}"
+                 + (f" to {fq(high, 'temperature', units)}" if high != low else "") + ": "
+                 + (", ".join(rated) if rated else "no catalogue material"))
+        messages.append(text)
+    # no thickness of the sized layer: the inner layer's is reported with the selection
+    record = CriterionOutcome(service.key, service.label, service.describe(units), np.full(n, np.nan), ok, messages)
+    outcome.criteria.append(record)
+    outcome.active = list(outcome.active) + [service]
+    outcome.feasible = outcome.feasible & ok
+    for i in range(n):
+        if messages[i] and messages[i] not in outcome.messages[i]:
+            outcome.messages[i].append(messages[i])
+    if inner is not None and np.any(inner_m > 0):
+        used = inner_m[inner_m > 0]
+        notes.append(f"{material.name} serves {fq(material.min_temp_c, 'temperature', units)} to "
+                     f"{fq(material.max_temp_c, 'temperature', units)}: an inner layer of {inner.name} ("
+                     f"{', '.join(fq(t, 'thickness', units) for t in dict.fromkeys(used))}) keeps it inside its range")
+    return problem, outcome, (inner, inner_m) if inner is not None and np.any(inner_m > 0) else None, curves
 
 
 def nominal_keys(size) -> dict:

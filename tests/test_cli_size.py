@@ -119,11 +119,18 @@ def test_bad_input_lines(run, args, line):
         assert err.strip() == line
 
 
-def test_material_above_its_service_limit_is_a_named_warning(run):
+def test_material_above_its_service_limit_gets_an_inner_layer(run):
+    # elastomeric foam serves up to 105 °C (tables/insulation_materials.csv): on a 300 °C line the
+    # selection puts a layer rated for it underneath, and says so
     code, out, err = run("size", "--pipe", "NPS 2", "--fluid-temp", "300C", "--material", "elastomeric foam",
                          "--format", "json")
     assert code == 0, err
-    assert any(w.startswith("layer 1 (flexible elastomeric foam tube): reaches") for w in json.loads(out)["warnings"])
+    data = json.loads(out)
+    assert data["inner_layer"]["material"] == "mineral wool pipe section"
+    assert data["inner_layer"]["interface_temp_c"] <= 105.0
+    assert not any("above its usable limit" in w for w in data["warnings"])
+    assert any(w.startswith("flexible elastomeric foam tube serves -50.0 °C to 105.0 °C: an inner layer of "
+                            "mineral wool pipe section") for w in data["warnings"])
 
 
 def test_matrix_names_the_cells_that_fail_a_criterion(run):

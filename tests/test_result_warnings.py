@@ -153,7 +153,7 @@ def test_condensation_not_applicable_message(run):
     assert CONDENSATION_NOT_APPLICABLE == ("condensation control does not apply: the surface stays above "
                                            "the dew point bare")
     assert CONDENSATION_NOT_APPLICABLE in data["warnings"]
-    assert [c["key"] for c in data["criteria"]] == ["heat_flow"]
+    assert [c["key"] for c in data["criteria"]] == ["heat_flow", "service_limit"]
 
 
 def test_condensation_alone_not_applicable_is_one_error_line(run):

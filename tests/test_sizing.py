@@ -34,7 +34,7 @@ def test_continuous_thickness_meets_each_criterion_exactly(sizes):
     hot = LineSpec(pipe=size_list[0].label, fluid_temp_c=200.0, air_temp_c=25.0)
     sel = select(hot, "mineral wool", Requirements(touch_limit_c=50.0, max_heat_flow_w_per_m=60.0),
                  series=tuple(t / 1000 for t in SERIES_MM), sizes=size_list)
-    touch, cap = sel.outcome.criteria
+    touch, cap, _ = sel.outcome.criteria  # the last is the service-limit check
     r = _solve_at(hot, "mineral wool", touch.required_m[:, None], size_list)
     np.testing.assert_allclose(r.surface_temp_c[:, 0], 50.0, atol=0.05)
     thinner = _solve_at(hot, "mineral wool", touch.required_m[:, None] - 0.0005, size_list)
@@ -47,7 +47,7 @@ def test_continuous_thickness_meets_each_criterion_exactly(sizes):
 
     cold = LineSpec(pipe=size_list[0].label, fluid_temp_c=4.0, air_temp_c=30.0, rh_percent=80.0)
     sel = select(cold, "elastomeric foam", Requirements(dew_margin_k=1.0), sizes=size_list)
-    (cond,) = sel.outcome.criteria
+    cond, _ = sel.outcome.criteria  # the last is the service-limit check
     r = _solve_at(cold, "elastomeric foam", cond.required_m[:, None], size_list)
     np.testing.assert_allclose(r.surface_temp_c[:, 0], r.dew_point_c[:, 0] + 1.0, atol=0.05)
     thinner = _solve_at(cold, "elastomeric foam", cond.required_m[:, None] - 0.0005, size_list)

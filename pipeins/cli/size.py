@@ -60,8 +60,7 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
         option = CRITERION_OPTIONS.get(failed[0].key if failed else "", "--series")
         message = failed[0].messages[0] if failed else out.messages[0][0]
         raise InputError(option, message)
-    chosen = float(out.selected_m[0])
-    at = LineSpec(**{**spec.__dict__, "layers": spec.layers + ((material, chosen),),
+    at = LineSpec(**{**spec.__dict__, "layers": spec.layers + selection.added_layers(0),
                      "touch_limit_c": selection.problem.touch_limit_c or spec.touch_limit_c})
     result = at.solve()
     rows, data, warnings = run_extras(at, result, units)

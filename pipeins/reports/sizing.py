@@ -18,8 +18,10 @@ CRITERION_OPTIONS = {
     "freeze": "--hold-time",
     "economic": "--energy-price",
     "code": "--code",
+    "service_limit": "--material",
 }
-ALL_KEYS = ("surface_temp", "condensation", "heat_flow", "temp_change", "freeze", "economic", "code")
+ALL_KEYS = ("surface_temp", "condensation", "heat_flow", "temp_change", "freeze", "economic", "code",
+            "service_limit")
 
 
 def _mm(x):
@@ -54,7 +56,9 @@ def _criteria_rows(selection, index: int, units: str):
 
     out = selection.outcome
     rows = []
-    for c, crit in zip(out.criteria, list(selection.criteria) + [None] * len(out.criteria)):
+    by_key = {crit.key: crit for crit in selection.criteria}
+    for c in out.criteria:
+        crit = by_key.get(c.key)
         state = ""
         if crit is not None and hasattr(crit, "state"):
             state = crit.state(selection.problem, out.result, index)
@@ -66,6 +70,15 @@ def _criteria_rows(selection, index: int, units: str):
                      c.commercial_m[index] if c.commercial_m is not None else None,
                      state or c.messages[index]])
     return rows
+
+
+def _inner_layer(selection, index: int):
+    """The inner layer the selection added for size *index* (JSON-ready, SI), or None."""
+    inner = selection.inner_layer
+    if inner is None or not inner[1][index] > 0:
+        return None
+    return {"material": inner[0].name, "thickness_mm": _mm(inner[1][index]),
+            "interface_temp_c": round(selection.interface_temp_c(index), 3)}
 
 
 def size_report(selection, check, units: str = "si") -> Report:
@@ -81,7 +94,18 @@ def size_report(selection, check, units: str = "si") -> Report:
                                Column("layers"), Column("governing")],
                  [[selection.material.name, selection.series_name, out.selected_m[0],
                    layers_text(out.layer_split_m[0], units), gov_label]])
-    tables = [crit, pick] + check.tables
+    tables = [crit, pick]
+    from ..units import format_quantity
+
+    inner = _inner_layer(selection, 0)
+    if inner is not None:
+        tables.append(Table("Inner layer (added: the sized material cannot serve at the fluid temperature)", [
+            Column("material"), Column("thickness", "thickness"), Column("interface", "temperature"),
+            Column("service range of the sized material")],
+            [[inner["material"], inner["thickness_mm"] / 1000, inner["interface_temp_c"],
+              f"{format_quantity(selection.material.min_temp_c, 'temperature', units)} to "
+              f"{format_quantity(selection.material.max_temp_c, 'temperature', units)}"]]))
+    tables += check.tables
     touch = next((c for c in selection.criteria if c.key == "surface_temp"), None)
     footer = []
     if touch is not None:
@@ -98,6 +122,7 @@ def size_report(selection, check, units: str = "si") -> Report:
         "criteria": [{"key": c.key, "requirement": c.description, "required_mm": _mm(c.required_m[0]),
                       "commercial_mm": _mm(c.commercial_m[0]) if c.commercial_m is not None else None}
                      for c in out.criteria],
+        "inner_layer": inner,
         "result": check.data,
     }
     warnings = list(dict.fromkeys(list(selection.notes) + list(out.messages[0]) + list(check.warnings)))
@@ -132,7 +157,12 @@ def table_report(selection, units: str = "si") -> Report:
     out = selection.outcome
     keys = [c.key for c in out.criteria]
     columns = [Column("size"), Column("OD", "diameter")]
-    columns += [Column(c.label, "thickness", 1) for c in out.criteria]
+    shown = [c for c in out.criteria if c.key != "service_limit"]  # a thickness per criterion
+    has_inner = selection.inner_layer is not None
+    columns += [Column(c.label, "thickness", 1) for c in shown]
+    if has_inner:
+        columns += [Column(f"inner layer ({selection.inner_layer[0].name})", "thickness"),
+                    Column("interface", "temperature")]
     columns += [Column("selected", "thickness"), Column("layers"), Column("governing"),
                 Column("heat flow", "heat_flow_per_length"), Column("surface", "temperature")]
     rows, json_rows = [], []
@@ -141,7 +171,10 @@ def table_report(selection, units: str = "si") -> Report:
     labels = {c.key: c.label for c in out.criteria}
     for i, size in enumerate(selection.sizes):
         feasible = bool(out.feasible[i])
-        row = [size.label, size.outer_diameter_m] + [c.required_m[i] for c in out.criteria]
+        row = [size.label, size.outer_diameter_m] + [c.required_m[i] for c in shown]
+        inner = _inner_layer(selection, i)
+        if has_inner:
+            row += [inner["thickness_mm"] / 1000 if inner else None, inner["interface_temp_c"] if inner else None]
         row += [out.selected_m[i], layers_text(out.layer_split_m[i], units) if feasible else "cannot be met",
                 labels.get(out.governing[i], "–"), q[i] if feasible else None, ts[i] if feasible else None]
         rows.append(row)
@@ -153,6 +186,7 @@ def table_report(selection, units: str = "si") -> Report:
             "governing": out.governing[i], "feasible": feasible,
             "heat_flow_w_per_m": float(q[i]) if feasible else None,
             "surface_temp_c": float(ts[i]) if feasible else None,
+            "inner_layer": inner,
             "messages": out.messages[i],
         })
     warnings = list(selection.notes)
