@@ -303,7 +303,7 @@ class _OuterSide:
         cylinder, 1.42 otherwise) and h_F = 4.1·V^0.618/D^0.382 across a cylinder or
         3.84·(V/L)^0.5 along a face, combined as (h_F³ + h_N³)^(1/3) (common practice for
         air near room temperature, from memory; only a starting point: the iteration uses
-        the real correlations).  Three fixed-point passes from h_c = 4 W/(m²·K).
+        the real correlations).  Two fixed-point passes from h_c = 4 W/(m²·K).
         """
         fluid, air, rad, area = cases["fluid"], cases["air"], cases["rad"], cases["area"]
         if self.fixed:
@@ -319,7 +319,7 @@ class _OuterSide:
                 h_f = 3.84 * np.sqrt(wind / length)
             h_f3 = h_f**3
         x = 0.5 * (fluid + air)
-        for _ in range(3):
+        for _ in range(2):
             r_in = cases["film_r"] + cases["wall_r"]
             mean = 0.5 * (fluid + x)
             for j, fit in enumerate(network.fits):
