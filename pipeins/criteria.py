@@ -129,10 +129,10 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
 
 
 def no_criterion_message(notes, rh_given: bool) -> str:
-    """The error text when no criterion is left to size for: why, and what could be asked."""
+    """The error text when no criterion is left to size for: why, and what could be asked
+    (parameter names, which each front end words as its flag or key)."""
     asks = ["touch_limit_c"] + ([] if rh_given else ["rh_percent (condensation)"]) + [
-        "max_heat_flow_w_per_m", "min_reduction", "{code}"]
+        "max_heat_flow_w_per_m", "min_reduction"]
     reasons = "; ".join(notes)
-    text = "no sizing criterion applies to this line"
-    return f"{text} ({reasons}); give one of {', '.join(asks)}" if reasons else \
-        f"{text}; give one of {', '.join(asks)}"
+    text = "no sizing criterion applies to this line" + (f" ({reasons})" if reasons else "")
+    return f"{text}; give one of {', '.join(asks)} or a code minimum"

@@ -56,7 +56,7 @@ def test_tall_vertical_bare_riser_warns_in_json(run):
     assert len(data["warnings"]) == len(set(data["warnings"]))
 
 
-@pytest.mark.parametrize("fmt", ["text", "markdown"])  # CSV tables carry no warnings yet (issue 8 §10)
+@pytest.mark.parametrize("fmt", ["text", "markdown", "html"])  # CSV: warnings as comment lines (issue 8 §10)
 def test_riser_warning_in_every_format(run, fmt):
     code, out, err = run("check", *RISER, "--format", fmt)
     assert code == 0, err
@@ -162,7 +162,7 @@ def test_condensation_alone_not_applicable_is_one_error_line(run):
     assert code == 2
     assert err.strip() == ("Error: --touch-limit: no sizing criterion applies to this line (" +
                            CONDENSATION_NOT_APPLICABLE + "); give one of --touch-limit, --max-heat-flow, "
-                           "--min-reduction, --code")
+                           "--min-reduction or a code minimum")
 
 
 def test_freeze_hold_on_a_line_in_warm_air_does_not_apply(run):
@@ -203,3 +203,21 @@ def test_touch_not_applicable_message(run):
                  "--max-heat-flow", "10W/m", "--material", "k=0.04")
     assert ("touch safety does not apply: the fluid (40 °C) is not above the 50 °C limit, so no surface "
             "can exceed it") in data["warnings"]
+
+
+def _richardson(surface_c, air_c, diameter_m, wind_m_s):
+    """Gr/Re² on the diameter with CoolProp air at the film temperature."""
+    film_k = 0.5 * (surface_c + air_c) + 273.15
+    rho = PropsSI("D", "T", film_k, "P", 101325.0, "Air")
+    nu = PropsSI("V", "T", film_k, "P", 101325.0, "Air") / rho
+    grashof = G * abs(surface_c - air_c) * diameter_m ** 3 / (film_k * nu ** 2)
+    return grashof / (wind_m_s * diameter_m / nu) ** 2
+
+
+@pytest.mark.parametrize("wind, mixed", [("0.5m/s", True), ("8m/s", False)])
+def test_mixed_convection_range_warns(run, wind, mixed):
+    data = _json(run, "check", "--pipe", "NPS 8", "--fluid-temp", "180C", "--wind", wind)
+    ri = _richardson(data["surface_temp_c"], 20.0, 0.2191, float(wind[:-3]))
+    assert (0.1 < ri < 10) is mixed  # the mixed regime, Gr/Re² about 1 (Incropera et al. sec. 9.9)
+    found = any(w.startswith("outer film: mixed convection (Gr/Re² between 0.1 and 10)") for w in data["warnings"])
+    assert found is mixed

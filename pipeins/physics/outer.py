@@ -177,6 +177,15 @@ def _outer_film(
                               "beyond the flat-plate correlation range; extrapolated"))
         nusselt_natural_on_length = h_natural * length_m / k
         h_mixed = cv.nusselt_mixed_churchill(nusselt_forced, nusselt_natural_on_length) * k / length_m
+        if collect_warnings:
+            # Gr/Re² on the common length: natural and forced both matter between 0.1 and 10
+            # (common practice; Incropera et al., 6th ed., sec. 9.9, puts the mixed regime at Gr/Re² ≈ 1)
+            with np.errstate(divide="ignore", invalid="ignore"):
+                richardson = buoyancy_per_m3 * length_m**3 * alpha / nu / np.maximum(reynolds, 1e-300) ** 2
+            notes.append((windy & (richardson > 0.1) & (richardson < 10.0) & (delta_k > _LOW_RA_MIN_DELTA_K),
+                          "mixed convection (Gr/Re² between 0.1 and 10)",
+                          "natural and forced combined as Nu³ = Nu_F³ + Nu_N³ (Churchill 1977); "
+                          "less certain than either alone"))
         h = np.where(windy, h_mixed, h_natural)
     else:
         h = h_natural
