@@ -65,7 +65,7 @@ nav.contents ol { margin: .2rem 0 0 1.2rem; padding: 0; columns: 2; }
 table.data { border-collapse: collapse; width: 100%; font-size: .9rem; }
 table.data caption { caption-side: top; text-align: left; color: var(--muted); font-size: .85rem; }
 table.data th, table.data td { border: 1px solid var(--rule); padding: .22rem .4rem;
-                               vertical-align: top; overflow-wrap: break-word; hyphens: auto; }
+                               vertical-align: top; overflow-wrap: break-word; }
 table.data thead th { background: var(--band); text-align: left; font-weight: 600;
                       vertical-align: bottom; }
 table.data td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
