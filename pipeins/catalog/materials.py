@@ -171,7 +171,7 @@ def lookup_material(spec: str, option: str = "--layer") -> InsulationMaterial:
 
     Parameters
     ----------
-    spec : str
+    spec : str or InsulationMaterial
         A catalogue key or name (``"mineral wool"``, ``"glass_wool"``,
         ``"Cellular-Glass"``, ``"calcium silicate pipe section"``), or ``"k=<value>"``
         with the conductivity in W/(m·K) (0 < k ≤ 5).
@@ -193,6 +193,8 @@ def lookup_material(spec: str, option: str = "--layer") -> InsulationMaterial:
     >>> lookup_material("k=0.040").points
     ((24.0, 0.04),)
     """
+    if isinstance(spec, InsulationMaterial):  # already looked up (e.g. a scaled copy, pipeins.sweep)
+        return spec
     spec = str(spec)
     if re.match(r"\s*k\s*=", spec, re.I):
         return _constant_k(spec, option)

@@ -21,6 +21,7 @@ COMMANDS = {
     "size": ("pipeins.cli.size", "size", "The least thickness that meets each criterion."),
     "table": ("pipeins.cli.table", "table", "Thickness table per pipe size for one service."),
     "cost": ("pipeins.cli.cost", "cost", "Annual energy, cost and CO2; bare against insulated; economic thickness."),
+    "sweep": ("pipeins.cli.sweep", "sweep", "Vary one input over a range: heat flow and thickness per value."),
     "schedule": ("pipeins.cli.schedule", "schedule", "Insulation schedule of a whole project file."),
     "list": ("pipeins.cli.listing", "list_", "Show the catalogues: pipes, materials, finishes, series, rules."),
     "verify": ("pipeins.cli.verify", "verify", "Run the published checks shipped with pipeins and compare."),

@@ -479,3 +479,10 @@ def plot_bytes(charts, path: str, units: str = "si") -> bytes:
     buf = io.BytesIO()
     fig.savefig(buf, format="png", dpi=150, metadata={"Software": None})
     return buf.getvalue()
+
+
+def register(kind: str, draw_function, panels: int = 1) -> None:
+    """Add a chart kind drawn outside this module: *draw_function(axes, data, units)* draws
+    the chart's data on its *panels* axes (e.g. :mod:`pipeins.reports.sweep`)."""
+    _DRAW[kind] = draw_function
+    PANELS[kind] = panels
