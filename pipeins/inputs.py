@@ -184,7 +184,7 @@ CLI_ONLY = {
     "--matrix": "an output layout of the table command",
     "--profile": "an operating profile of one line; a project service runs at one temperature",
     "--plot": "an extra chart file beside one command's output; the schedule's formats carry their charts",
-    "--ascii": "how the console draws text output; `pipeins schedule --ascii` chooses it for a project",
+    "--ascii": "how the console draws one command's text output (plain ASCII rules); not part of a project",
 }
 #: Project-file keys with no command-line option, and why.
 FILE_ONLY = {

@@ -28,6 +28,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from .errors import InputError
+from .inputs import file_word, in_words
 from .project import Project, ProjectError
 
 __all__ = ["ScheduleRow", "LineResult", "Totals", "Schedule", "compute_schedule", "GOVERNING_LABELS"]
@@ -169,7 +170,7 @@ def compute_schedule(project: Project) -> Schedule:
             try:
                 sel = _select(project, service, condition, sizes, length)
             except InputError as exc:
-                problems.append(f"{where}: {condition.name}: {exc.message}")
+                problems.append(f"{where}: {condition.name}: {in_words(exc.message, file_word)}")
                 continue
             out = sel.outcome
             criteria_used.setdefault(sname, [])
@@ -199,7 +200,7 @@ def compute_schedule(project: Project) -> Schedule:
         except InputError as exc:
             service = project.services[sname]
             entry = f'service "{sname}"'
-            problems.append(f"{project.where(service.file_line, entry)}: {cname}: {exc.message}")
+            problems.append(f"{project.where(service.file_line, entry)}: {cname}: {in_words(exc.message, file_word)}")
     if problems:
         raise ProjectError(problems)
     order = {line.tag: i for i, line in enumerate(project.lines)}

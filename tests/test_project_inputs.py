@@ -344,3 +344,16 @@ def test_parameter_words_are_known():
     for p in PARAMS:
         assert BY_NAME[p.name] is p
         assert p.flag is None or p.flag.startswith("--")
+
+
+def test_schedule_time_errors_use_the_file_words(run, tmp_path):
+    text = GOOD.split("[[lines]]")[0].replace('criteria = ["touch"]', 'criteria = ["condensation"]') + \
+        '[[lines]]\nservice = "hot"\nsize = "NPS 2"\nlength = "10 m"\ncondition = "room"\n'
+    path = tmp_path / "words.toml"
+    path.write_text(text, encoding="utf-8")
+    code, out, err = run("schedule", str(path))
+    assert (code, out) == (2, "")
+    [line] = err.splitlines()
+    assert line.startswith('Error: words.toml: line 7 (service "hot"): room: no sizing criterion applies')
+    assert "touch_limit_c" not in line and "--" not in line and "{" not in line
+    assert "touch_limit" in line
