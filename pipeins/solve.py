@@ -18,14 +18,19 @@ d[h_c·(Ts − Ta)]/dTs takes h_c at the iterate and its slope from the last two
 that together fail to halve |G|, are replaced by bisection, so every case converges.
 Only the cases not yet converged are carried into the next iteration.
 
-A case stops when the heat flow is known to ``rtol`` relative, or when the surface
-temperature is known to within what floating point can resolve (a few ulps of the
-temperatures involved): since G' ≥ 1 the root lies within |G|/G' of the iterate, and
-q within q_out'·|G|/G'.  The second test is what ends cases with a tiny heat flow or a
-large A·h·R, where q cannot be resolved relatively.  Fluid, air and radiant temperatures
-within :data:`NO_FLOW_SPAN_K` of each other are the no-flow case, answered exactly
-(q = 0, every temperature the fluid's).  The iteration count is bounded and reported; a
-case that still does not converge raises :class:`SolverError` (a bug, never bad input).
+A case stops when the heat-flow error left after its step is estimated below ``rtol``
+relative (from the superlinear convergence of the iterates and from the error of the
+estimated q_out'), or when the surface temperature is known to within what floating
+point can resolve (16 ulps of the largest temperature magnitude): since G' ≥ 1 the root
+lies within |G|/G' of the iterate.  The second test is what ends cases with a tiny heat
+flow or a large A·h·R (G' = 1 + A·h·R), where q cannot be resolved relatively from the
+outer side; their q is then taken from the conduction side at that surface temperature.
+Each converged case takes its last Newton step without another evaluation.  Fluid, air
+and radiant temperatures within :data:`NO_FLOW_SPAN_K` of each other are the no-flow
+case, answered exactly (q = 0, every temperature the fluid's).  The iteration count is
+bounded and reported; a case that still does not converge raises :class:`SolverError`
+(a bug, never bad input).  Resistances or an outer film that overflow floating point
+are an :class:`~pipeins.errors.InputError`.
 """
 from __future__ import annotations
 
@@ -45,7 +50,7 @@ __all__ = ["solve", "SolverError", "RELATIVE_TOLERANCE", "MAX_ITERATIONS", "NO_F
 RELATIVE_TOLERANCE = 1e-10
 #: Bound on the iterations of one call (every case converges in far fewer; see _newton_in_bracket).
 MAX_ITERATIONS = 200
-#: Largest outer circumference (per metre of pipe) the outer-film correlations can compute with [m].
+#: Largest outer surface per unit (circumference per metre, or face) the outer film can compute with [m].
 MAX_OUTER_SIZE_M = 1e6
 #: Fluid, air and radiant temperatures closer than this [K] are the exact no-flow case.
 NO_FLOW_SPAN_K = 1e-9
@@ -392,6 +397,9 @@ def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
         q, h_c, h_r, q_slope = outer_side(work, x)
         ts, dts_dq = network.surface(work, q)
         g = x - ts
+        # A march that overflows (a heat flow far too large for the resistances) gives NaN:
+        # its sign is that of q, since G rises with Ts and q with it.
+        g = np.where(np.isnan(g), np.copysign(np.inf, q), g)
         conv = st["conv"]
         if not outer_side.fixed:
             # Convection part of q_out': (Ts − Ta)·dh_c/dTs, by the secant of h_c over the
