@@ -278,8 +278,9 @@ class _OuterSide:
 
     def columns(self, c):
         """Per-case constants of the outer side (added to the solver's case arrays)."""
-        return {"rad_k": c["rad"] - radiation.ABSOLUTE_ZERO_C,
-                "eps_sigma": c["eps"] * radiation.STEFAN_BOLTZMANN}
+        rad_k = c["rad"] - radiation.ABSOLUTE_ZERO_C
+        eps_sigma = c["eps"] * radiation.STEFAN_BOLTZMANN
+        return {"rad_k": rad_k, "rad_k2": rad_k**2, "eps_sigma": eps_sigma, "eps_sigma4": 4.0 * eps_sigma}
 
     def __call__(self, cases, ts):
         """(q_out, h_c, h_r, dq_out/dTs without the convection-slope term)."""
@@ -294,10 +295,11 @@ class _OuterSide:
         if not np.all(np.isfinite(h_c)):
             raise InputError("outer film", "the convection coefficient overflows for these inputs (a height, "
                              "size, wind speed or air pressure far beyond any real line)")
-        ts_k, rad_k, eps_sigma = ts - radiation.ABSOLUTE_ZERO_C, cases["rad_k"], cases["eps_sigma"]
-        h_r = eps_sigma * (ts_k + rad_k) * (ts_k**2 + rad_k**2)
+        ts_k = ts - radiation.ABSOLUTE_ZERO_C
+        ts_k2 = ts_k**2
+        h_r = cases["eps_sigma"] * (ts_k + cases["rad_k"]) * (ts_k2 + cases["rad_k2"])
         q = area * (h_c * (ts - air) + h_r * (ts - rad))
-        return q, h_c, h_r, area * (h_c + 4.0 * eps_sigma * (ts_k * ts_k * ts_k))
+        return q, h_c, h_r, area * (h_c + cases["eps_sigma4"] * (ts_k2 * ts_k))
 
     def first_guess(self, cases, network):
         """Linearised surface temperature and the first step's (Ts − Ta)·dh_c/dTs.
@@ -324,16 +326,20 @@ class _OuterSide:
                 h_f = 3.84 * np.sqrt(wind / length)
             h_f3 = h_f**3
         x = 0.5 * (fluid + air)
+        r_fixed = cases["film_r"] + cases["wall_r"]
+        for j, fit in enumerate(network.fits):
+            if fit.is_constant:
+                r_fixed = r_fixed + cases[f"s{j}"] / fit.coefficients[0]
         for _ in range(2):
-            r_in = cases["film_r"] + cases["wall_r"]
+            r_in = r_fixed
             mean = 0.5 * (fluid + x)
-            for j, fit in enumerate(network.fits):
-                r_in = r_in + cases[f"s{j}"] / fit.conductivity(mean)
+            for j in network.varying:
+                r_in = r_in + cases[f"s{j}"] / network.fits[j].conductivity(mean)
             if self.fixed:
                 h_r = 0.0
             else:
-                x_k, rad_k = x - radiation.ABSOLUTE_ZERO_C, cases["rad_k"]
-                h_r = cases["eps_sigma"] * (x_k + rad_k) * (x_k**2 + rad_k**2)
+                x_k = x - radiation.ABSOLUTE_ZERO_C
+                h_r = cases["eps_sigma"] * (x_k + cases["rad_k"]) * (x_k**2 + cases["rad_k2"])
             h = h_c + h_r
             ambient = (h_c * air + h_r * rad) / h
             r_out = 1.0 / (area * h)
