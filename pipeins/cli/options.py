@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import click
 
-__all__ = ["line_options", "output_options", "plot_option", "spec_from_options", "emit", "parse_layer"]
+__all__ = ["line_options", "output_options", "ascii_option", "plot_option", "spec_from_options", "emit", "parse_layer"]
 
 
 def _opt(*names, **kw):
@@ -52,14 +52,19 @@ def line_options(func):
     return func
 
 
+def ascii_option(func):
+    """``--ascii``: plain ASCII output (read by :func:`emit` from the click context)."""
+    return click.option("--ascii", is_flag=True, expose_value=False, callback=_set_ascii,
+                        help="Plain ASCII text (rules, bullets, unit signs spelt out); chosen by "
+                             "itself when the console cannot show Unicode.")(func)
+
+
 def output_options(func):
     func = click.option("--output", "-o", type=click.Path(),
                         help="Write to this file (written whole, or not at all; - for standard output).")(func)
     func = click.option("--units", type=click.Choice(["si", "us"]), default="si", show_default=True,
                         help="Default units of bare numbers and units shown.")(func)
-    func = click.option("--ascii", is_flag=True, expose_value=False, callback=_set_ascii,
-                        help="Plain ASCII text (rules, bullets, unit signs spelt out); chosen by "
-                             "itself when the console cannot show Unicode.")(func)
+    func = ascii_option(func)
     func = click.option("--format", "fmt", default="text", show_default=True,
                         help="Output format: text, json, csv, markdown, html (one self-contained page "
                              "with charts) or xlsx (a workbook, needs --output).")(func)

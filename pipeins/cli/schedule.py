@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import click
 
+from .options import ascii_option
+
 
 def write_csv_folder(report, units: str, folder: str) -> None:
     """Write each table of *report* as its own CSV file into *folder*, swapped in whole
@@ -35,6 +37,7 @@ def write_csv_folder(report, units: str, folder: str) -> None:
               help="Units shown (default: the project's unit system).")
 @click.option("--output", "-o", type=click.Path(),
               help="Write to this file (text, markdown, json) or into this folder (csv); whole or not at all.")
+@ascii_option
 def schedule(project_file, fmt, units, output):
     """The insulation schedule of a whole project file.
 
