@@ -195,6 +195,21 @@ def _freeze_time():
     return float(r.time_to_ice_fraction_s)
 
 
+def _pipe(label, schedule, field):
+    def compute():
+        from .catalog.pipes import lookup_pipe
+
+        return float(getattr(lookup_pipe(label, schedule), field))
+
+    return compute
+
+
+def _present_worth():
+    from .economics import present_worth_factor
+
+    return float(present_worth_factor(0.05, 20.0))
+
+
 def _ashrae_footnote():
     from .codes import adjusted_thickness_m
 
@@ -288,7 +303,22 @@ CHECKS: tuple[Check, ...] = (
     Check("ashrae-90.1-footnote-nps4", "ASHRAE 90.1-2019, note to Table 6.8.3-1 (from memory)",
           "thickness of k 0.23 equal to 2.0 in of k 0.29 on NPS 4 (r 2.25 in)", "in", 1.476, 5e-4, False,
           _ashrae_footnote, _EXAMPLE),
+    Check("asme-b36.10-nps4-sch80-od", "ASME B36.10M inch table, NPS 4 schedule 80 (from memory)",
+          "outside diameter, 4.500 in", "m", 0.1143, 0.06e-3, False, _pipe("NPS 4", "80", "outer_diameter_m"),
+          _EXAMPLE),
+    Check("asme-b36.10-nps4-sch80-wall", "ASME B36.10M inch table, NPS 4 schedule 80 (from memory)",
+          "wall thickness, 0.337 in", "m", 0.337 * 0.0254, 0.006e-3, False, _pipe("NPS 4", "80", "wall_m"),
+          _EXAMPLE),
+    Check("present-worth-5pct-20y", "compound-interest tables, (P/A, 5 %, 20) (from memory)",
+          "uniform-series present-worth factor at 5 % over 20 years", "years", 12.4622, 5e-5, False,
+          _present_worth, _EXAMPLE),
     # ---- reference libraries: values computed by the library named, shipped as data
+    Check("fluids-nps6-sch40-od", "fluids 1.3.1 piping.nearest_pipe(NPS=6, schedule='40') (ASME B36.10M)",
+          "outside diameter of NPS 6 schedule 40", "m", 0.1683, 1e-5, False, _pipe("NPS 6", "40", "outer_diameter_m"),
+          _LIBRARY),
+    Check("fluids-nps6-sch40-wall", "fluids 1.3.1 piping.nearest_pipe(NPS=6, schedule='40') (ASME B36.10M)",
+          "wall thickness of NPS 6 schedule 40", "m", 0.00711, 1e-5, False, _pipe("NPS 6", "40", "wall_m"),
+          _LIBRARY),
     Check("iapws95-water-density-20c", "iapws 1.5.5 IAPWS95(T=293.15 K, x=0).rho (IAPWS-95)",
           "density of saturated liquid water at 20 °C", "kg/m³", 998.161801343, 2e-3, True,
           _liquid("water", 20.0, "density_kg_m3"), _LIBRARY),

@@ -139,7 +139,18 @@ def _ht(function, *args):
     return live
 
 
+def _nearest_pipe(index):
+    def live():
+        from fluids.piping import nearest_pipe
+
+        return nearest_pipe(NPS=6, schedule="40")[index]
+
+    return live
+
+
 LIVE = {
+    "fluids-nps6-sch40-od": ("fluids", _nearest_pipe(2)),
+    "fluids-nps6-sch40-wall": ("fluids", _nearest_pipe(3)),
     "iapws95-water-density-20c": ("iapws", _iapws95(293.15, "rho")),
     "iapws95-water-cp-80c": ("iapws", _iapws95(353.15, "cp")),
     "iapws97-saturation-1bar": ("iapws", _iapws97_saturation),
