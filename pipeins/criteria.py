@@ -21,7 +21,7 @@ from .errors import InputError
 from .sizing import DEFAULT_DEW_MARGIN_K, Condensation, HeatFlowCap, TouchSafety
 
 __all__ = ["Requirements", "build_criteria", "touch_limit_for", "no_criterion_message",
-           "CONDENSATION_NOT_APPLICABLE", "FREEZE_NOT_APPLICABLE"]
+           "CONDENSATION_NOT_APPLICABLE", "FREEZE_NOT_APPLICABLE", "freeze_not_applicable"]
 
 
 @dataclass(frozen=True)
@@ -61,7 +61,18 @@ FREEZE_NOT_APPLICABLE = ("freeze hold does not apply: fluid above 0 °C in air a
                          "0 °C, so still water does not freeze")
 
 
-def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_kind: str):
+def freeze_not_applicable(units: str = "si") -> str:
+    """:data:`FREEZE_NOT_APPLICABLE` in the unit system *units*."""
+    if units == "si":
+        return FREEZE_NOT_APPLICABLE
+    from .units import format_quantity
+
+    zero = format_quantity(0.0, "temperature", units)
+    return (f"freeze hold does not apply: fluid above {zero} in air and surroundings at or above {zero}, "
+            "so still water does not freeze")
+
+
+def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_kind: str, units: str = "si"):
     """The criteria that apply, and notes on criteria that were asked for but do not apply.
 
     Condensation control is built whenever the relative humidity is given and some surface
@@ -88,8 +99,12 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
         if fluid_hot > limit:
             criteria.append(TouchSafety(limit, source))
         elif req.touch_limit_c is not None or req.contact_time_s is not None:
-            notes.append(f"touch safety does not apply: the fluid ({fluid_hot:g} °C) is not above the "
-                         f"{limit:g} °C limit, so no surface can exceed it")
+            from .units import format_quantity as fq
+
+            hot, lim = ((f"{fluid_hot:g} °C", f"{limit:g} °C") if units == "si" else
+                        (fq(fluid_hot, "temperature", units), fq(limit, "temperature", units)))
+            notes.append(f"touch safety does not apply: the fluid ({hot}) is not above the {lim} limit, "
+                         "so no surface can exceed it")
     cold_sky = float(np.min(radiant)) < float(np.min(air))
     if fluid_cold < float(np.max(air)) or cold_sky:
         if spec.rh_percent is not None:
@@ -122,7 +137,7 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
         if req.hold_time_s <= 0:
             raise InputError("hold_time_s", "the hold time must be greater than zero")
         if coldest_outside >= 0.0 and fluid_cold >= 0.0:
-            notes.append(FREEZE_NOT_APPLICABLE)
+            notes.append(freeze_not_applicable(units))
         else:
             criteria.append(FreezeHold(req.hold_time_s, req.ice_fraction))
     return criteria, notes

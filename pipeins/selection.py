@@ -98,7 +98,10 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
                        wall_m=np.reshape(pipe.wall_m, (1, 1)))
         if fluid.film_coefficient_w_m2k is not None:
             fluid = replace(fluid, film_coefficient_w_m2k=np.reshape(fluid.film_coefficient_w_m2k, (1, 1)))
-    criteria, notes = build_criteria(spec, req, fluid.temp_c, surroundings.air_temp_c, surface.surface_kind)
+    criteria, notes = build_criteria(spec, req, fluid.temp_c, surroundings.air_temp_c, surface.surface_kind,
+                                     units)
+    for criterion in criteria:  # the unit system of their sentences
+        criterion.units = units
     limit = next((c.limit_c for c in criteria if c.key == "surface_temp"), spec.touch_limit_c)
     problem = SizingProblem(pipe, fixed, material, fluid, surroundings, surface, limit, n)
     size_list = sizes or [spec.pipe_size()]
@@ -202,6 +205,7 @@ def _within_service_limits(problem, outcome, criteria, series_m, extra, units, s
             sized_index += 1
     # the always-on criterion, judged on the selected build-up
     service = ServiceLimits()
+    service.units = units
     margin = np.ravel(np.broadcast_to(service.margin(problem, outcome.result, None), outcome.result.shape))
     ok = margin >= 0
     messages = []

@@ -78,8 +78,16 @@ def _q(value_si: float, kind: str, units: str) -> str:
     return format_quantity(value_si, kind, units)
 
 
+def _in(units: str, value: float, kind: str, si_text: str) -> str:
+    """*si_text* in SI; in other unit systems the quantity formatted for them."""
+    return si_text if units == "si" else _q(value, kind, units)
+
+
 class Criterion:
     """Base class: ``key`` (JSON), ``label`` (reports), ``unit`` of the margin.
+
+    ``units`` (``"si"`` or ``"us"``, set by :func:`pipeins.selection.select`) is the unit system
+    of the sentences :meth:`state` and :meth:`miss` write.
 
     A criterion whose ``not_applicable`` text is set is dropped by :func:`size`, with that
     text as a note, when every thickness from bare to the thickest passes it.
@@ -88,6 +96,7 @@ class Criterion:
     key = ""
     label = ""
     not_applicable = ""
+    units = "si"
 
     def margin(self, problem: SizingProblem, result, thickness_m) -> np.ndarray:
         raise NotImplementedError
@@ -127,12 +136,16 @@ class TouchSafety(Criterion):
         return f"{text} ({self.source})" if self.source else text
 
     def state(self, problem, result, index):
-        ts = float(np.ravel(result.surface_temp_c)[index])
-        return f"surface {ts:.1f} °C, {self.limit_c - ts:.1f} K below the {self.limit_c:g} °C limit"
+        ts, u, lim = float(np.ravel(result.surface_temp_c)[index]), self.units, self.limit_c
+        return (f"surface {_in(u, ts, 'temperature', f'{ts:.1f} °C')}, "
+                f"{_in(u, lim - ts, 'temperature_difference', f'{lim - ts:.1f} K')} below the "
+                f"{_in(u, lim, 'temperature', f'{lim:g} °C')} limit")
 
     def miss(self, margin, thickness_m):
-        return (f"touch safety cannot be met: with {thickness_m * 1000:.0f} mm the surface is still "
-                f"{-margin:.1f} K above the {self.limit_c:g} °C limit")
+        u, lim = self.units, self.limit_c
+        return (f"touch safety cannot be met: with {_in(u, thickness_m, 'thickness', f'{thickness_m * 1000:.0f} mm')}"
+                f" the surface is still {_in(u, -margin, 'temperature_difference', f'{-margin:.1f} K')} above the "
+                f"{_in(u, lim, 'temperature', f'{lim:g} °C')} limit")
 
 
 @dataclass
@@ -154,13 +167,18 @@ class Condensation(Criterion):
         return f"surface at least {_q(self.margin_k, 'temperature_difference', units)} above the dew point"
 
     def state(self, problem, result, index):
-        ts = float(np.ravel(result.surface_temp_c)[index])
+        ts, u = float(np.ravel(result.surface_temp_c)[index]), self.units
         dew = float(np.ravel(np.broadcast_to(result.dew_point_c, result.shape))[index])
-        return f"surface {ts:.1f} °C, {ts - dew:.1f} K above the dew point {dew:.1f} °C"
+        return (f"surface {_in(u, ts, 'temperature', f'{ts:.1f} °C')}, "
+                f"{_in(u, ts - dew, 'temperature_difference', f'{ts - dew:.1f} K')} above the dew point "
+                f"{_in(u, dew, 'temperature', f'{dew:.1f} °C')}")
 
     def miss(self, margin, thickness_m):
-        text = (f"condensation control cannot be met: with {thickness_m * 1000:.0f} mm the surface is still "
-                f"{-margin:.2f} K below the dew point plus {self.margin_k:g} K")
+        u, m = self.units, self.margin_k
+        text = (f"condensation control cannot be met: with "
+                f"{_in(u, thickness_m, 'thickness', f'{thickness_m * 1000:.0f} mm')} the surface is still "
+                f"{_in(u, -margin, 'temperature_difference', f'{-margin:.2f} K')} below the dew point plus "
+                f"{_in(u, m, 'temperature_difference', f'{m:g} K')}")
         if self.cold_sky:
             text += ("; surroundings colder than the air cool an insulated surface by radiation, so more "
                      "insulation does not help: a low-emittance jacket or a cover over the line may")
@@ -220,11 +238,14 @@ class ServiceLimits(Criterion):
         limit = mat.max_temp_c if side == "hot" else mat.min_temp_c
         face = limit - value if side == "hot" else limit + value
         where = ("above" if value < 0 else "below") if side == "hot" else ("below" if value < 0 else "above")
-        return (f"layer {j + 1} ({mat.name}) {side} face {face:.1f} °C, {abs(value):.1f} K {where} its "
-                f"{limit:g} °C limit")
+        u = self.units
+        return (f"layer {j + 1} ({mat.name}) {side} face {_in(u, face, 'temperature', f'{face:.1f} °C')}, "
+                f"{_in(u, abs(value), 'temperature_difference', f'{abs(value):.1f} K')} {where} its "
+                f"{_in(u, limit, 'temperature', f'{limit:g} °C')} limit")
 
     def miss(self, margin, thickness_m):
-        return f"service temperature cannot be met: a layer is {-margin:.1f} K beyond its material's limit"
+        return (f"service temperature cannot be met: a layer is "
+                f"{_in(self.units, -margin, 'temperature_difference', f'{-margin:.1f} K')} beyond its material's limit")
 
 
 @dataclass
@@ -269,10 +290,13 @@ class HeatFlowCap(Criterion):
     def state(self, problem, result, index):
         q = abs(float(np.ravel(result.heat_flow_w_per_m)[index]))
         cap = float(np.ravel(np.broadcast_to(self.cap(problem), result.shape))[index])
-        return f"|heat flow| {q:.1f} W/m, {100 * (cap - q) / cap:.0f} % under the cap of {cap:.1f} W/m"
+        u = self.units
+        return (f"|heat flow| {_in(u, q, 'heat_flow_per_length', f'{q:.1f} W/m')}, {100 * (cap - q) / cap:.0f} % "
+                f"under the cap of {_in(u, cap, 'heat_flow_per_length', f'{cap:.1f} W/m')}")
 
     def miss(self, margin, thickness_m):
-        return (f"heat-flow cap cannot be met: with {thickness_m * 1000:.0f} mm the heat flow is still "
+        return (f"heat-flow cap cannot be met: with "
+                f"{_in(self.units, thickness_m, 'thickness', f'{thickness_m * 1000:.0f} mm')} the heat flow is still "
                 f"{-100 * margin:.1f} % above the cap")
 
 
@@ -352,7 +376,7 @@ def _continuous(criterion, problem, grid, margin_on_grid):
     required = np.where(feasible, required, np.nan)
     messages = ["" if feasible[i] else criterion.miss(float(margin_on_grid[i, -1]), float(grid[-1]))
                 for i in range(n)]
-    return CriterionOutcome(criterion.key, criterion.label, criterion.describe(), required, feasible, messages)
+    return CriterionOutcome(criterion.key, criterion.label, criterion.describe(criterion.units), required, feasible, messages)
 
 
 def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequence[float],

@@ -221,3 +221,13 @@ def test_mixed_convection_range_warns(run, wind, mixed):
     assert (0.1 < ri < 10) is mixed  # the mixed regime, Gr/Re² about 1 (Incropera et al. sec. 9.9)
     found = any(w.startswith("outer film: mixed convection (Gr/Re² between 0.1 and 10)") for w in data["warnings"])
     assert found is mixed
+
+
+def test_not_applicable_and_state_texts_in_us_units(run):
+    data = _json(run, "size", "--units", "us", "--pipe", "NPS 2", "--fluid-temp", "176F", "--ambient-temp", "68F",
+                 "--hold-time", "8h", "--material", "mineral wool")
+    assert ("freeze hold does not apply: fluid above 32.0 °F in air and surroundings at or above 32.0 °F, so still "
+            "water does not freeze") in data["warnings"]
+    code, out, _ = run("size", "--units", "us", "--pipe", "NPS 2", "--fluid-temp", "176F", "--ambient-temp", "68F",
+                       "--material", "mineral wool")
+    assert code == 0 and "140.0 °F limit" in out and "60 °C limit" not in out
