@@ -230,3 +230,21 @@ def test_heavy_imports_only_when_drawing(args, expected):
                           timeout=120)
     assert proc.returncode == 0, proc.stderr
     assert proc.stderr.strip().splitlines()[-1:] == ([expected] if expected else [])
+
+
+def test_schedule_data_equals_json():
+    from pipeins.project import load_project
+    from pipeins.reports import render
+    from pipeins.reports.schedule import schedule_report
+    from pipeins.schedule import compute_schedule
+
+    schedule = compute_schedule(load_project(ROOT / "examples" / "district_heating_plant.toml"))
+    rows = json.loads(render(schedule_report(schedule, "si"), "json"))["schedule"]
+    d = charts.schedule_thickness_data(schedule)
+    assert len(d["rows"]) == len(rows) > 0
+    for mine, theirs in zip(d["rows"], rows):
+        assert mine["thickness_m"] * 1000 == pytest.approx(theirs["thickness_mm"], abs=0.005)
+        assert mine["governing"] == theirs["governing"]
+        assert mine["label"].startswith(f"{theirs['service']} · {theirs['condition']} · ")
+    svg = charts.chart_svg(charts.schedule_charts(schedule)[0])
+    ET.fromstring(svg)

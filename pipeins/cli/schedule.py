@@ -71,6 +71,9 @@ def schedule(project_file, fmt, units, output):
     shown = units or project.units
     report = schedule_report(result, shown)
     report.title_block = {"project": project.name, **project.report}
+    from ..reports.charts import schedule_charts
+
+    report.charts = schedule_charts(result)
     if fmt == "csv":
         write_csv_folder(report, shown, output)
         return

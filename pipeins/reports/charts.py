@@ -24,21 +24,25 @@ Charts (kind: what it shows):
 ``economic_curve``
     installed cost, energy over the life and their total against thickness (``cost``);
 ``bare_insulated``
-    heat flow bare against insulated (``cost`` without a cost table).
+    heat flow bare against insulated (``cost`` without a cost table);
+``schedule_thickness``
+    the thickness of every schedule row (service, location, sizes), marked by the
+    governing requirement (``schedule``).
 """
 
 from __future__ import annotations
 
 import io
 import re
+import textwrap
 from dataclasses import dataclass, field
 from typing import Callable
 
 import numpy as np
 
 __all__ = ["Chart", "profile_data", "along_run_data", "thickness_sweep_data", "table_thickness_data",
-           "matrix_data", "economic_curve_data", "bare_insulated_data", "check_charts", "size_charts",
-           "table_charts", "cost_charts", "draw", "chart_svg", "plot_bytes", "KINDS"]
+           "matrix_data", "economic_curve_data", "bare_insulated_data", "schedule_thickness_data", "check_charts", "size_charts",
+           "table_charts", "cost_charts", "schedule_charts", "draw", "chart_svg", "plot_bytes", "KINDS"]
 
 
 @dataclass
@@ -200,6 +204,16 @@ def economic_curve_data(study) -> dict:
             "years": float(study.basis.years)}
 
 
+def schedule_thickness_data(schedule) -> dict:
+    """Per row of a :class:`pipeins.schedule.Schedule`: ``label`` (service, location,
+    sizes), ``thickness_m``, ``governing`` key and label."""
+    from ..schedule import GOVERNING_LABELS
+
+    return {"rows": [{"label": f"{r.service} · {r.condition} · {r.size_band}", "thickness_m": float(r.thickness_m),
+                      "governing": r.governing, "governing_label": GOVERNING_LABELS.get(r.governing, "–")}
+                     for r in schedule.rows]}
+
+
 def bare_insulated_data(study) -> dict:
     """Heat flow per metre bare and insulated of a cost study."""
     return {"bare_w_per_m": _f(study.bare_w_per_m), "insulated_w_per_m": _f(study.insulated_w_per_m)}
@@ -243,6 +257,12 @@ def cost_charts(study) -> list[Chart]:
     return [Chart("bare_insulated", "Heat flow bare against insulated", lambda: bare_insulated_data(study))]
 
 
+def schedule_charts(schedule) -> list[Chart]:
+    """Charts of ``schedule``: the thickness of every schedule row."""
+    return [Chart("schedule_thickness", "Schedule thickness per service, location and size band",
+                  lambda: schedule_thickness_data(schedule))]
+
+
 # ----------------------------------------------------------------------------- drawing
 _INK, _GREY, _ACCENT = "#1b1b1b", "#8a8a8a", "#17484f"
 _STYLES = ("--", ":", "-.", (0, (5, 1, 1, 1)), (0, (1, 1)), (0, (3, 1, 1, 1, 1, 1)))
@@ -250,7 +270,7 @@ _MARKERS = ("o", "s", "^", "D", "v", "P", "X")
 _HATCHES = ("", "//", "..", "xx", "\\\\", "++", "oo")
 PANELS = {"thickness_sweep": 2}
 KINDS = ("buildup_profile", "along_run", "thickness_sweep", "table_thickness", "matrix", "economic_curve",
-         "bare_insulated")
+         "bare_insulated", "schedule_thickness")
 
 
 def _disp(values, kind, units):
@@ -351,7 +371,7 @@ def _draw_table_thickness(axes, d, units):
     ax.set_xticks(x)
     ax.set_xticklabels([r["size"] for r in rows], rotation=60, ha="right", fontsize=7)
     ax.set_ylabel(f"selected thickness [{_lab('thickness', units)}]", fontsize=9)
-    ax.legend(fontsize=7, frameon=False)
+    ax.legend(fontsize=7, frameon=False, loc="upper left")
     _style(ax)
 
 
@@ -396,9 +416,30 @@ def _draw_bare_insulated(axes, d, units):
     _style(ax)
 
 
+def _draw_schedule(axes, d, units):
+    (ax,) = axes
+    rows = d["rows"]
+    groups = list(dict.fromkeys(r["governing_label"] for r in rows))
+    y = np.arange(len(rows))[::-1]
+    for j, group in enumerate(groups):
+        idx = [i for i, r in enumerate(rows) if r["governing_label"] == group]
+        widths = [float(_disp(rows[i]["thickness_m"], "thickness", units)) for i in idx]
+        bars = ax.barh(y[idx], widths, color=("#5f7f84", "#c9d3d4", "#9aa9ab", "#e6ebeb", "#3e5a5e")[j % 5],
+                       edgecolor=_INK, lw=0.6, hatch=_HATCHES[j % len(_HATCHES)], label=f"governed by {group}")
+        for bar, w in zip(bars, widths):
+            ax.annotate(f"{w:.{0 if units == 'si' else 2}f}", (w, bar.get_y() + bar.get_height() / 2),
+                        xytext=(3, 0), textcoords="offset points", va="center", fontsize=7)
+    ax.set_yticks(y)
+    ax.set_yticklabels([r["label"] for r in rows], fontsize=7)
+    ax.set_xlabel(f"thickness [{_lab('thickness', units)}]", fontsize=9)
+    ax.legend(fontsize=7, frameon=False, loc="upper center", bbox_to_anchor=(0.5, -0.5 / max(1, len(rows)) - 0.12),
+              ncol=1)
+    _style(ax)
+
+
 _DRAW = {"thickness_sweep": _draw_thickness_sweep, "buildup_profile": _draw_profile, "along_run": _draw_along_run,
          "table_thickness": _draw_table_thickness, "matrix": _draw_matrix, "economic_curve": _draw_economic,
-         "bare_insulated": _draw_bare_insulated}
+         "bare_insulated": _draw_bare_insulated, "schedule_thickness": _draw_schedule}
 
 
 def _need(module: str, option: str):
@@ -421,8 +462,12 @@ def draw(charts, units: str = "si", option: str = "--format"):
 
     charts = [charts] if isinstance(charts, Chart) else list(charts)
     panels = [PANELS.get(c.kind, 1) for c in charts]
-    fig = Figure(figsize=(7.2, 2.7 * sum(panels) + 0.5 * len(charts)), layout="constrained")
-    axes = fig.subplots(sum(panels), 1, squeeze=False)[:, 0]
+    heights = []  # inches per panel: a bar per schedule row needs room
+    for chart, n in zip(charts, panels):
+        tall = 0.32 * len(chart.data["rows"]) + 1.0 if chart.kind == "schedule_thickness" else 2.7
+        heights += [max(2.0, tall)] * n
+    fig = Figure(figsize=(7.2, sum(heights) + 0.5 * len(charts)), layout="constrained")
+    axes = fig.subplots(sum(panels), 1, squeeze=False, gridspec_kw={"height_ratios": heights})[:, 0]
     k = 0
     for chart, n in zip(charts, panels):
         mine = list(axes[k:k + n])
@@ -430,7 +475,7 @@ def draw(charts, units: str = "si", option: str = "--format"):
             for ax in mine[:-1]:
                 ax.sharex(mine[-1])
         _DRAW[chart.kind](mine, chart.data, units)
-        mine[0].set_title(chart.title, fontsize=10, loc="left", color=_INK)
+        mine[0].set_title(textwrap.fill(chart.title, 75), fontsize=10, color=_INK)
         k += n
     return fig
 
