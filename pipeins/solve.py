@@ -248,8 +248,7 @@ class _Network:
         for i, j in enumerate(self.varying):
             fit, s = self.fits[j], cases[f"s{j}"]
             theta, k_in = fit.potential_and_conductivity(t)
-            t = fit.temperature(theta - q * s)
-            k_out = fit.conductivity(t)
+            t, k_out = fit.temperature_and_conductivity(theta - q * s)
             r_post = cases[f"r_post{i}"]
             dt = (k_in * dt - s) / k_out - r_post
             t = t - q * r_post

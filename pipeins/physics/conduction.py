@@ -139,9 +139,14 @@ class Conductivity:
         >>> float(k.temperature(k.potential(123.4)))
         123.4
         """
+        return self.temperature_and_conductivity(potential_w_per_m)[0]
+
+    def temperature_and_conductivity(self, potential_w_per_m):
+        """:meth:`temperature` [°C], and k [W/(m·K)] at the Newton step's start (within
+        about 1e-5 K of it: enough for a derivative)."""
         theta = np.asarray(potential_w_per_m, dtype=float)
         if self.is_constant:
-            return theta / self.coefficients[0]
+            return theta / self.coefficients[0], np.full(theta.shape, self.coefficients[0])
         th0, per_unit, nodes, steps = self._inverse_grid
         g = (theta - th0) * per_unit  # position on the grid, in cells
         cell = np.clip(g, 0.0, len(nodes) - 2.0).astype(np.intp)
@@ -149,7 +154,7 @@ class Conductivity:
         # Newton step below is exact because Θ is linear there).
         guess = nodes[cell] + steps[cell] * (g - cell)
         th, k = self.potential_and_conductivity(guess)
-        return guess - (th - theta) / k
+        return guess - (th - theta) / k, k
 
 
 @functools.cache
