@@ -195,6 +195,8 @@ FILE_ONLY = {
     "criteria": "the criteria a service is sized for; on the command line, the options given choose them",
     "thickness": "a line's fixed thickness; on the command line, check and cost take --layer",
     "units": "the project's unit system; --units on the command line",
+    "lines_file": "a line list gives a project many lines; the command line describes one",
+    "lines_sheet": "the sheet of a project's XLSX line list",
 }
 
 

@@ -81,7 +81,7 @@ def _param_keys(table: str) -> set:
 #: Every key the reader knows, per kind of table (the key reference, docs/project-file.md,
 #: lists each one; a test checks it).
 KEYS = {
-    "project": {"name", "units"} | _param_keys("project"),
+    "project": {"name", "units", "lines_file", "lines_sheet"} | _param_keys("project"),
     "energy": _param_keys("energy"),
     "conditions": _param_keys("conditions"),
     "services": _param_keys("services") | {"criteria"},
@@ -92,7 +92,7 @@ KEYS = {
 _KEYS = KEYS
 #: (table, key) -> the parameter it fills.
 _PARAM_OF = {(t, p.key): p.name for p in PARAMS if p.key for t in p.tables}
-_TOP = ("project", "energy", "conditions", "services", "lines", "report")
+_TOP = ("project", "energy", "conditions", "services", "lines", "report", "lines_columns")
 #: Line keys that give the line a build-up of its own, and those that give it a location of its own.
 _LINE_SERVICE_KEYS = ("material", "thickness", "finish", "emittance", "pipe_material")
 _LINE_CONDITION_KEYS = ("orientation", "height")
@@ -297,9 +297,13 @@ class _Reader:
         self.units = "si"
         self.currency = ""
         self.code_paths: tuple = ()
+        self.places: dict = {}  # ("lines", index) of a line-list row -> its place (pipeins.linelist)
 
     # -- reporting --------------------------------------------------------------------
     def problem(self, path: tuple, entry: str, key: str | None, message: str) -> None:
+        if path in self.places:  # a line-list row: its file, sheet, row and column
+            self.problems.append(self.places[path](key, in_words(message, file_word)))
+            return
         line = self.pos.key(path, key) if key else self.pos.header(path)
         self.problems.append(f"{_where(self.file_name, line, entry, key)}: {in_words(message, file_word)}")
 
@@ -537,7 +541,14 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
     if not isinstance(raw_lines, list) or not all(isinstance(x, dict) for x in raw_lines):
         r.problems.append(f"{file_name}: lines must be [[lines]] tables")
         raw_lines = []
-    if not raw_lines:
+    if "lines_file" in head:  # the rows of a CSV/XLSX line list join [[lines]] (pipeins.linelist)
+        from .linelist import add_line_list
+
+        raw_lines = add_line_list(r, head, data.get("lines_columns"), raw_lines)
+    elif "lines_columns" in data:
+        r.problems.append(f"{file_name}: [lines_columns] maps the columns of a line list; add lines_file to "
+                          "[project]")
+    if not raw_lines and "lines_file" not in head:
         r.problems.append(f"{file_name}: no [[lines]]: add at least one line with service, size, length "
                           "and condition")
     raw_services = data.get("services", {}) if isinstance(data.get("services"), dict) else {}
