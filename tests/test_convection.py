@@ -283,3 +283,15 @@ def test_registry_unknown_name_lists_valid_names():
 def test_registry_unknown_kind():
     with pytest.raises(InputError, match='unknown kind "radiant"; valid kinds: natural, forced, internal'):
         cv.get_correlation("radiant", "x")
+
+
+@pytest.mark.parametrize("key", list(cv.VALIDITY))
+def test_every_validity_record_names_a_registered_correlation(key):
+    # the records the warnings are made from point at the functions the films call
+    record = cv.validity(*key)
+    if record.kind in ("natural", "forced", "internal"):
+        assert cv.get_correlation(record.kind, record.name) is record.function
+    assert record.source and record.ranges
+    for low, high in record.ranges.values():
+        assert low is not None or high is not None
+        assert low is None or high is None or low < high

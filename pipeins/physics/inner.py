@@ -168,14 +168,20 @@ def inner_film_warnings(
     prandtl = prandtl_number(viscosity_pa_s, heat_capacity_j_kgk, conductivity_w_mk)
     reynolds, prandtl = np.broadcast_arrays(reynolds, prandtl)
     total = reynolds.size
+    from pipeins.physics.convection import validity
+
+    record = validity("internal", "pipe")
+    re_turbulent, re_high = record.ranges["Re"]
+    pr_low, pr_high = record.ranges["Pr"]
     found = []
     checks = (
         (reynolds < 2300.0, "laminar flow (Re below 2300)", "fully developed Nu = 4.36 used, entry-length enhancement neglected"),
-        ((reynolds >= 2300.0) & (reynolds < 1.0e4), "transitional flow (Re 2300 to 10000)",
+        ((reynolds >= 2300.0) & (reynolds < re_turbulent), f"transitional flow (Re 2300 to {re_turbulent:.0f})",
          "Gnielinski (1995) interpolation used; uncertainty is larger than in turbulent flow"),
-        (reynolds > 5.0e6, "Re above 5e6", "outside the Gnielinski (1976) range; extrapolated"),
-        (prandtl < 0.5, "Pr below 0.5", "outside the Gnielinski (1976) range (liquid metals need another correlation)"),
-        (prandtl > 2000.0, "Pr above 2000", "outside the Gnielinski (1976) range; extrapolated"),
+        (reynolds > re_high, "Re above 5e6", "outside the Gnielinski (1976) range; extrapolated"),
+        (prandtl < pr_low, f"Pr below {pr_low:g}",
+         "outside the Gnielinski (1976) range (liquid metals need another correlation)"),
+        (prandtl > pr_high, f"Pr above {pr_high:g}", "outside the Gnielinski (1976) range; extrapolated"),
     )
     for mask, what, consequence in checks:
         count = int(np.count_nonzero(mask))

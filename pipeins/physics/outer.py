@@ -106,14 +106,16 @@ def _outer_film(
     # g * beta * dT / (nu * alpha), beta = 1 / T_film (ideal gas); times L^3 gives Ra_L
     buoyancy_per_m3 = STANDARD_GRAVITY_M_S2 * delta_k / (film_temp_k * nu * alpha)
 
-    notes = []  # (mask, what, consequence) for the warnings
+    notes = []  # (mask, what, consequence) for the warnings, bounds from the correlations' records
+    g = cv.group_text
 
     natural_length_m = height_m if vertical else length_m
     rayleigh = buoyancy_per_m3 * natural_length_m**3
     if geometry == "cylinder" and not vertical:
         nusselt_natural = cv.nusselt_horizontal_cylinder_churchill_chu(rayleigh, pr)
         if collect_warnings:
-            notes.append((rayleigh > 1.0e12, "Rayleigh number above 1e12",
+            top = cv.validity("natural", "horizontal_cylinder").bound("Ra", 1)
+            notes.append((rayleigh > top, f"Rayleigh number above {g(top)}",
                           "beyond the Churchill & Chu (1975) horizontal-cylinder range; extrapolated"))
     elif geometry == "cylinder":
         # Correction applied everywhere (it tends to 1 for thick cylinders): the heat flow
@@ -122,21 +124,26 @@ def _outer_film(
                                                                         plate_when_thick=False)
         if collect_warnings:
             thin = cv.vertical_cylinder_is_thin(rayleigh, pr, height_m, length_m)
+            plate_top = cv.validity("natural", "vertical_plate").bound("Ra", 1)
+            popiel = cv.validity("natural", "vertical_cylinder")
+            low, high = popiel.ranges["Ra"]
+            tallest = popiel.bound("H/D", 1)
             notes += [
-                (~thin & (rayleigh > 1.0e12), "Rayleigh number on the height above 1e12",
+                (~thin & (rayleigh > plate_top), f"Rayleigh number on the height above {g(plate_top)}",
                  "beyond the Churchill & Chu (1975) vertical-plate range; extrapolated"),
-                (thin & (rayleigh > 1.0e9), "slender vertical cylinder with Rayleigh number on the height above 1e9",
+                (thin & (rayleigh > high), f"slender vertical cylinder with Rayleigh number on the height above {g(high)}",
                  "beyond the Popiel (2007) curvature-correction range; extrapolated"),
-                (thin & (rayleigh < 1.0e4) & (delta_k > _LOW_RA_MIN_DELTA_K),
-                 "slender vertical cylinder with Rayleigh number on the height below 1e4",
-                 "Popiel (2007) correction held at its Ra = 1e4 value"),
-                (thin & (height_m / length_m > 60.0), "vertical cylinder taller than 60 diameters",
+                (thin & (rayleigh < low) & (delta_k > _LOW_RA_MIN_DELTA_K),
+                 f"slender vertical cylinder with Rayleigh number on the height below {g(low)}",
+                 f"Popiel (2007) correction held at its Ra = {g(low)} value"),
+                (thin & (height_m / length_m > tallest), f"vertical cylinder taller than {g(tallest)} diameters",
                  "beyond the Popiel (2007) curvature-correction range; extrapolated"),
             ]
     elif vertical:
         nusselt_natural = cv.nusselt_vertical_plate_churchill_chu(rayleigh, pr)
         if collect_warnings:
-            notes.append((rayleigh > 1.0e12, "Rayleigh number on the height above 1e12",
+            top = cv.validity("natural", "vertical_plate").bound("Ra", 1)
+            notes.append((rayleigh > top, f"Rayleigh number on the height above {g(top)}",
                           "beyond the Churchill & Chu (1975) vertical-plate range; extrapolated"))
     else:
         hot = surface_temp_c > air_temp_c
@@ -146,14 +153,20 @@ def _outer_film(
         )
         if collect_warnings:
             big = delta_k > _LOW_RA_MIN_DELTA_K
+            up_low, up_high = cv.validity("natural", "horizontal_plate_up").ranges["Ra"]
+            down_low, down_high = cv.validity("natural", "horizontal_plate_down").ranges["Ra"]
             notes += [
-                (enhanced & (rayleigh > 1.0e11), "Rayleigh number above 1e11 on a horizontal face (enhanced case)",
+                (enhanced & (rayleigh > up_high),
+                 f"Rayleigh number above {g(up_high)} on a horizontal face (enhanced case)",
                  "beyond the McAdams range; extrapolated"),
-                (enhanced & (rayleigh < 1.0e4) & big, "Rayleigh number below 1e4 on a horizontal face (enhanced case)",
+                (enhanced & (rayleigh < up_low) & big,
+                 f"Rayleigh number below {g(up_low)} on a horizontal face (enhanced case)",
                  "below the McAdams range; extrapolated"),
-                (~enhanced & (rayleigh > 1.0e10), "Rayleigh number above 1e10 on a horizontal face (reduced case)",
+                (~enhanced & (rayleigh > down_high),
+                 f"Rayleigh number above {g(down_high)} on a horizontal face (reduced case)",
                  "beyond the McAdams range; extrapolated"),
-                (~enhanced & (rayleigh < 1.0e5) & big, "Rayleigh number below 1e5 on a horizontal face (reduced case)",
+                (~enhanced & (rayleigh < down_low) & big,
+                 f"Rayleigh number below {g(down_low)} on a horizontal face (reduced case)",
                  "below the McAdams range; extrapolated"),
             ]
     h_natural = nusselt_natural * k / natural_length_m
@@ -164,16 +177,19 @@ def _outer_film(
         if geometry == "cylinder":
             nusselt_forced = cv.nusselt_cylinder_crossflow_churchill_bernstein(reynolds, pr)
             if collect_warnings:
+                cross = cv.validity("forced", "cylinder_crossflow")
+                lowest, highest = cross.bound("RePr", 0), cross.bound("Re", 1)
                 notes += [
-                    (windy & (reynolds * pr < 0.2), "Re·Pr below 0.2 in cross flow",
+                    (windy & (reynolds * pr < lowest), f"Re·Pr below {g(lowest)} in cross flow",
                      "below the Churchill & Bernstein (1977) range; extrapolated"),
-                    (windy & (reynolds > 1.0e7), "Reynolds number above 1e7 in cross flow",
+                    (windy & (reynolds > highest), f"Reynolds number above {g(highest)} in cross flow",
                      "beyond the Churchill & Bernstein (1977) range; extrapolated"),
                 ]
         else:
             nusselt_forced = cv.nusselt_flat_plate_pohlhausen_colburn(reynolds, pr)
             if collect_warnings:
-                notes.append((windy & (reynolds > 1.0e8), "Reynolds number above 1e8 along a flat face",
+                highest = cv.validity("forced", "flat_plate").bound("Re", 1)
+                notes.append((windy & (reynolds > highest), f"Reynolds number above {g(highest)} along a flat face",
                               "beyond the flat-plate correlation range; extrapolated"))
         nusselt_natural_on_length = h_natural * length_m / k
         h_mixed = cv.nusselt_mixed_churchill(nusselt_forced, nusselt_natural_on_length) * k / length_m
@@ -182,8 +198,9 @@ def _outer_film(
             # (common practice; Incropera et al., 6th ed., sec. 9.9, puts the mixed regime at Gr/Re² ≈ 1)
             with np.errstate(divide="ignore", invalid="ignore"):
                 richardson = buoyancy_per_m3 * length_m**3 * alpha / nu / np.maximum(reynolds, 1e-300) ** 2
-            notes.append((windy & (richardson > 0.1) & (richardson < 10.0) & (delta_k > _LOW_RA_MIN_DELTA_K),
-                          "mixed convection (Gr/Re² between 0.1 and 10)",
+            low, high = cv.validity("mixed", "churchill").ranges["Gr/Re2"]
+            notes.append((windy & (richardson > low) & (richardson < high) & (delta_k > _LOW_RA_MIN_DELTA_K),
+                          f"mixed convection (Gr/Re² between {g(low)} and {g(high)})",
                           "natural and forced combined as Nu³ = Nu_F³ + Nu_N³ (Churchill 1977); "
                           "less certain than either alone"))
         h = np.where(windy, h_mixed, h_natural)
