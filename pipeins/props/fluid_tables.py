@@ -31,6 +31,7 @@ equal intervals), so a lookup may find its interval by index arithmetic.
 
 from __future__ import annotations
 
+import csv
 import functools
 import math
 from dataclasses import dataclass
@@ -183,7 +184,7 @@ def _table_text(name: str) -> tuple[list[str], list[str]]:
         line for line in table_path(name).read_text(encoding="utf-8").splitlines()
         if line.strip() and not line.startswith("#")
     ]
-    return lines[0].split(","), lines[1:]
+    return next(csv.reader(lines[:1])), lines[1:]
 
 
 @functools.cache
@@ -195,7 +196,7 @@ def _table_of(name: str, percent: float | None) -> dict:
         prefix = f"{percent:g},"
         lines = [line for line in lines if line.startswith(prefix)]
     index = [header.index(column) for column in _COLUMNS]
-    values = np.array([line.split(",") for line in lines])[:, index].astype(float)
+    values = np.array([[row[i] for i in index] for row in csv.reader(lines)], dtype=float)
     cols = dict(zip(_COLUMNS, values.T))
     return {
         "temp_c": cols["temp_c"],
