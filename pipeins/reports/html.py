@@ -60,7 +60,7 @@ a { color: var(--head); }
 .title-block th { text-align: left; font-weight: 600; width: 11rem; padding: .1rem .6rem .1rem 0;
                   color: var(--muted); vertical-align: top; }
 .title-block td { padding: .1rem 0; }
-nav.contents ol { margin: .2rem 0 0 1.2rem; padding: 0; columns: 2; }
+nav.contents ol { margin: .2rem 0 0 0; padding-left: 2.2rem; columns: 2; }
 .table-wrap { overflow-x: auto; margin: .3rem 0; }
 table.data { border-collapse: collapse; width: 100%; font-size: .9rem; }
 table.data caption { caption-side: top; text-align: left; color: var(--muted); font-size: .85rem; }
