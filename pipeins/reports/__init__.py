@@ -18,7 +18,8 @@ from typing import Any
 
 from ..errors import InputError
 
-__all__ = ["Column", "Table", "Report", "render", "to_ascii", "FORMATS", "BINARY_FORMATS"]
+__all__ = ["Column", "Table", "Report", "render", "to_ascii", "table_csv", "csv_comments", "FORMATS",
+           "BINARY_FORMATS"]
 
 FORMATS = ("text", "json", "csv", "markdown", "html", "xlsx")
 #: Formats that are bytes, not text (written to a file only).
@@ -28,24 +29,43 @@ BINARY_FORMATS = ("xlsx",)
 @dataclass(frozen=True)
 class Column:
     """A column: its heading, the quantity kind of its values (see :mod:`pipeins.units`;
-    ``None`` for text) and the decimal places shown (default: the kind's)."""
+    ``None`` for text or for plain numbers) and the decimal places shown (default: the
+    kind's).
+
+    A column of plain numbers already in their display unit (money, kW, t, years) has no
+    kind, ``digits`` set and its ``unit`` (a currency, ``kW``): the unit goes in the
+    heading, the cell holds the number alone.  ``grouped`` puts thousands separators in
+    text output (never in CSV).  In CSV a missing value is an empty cell."""
 
     heading: str
     kind: str | None = None
     digits: int | None = None
+    unit: str | None = None
+    grouped: bool = False
 
     def label(self, units: str) -> str:
         if self.kind is None:
-            return self.heading
+            return f"{self.heading} [{self.unit}]" if self.unit else self.heading
         from ..units import unit_label
 
         return f"{self.heading} [{unit_label(self.kind, units)}]"
 
-    def cell(self, value, units: str) -> str:
+    @property
+    def numeric(self) -> bool:
+        """Whether the column holds numbers (a kind, or plain numbers with digits)."""
+        return self.kind is not None or self.digits is not None
+
+    def cell(self, value, units: str, csv: bool = False) -> str:
         if value is None or (isinstance(value, float) and math.isnan(value)):
-            return "–"
+            return "" if csv else "–"
         if self.kind is None:
-            return str(value)
+            if self.digits is None or isinstance(value, str):
+                return str(value)
+            x = float(value)
+            if not math.isfinite(x):
+                return "" if csv else "never"
+            text = f"{x:{',' if self.grouped and not csv else ''}.{self.digits}f}"
+            return text[1:] if text.startswith("-") and float(text.replace(",", "")) == 0.0 else text
         from ..units import format_quantity, unit_label
 
         text = format_quantity(float(value), self.kind, units, self.digits)
@@ -76,9 +96,9 @@ class Report:
     title_block: dict = field(default_factory=dict)
 
 
-def _cells(table: Table, units: str) -> tuple[list[str], list[list[str]]]:
+def _cells(table: Table, units: str, csv: bool = False) -> tuple[list[str], list[list[str]]]:
     heads = [c.label(units) for c in table.columns]
-    rows = [[c.cell(v, units) for c, v in zip(table.columns, row)] for row in table.rows]
+    rows = [[c.cell(v, units, csv) for c, v in zip(table.columns, row)] for row in table.rows]
     return heads, rows
 
 
@@ -146,16 +166,44 @@ def _text(report: Report, units: str, markdown: bool, ascii: bool = False) -> st
     return out.getvalue()
 
 
-def _csv(report: Report, units: str, ascii: bool = False) -> str:
-    table = report.tables[report.csv_table]
-    heads, rows = _cells(table, units)
+def csv_comments(report: Report, table: Table | None = None) -> list[str]:
+    """The ``# `` comment lines a CSV file starts with: the report and table titles, the
+    table's note, the basis, warnings and cautions (spreadsheet and CSV readers given
+    ``comment="#"`` skip them; pipeins' own readers do).  None for a plain listing (no
+    basis, warnings or cautions)."""
+    if not (report.footer or report.warnings or report.cautions):
+        return []
+    lines = [report.title]
+    if table is not None:
+        lines.append(f"table: {table.title}")
+        if table.note:
+            lines.append(f"note: {table.note}")
+    lines += [f"basis: {x}" for x in report.footer]
+    lines += [f"warning: {x}" for x in report.warnings]
+    lines += [f"caution: {x}" for x in report.cautions]
+    return ["# " + " ".join(str(x).split()) for x in lines]
+
+
+def table_csv(report: Report, table: Table, units: str, ascii: bool = False) -> str:
+    """One table as CSV text: comment lines (:func:`csv_comments`), the header with units
+    and currency, then rows of plain numbers (no separators, no units; empty when not
+    applicable).  With *ascii* every character is plain ASCII (:func:`to_ascii`)."""
+    heads, rows = _cells(table, units, csv=True)
+    comments = csv_comments(report, table)
     if ascii:
         heads, rows = [to_ascii(h) for h in heads], [[to_ascii(c) for c in row] for row in rows]
+        comments = [to_ascii(c) for c in comments]
     out = io.StringIO()
+    for line in comments:
+        out.write(line + "\n")
     writer = csv.writer(out, lineterminator="\n")
     writer.writerow(heads)
     writer.writerows(rows)
     return out.getvalue()
+
+
+def _csv(report: Report, units: str, ascii: bool = False) -> str:
+    return table_csv(report, report.tables[report.csv_table], units, ascii)
 
 
 def render(report: Report, fmt: str = "text", units: str = "si", ascii: bool = False) -> str | bytes:
