@@ -299,7 +299,8 @@ class LineSpec:
 
     def build_surface(self, insulated: bool | None = None) -> Surface:
         """The outer surface: the finish, the emittance, or a fixed coefficient.  Without
-        either, a bare pipe (no layers, unless *insulated*) is oxidised steel and an
+        either, a bare pipe (no layers, unless *insulated*) is its own material
+        (:func:`pipeins.bare.bare_surface`) and an
         insulated one a painted or plastic jacket (emittance 0.9)."""
         from .catalog.finishes import lookup_finish
 
@@ -314,7 +315,9 @@ class LineSpec:
         if self.emittance is not None:
             return Surface(self.emittance, "surface of given emittance")
         if not (self.layers or insulated):
-            return Surface.from_finish(lookup_finish("bare_steel_oxidised"))
+            from .bare import bare_surface  # the one bare line: the pipe's own material
+
+            return bare_surface(self.build_pipe())
         return Surface()
 
     def build_model(self, sizes=None, insulated: bool | None = None):

@@ -65,10 +65,13 @@ class SizingProblem:
                      touch_limit_c=self.touch_limit_c)
 
     def bare(self):
-        """The line without the sized layer (cached): shape (n, 1)."""
+        """The bare line (:func:`pipeins.bare.solve_bare`: no layers, the pipe's own
+        surface), cached: shape (n, 1)."""
         if "bare" not in self.context:
-            self.context["bare"] = solve(self.pipe, list(self.fixed_layers), self.fluid,
-                                         self.surroundings, self.surface, touch_limit_c=self.touch_limit_c)
+            from .bare import solve_bare
+
+            self.context["bare"] = solve_bare(self.pipe, self.fluid, self.surroundings, self.surface,
+                                              touch_limit_c=self.touch_limit_c)
         return self.context["bare"]
 
 

@@ -79,6 +79,11 @@ class WallMaterial:
     heat_capacity_j_kgk : float
         Specific heat capacity [J/(kg·K)].
     source : str
+    bare_emittance : float
+        Total hemispherical emittance of the bare pipe of this material [-] (see
+        :mod:`pipeins.bare`).
+    surface_kind : str
+        Touch-limit kind of the bare pipe (``bare_metal`` or ``non_metallic``).
     """
 
     key: str
@@ -87,6 +92,8 @@ class WallMaterial:
     density_kg_m3: float
     heat_capacity_j_kgk: float
     source: str
+    bare_emittance: float = 0.8
+    surface_kind: str = "bare_metal"
 
 
 def _norm(text: str) -> str:
@@ -128,6 +135,8 @@ def _walls() -> dict[str, WallMaterial]:
             density_kg_m3=float(row["density_kg_m3"]),
             heat_capacity_j_kgk=float(row["heat_capacity_j_kgk"]),
             source=row["source"],
+            bare_emittance=float(row["bare_emittance"]),
+            surface_kind=row["surface_kind"],
         )
         for row in read_table("wall_materials")
     }
