@@ -17,7 +17,11 @@ from .economics import (CostTable, EmissionFactor, EnergyPrice, annual_co2_kg, a
                         economic_thickness)
 from .errors import InputError
 
-__all__ = ["EnergyBasis", "annual_figures", "economic_outcome", "EconomicCurve"]
+__all__ = ["EnergyBasis", "annual_figures", "split_figures", "DUTIES", "economic_outcome", "EconomicCurve"]
+
+#: The two duties a line can have, reported apart and never netted: heat losses are made up
+#: by the heat source (heating), heat gains removed by the chiller (cooling).
+DUTIES = ("heating", "cooling")
 
 
 @dataclass(frozen=True)
@@ -36,24 +40,26 @@ class EnergyBasis:
     maintenance_fraction: float = 0.0
     cost_table: CostTable | None = None
 
-    def gain_warning(self, heat_flow_w) -> list[str]:
-        """A warning when heat gains are priced without a chiller COP."""
-        if self.cop is None and np.any(np.asarray(heat_flow_w) < 0):
-            return ["heat gain priced as heating energy (efficiency, no chiller COP): give --cop for a chilled line"]
-        return []
-
     def purchased_energy_j(self, heat_flow_w):
-        """Energy bought per year [J] for a heat flow [W] (loss: / efficiency; gain: / COP)."""
+        """Energy bought per year [J] for a heat flow [W]: a loss (> 0) through the heat
+        source's efficiency, a gain (< 0) through the chiller's COP.
+
+        A heat gain is never priced as heating: with no COP it raises ``InputError("--cop")``.
+        """
         q = np.asarray(heat_flow_w, dtype=float)
-        if self.cop is not None and np.any(q < 0):
-            gains = annual_energy_j(np.where(q < 0, q, 0.0), self.hours_per_year, cop=self.cop)
-            losses = annual_energy_j(np.where(q >= 0, q, 0.0), self.hours_per_year, efficiency=self.efficiency)
-            return gains + losses
-        return annual_energy_j(q, self.hours_per_year, efficiency=self.efficiency)
+        gains = q < 0
+        if np.any(gains) and self.cop is None:
+            raise InputError("--cop", "the line gains heat (fluid below the air): give the chiller COP to price "
+                                      "the heat gain as cooling")
+        losses = annual_energy_j(np.where(gains, 0.0, q), self.hours_per_year, efficiency=self.efficiency)
+        if not np.any(gains):
+            return losses
+        return losses + annual_energy_j(np.where(gains, q, 0.0), self.hours_per_year, cop=self.cop)
 
 
 def annual_figures(heat_flow_w, basis: EnergyBasis) -> dict:
-    """Energy [J], cost [currency] and CO2 [kg] per year of a heat flow [W]."""
+    """Energy [J], cost [currency] and CO2 [kg] per year of a heat flow [W] (losses through
+    the efficiency, gains through the COP; see :meth:`EnergyBasis.purchased_energy_j`)."""
     energy = basis.purchased_energy_j(heat_flow_w)
     out = {"energy_j": energy, "cost": None, "co2_kg": None}
     if basis.price is not None:
@@ -61,6 +67,43 @@ def annual_figures(heat_flow_w, basis: EnergyBasis) -> dict:
     if basis.emission is not None:
         out["co2_kg"] = annual_co2_kg(energy, basis.emission)
     return out
+
+
+def split_figures(heat_flow_w, basis: EnergyBasis, weights=None) -> dict:
+    """Heat loss and heat gain apart, each with its energy, cost and CO2 per year.
+
+    Parameters
+    ----------
+    heat_flow_w : float or array_like
+        Signed heat flow [W] (+ lost by the fluid); with a profile the last axis runs over
+        the operating conditions (see :func:`pipeins.economics.annual_energy_j`).
+    basis : EnergyBasis
+        Losses are priced through the efficiency, gains through the COP (a gain with no
+        COP raises ``InputError("--cop")``).
+    weights : array_like, optional
+        Hours weights of the profile's conditions (sum 1) for the mean heat flows.
+
+    Returns
+    -------
+    dict
+        ``heat_loss_w`` and ``heat_gain_w`` (both ≥ 0, hours-weighted means over a profile)
+        and ``heating`` / ``cooling``: ``{"energy_j", "cost", "co2_kg"}`` (cost and CO2
+        ``None`` without a price or factor).
+    """
+    q = np.asarray(heat_flow_w, dtype=float)
+    loss, gain = np.where(q > 0, q, 0.0), np.where(q < 0, -q, 0.0)
+
+    def mean(x):
+        return x if weights is None else np.sum(np.asarray(weights) * x, axis=-1)
+
+    heating = annual_figures(loss, basis)
+    if np.any(gain > 0):
+        cooling = annual_figures(-gain, basis)
+    else:
+        zero = annual_energy_j(gain, basis.hours_per_year)
+        cooling = {"energy_j": zero, "cost": None if basis.price is None else 0.0 * zero,
+                   "co2_kg": None if basis.emission is None else 0.0 * zero}
+    return {"heat_loss_w": mean(loss), "heat_gain_w": mean(gain), "heating": heating, "cooling": cooling}
 
 
 @dataclass

@@ -3,8 +3,9 @@
 :func:`cost_study` solves the line bare and insulated (one vectorised solve), adds bare
 fittings as equivalent lengths of bare pipe, and turns the heat flows into energy, cost
 and CO2 per year with an :class:`~pipeins.annual.EnergyBasis`.  With a cost table it adds
-the installed cost, the simple payback and the economic-thickness curve of the outer
-layer's material over the thicknesses the table lists.
+the installed cost, the simple payback (on the heating and cooling savings together) and
+the economic-thickness curve of the outer layer's material over the thicknesses the table
+lists.  Heat losses and heat gains are kept apart (never netted).
 """
 
 from __future__ import annotations
@@ -13,7 +14,7 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
-from .annual import EconomicCurve, EnergyBasis, annual_figures, economic_curve
+from .annual import DUTIES, EconomicCurve, EnergyBasis, annual_figures, economic_curve, split_figures
 from .economics import simple_payback_years
 from .errors import InputError
 
@@ -22,7 +23,10 @@ __all__ = ["CostStudy", "cost_study"]
 
 @dataclass
 class CostStudy:
-    """Per-metre and per-run heat flows [W/m, W], and annual figures (SI: J, kg)."""
+    """Per-metre and per-run heat flows [W/m, W], signed (+ lost by the fluid), and the
+    year's figures of the bare line and the insulated one, heat loss and heat gain apart
+    (:func:`pipeins.annual.split_figures`).  With no layer (a bare line priced alone)
+    ``insulated_*`` are ``None``."""
 
     spec: object
     basis: EnergyBasis
@@ -30,25 +34,55 @@ class CostStudy:
     fittings: dict
     fitting_length_m: float
     bare_w_per_m: float
-    insulated_w_per_m: float
+    insulated_w_per_m: float | None
     bare_w: float
-    insulated_w: float
+    insulated_w: float | None
     bare: dict
-    insulated: dict
+    insulated: dict | None
+    bare_surface: object = None
     installed_cost: float | None = None
     payback_years: float | None = None
     curve: EconomicCurve | None = None
     warnings: list[str] = field(default_factory=list)
 
     @property
-    def saving(self) -> dict:
-        return {k: (None if self.bare[k] is None else self.bare[k] - self.insulated[k]) for k in self.bare}
+    def saving(self) -> dict | None:
+        """bare − insulated, for every figure (``None`` for a bare line alone)."""
+        if self.insulated is None:
+            return None
+        return _minus(self.bare, self.insulated)
+
+    def annual_cost(self, figures: dict):
+        """Cost per year of heating plus cooling in *figures* (``None`` without a price)."""
+        parts = [figures[d]["cost"] for d in DUTIES]
+        return None if any(p is None for p in parts) else float(sum(float(np.asarray(p)) for p in parts))
+
+
+def _minus(a, b):
+    if isinstance(a, dict):
+        return {k: _minus(a[k], b[k]) for k in a}
+    return None if a is None or b is None else a - b
+
+
+def _scalar(fig):
+    """Figures as floats (a profile's heat flows already weighted)."""
+    if isinstance(fig, dict):
+        return {k: _scalar(v) for k, v in fig.items()}
+    return None if fig is None else float(np.asarray(fig))
 
 
 def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=None) -> CostStudy:
-    """*profile*, optional: ``[(fluid_temp_c, hours), ...]`` operating conditions over the year,
+    """The year's money of a line: bare (:func:`pipeins.bare.bare_surface`, the pipe's own
+    surface) against insulated with the spec's layers; with no layer the bare line alone.
+
+    Bare fittings count as equivalent lengths of bare pipe; ``length_m = 0`` with fittings
+    prices the fittings alone.  A heat gain is priced through the basis's COP (refused
+    without one: never as heating).
+
+    *profile*, optional: ``[(fluid_temp_c, hours), ...]`` operating conditions over the year,
     replacing the spec's fluid temperature and the basis's hours; energy is summed over them
     and the heat flows reported are their hours-weighted means."""
+    from .bare import bare_surface
     from .catalog.fittings import equivalent_length_m
     from .solve import solve
 
@@ -61,37 +95,45 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
         spec = replace(spec, fluid_temp_c=temps, steam_pressure_pa=None)
         basis = replace(basis, hours_per_year=hours)
         weights = hours / hours.sum()
-    if not spec.layers:
-        raise InputError("--layer", "a cost study compares the bare line with its insulation: give --layer")
     fittings = {k: int(v) for k, v in (fittings or {}).items() if v}
-    length = spec.length_m or 1.0
+    length = 1.0 if spec.length_m is None else float(spec.length_m)
+    if length < 0:
+        raise InputError("--length", "the run length must be zero or more")
     size = spec.pipe_size()
-    pipe, layers, fluid, air, surface = spec.build_model()
-    bare_spec = replace(spec, layers=(), finish=None, emittance=None)
-    bare_surface = bare_spec.build_surface()
-    bare = solve(pipe, [], fluid, air, bare_surface)
-    insulated = solve(pipe, layers, fluid, air, surface)
-    q_bare, q_ins = np.asarray(bare.heat_flow_w_per_m), np.asarray(insulated.heat_flow_w_per_m)
     fit_len = sum(n * float(equivalent_length_m(kind, size.outer_diameter_m)) for kind, n in fittings.items())
+    if length + fit_len <= 0:
+        raise InputError("--length", "nothing to price: give a run length above zero, or fittings (--valves 1)")
+    pipe, layers, fluid, air, surface = spec.build_model()
+    bare_face = bare_surface(pipe, surface)
+    bare = solve(pipe, [], fluid, air, bare_face)
+    q_bare = np.asarray(bare.heat_flow_w_per_m)
     bare_w = q_bare * (length + fit_len)
-    ins_w = q_ins * length + q_bare * fit_len
 
     def mean(x):
         return float(x) if weights is None else float(np.sum(weights * x))
 
-    study = CostStudy(spec, basis, length, fittings, fit_len, mean(q_bare), mean(q_ins), mean(bare_w),
-                      mean(ins_w), annual_figures(bare_w, basis), annual_figures(ins_w, basis),
-                      warnings=list(insulated.warnings) + basis.gain_warning(q_ins))
+    bare_fig = _scalar(split_figures(bare_w, basis, weights))
+    if spec.layers:
+        insulated = solve(pipe, layers, fluid, air, surface)
+        q_ins = np.asarray(insulated.heat_flow_w_per_m)
+        ins_w = q_ins * length + q_bare * fit_len
+        study = CostStudy(spec, basis, length, fittings, fit_len, mean(q_bare), mean(q_ins), mean(bare_w),
+                          mean(ins_w), bare_fig, _scalar(split_figures(ins_w, basis, weights)),
+                          bare_face, warnings=list(insulated.warnings))
+        study.result = insulated
+    else:
+        study = CostStudy(spec, basis, length, fittings, fit_len, mean(q_bare), None, mean(bare_w), None,
+                          bare_fig, None, bare_face, warnings=list(bare.warnings))
+        study.result = bare
     study.profile = profile
-    study.result = insulated
-    if fit_len:
+    if fit_len and spec.layers:
         study.warnings.append(f"bare fittings count as {fit_len:.1f} m of bare pipe; insulating them "
                               "(removable covers) saves most of their share")
     table = basis.cost_table
-    if table is not None:
+    if table is not None and spec.layers:
         total_t = sum(float(np.max(l[1])) for l in spec.layers)
         study.installed_cost = float(table.cost_per_m(size.label, total_t)) * length
-        saving = study.saving["cost"]
+        saving = study.annual_cost(study.saving)
         if saving is not None:
             study.payback_years = float(simple_payback_years(study.installed_cost, saving))
         study.curve = _curve(spec, basis, size, pipe, fluid, air, surface, length, fit_len, q_bare)

@@ -21,9 +21,12 @@ from .options import emit, line_options, output_options, plot_option, spec_from_
 def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
     """Annual energy, cost and CO2 of a line: bare against insulated, and the economic thickness.
 
-    The line is solved bare and with its --layer build-up; the difference over the run
-    (--length, default 1 m) and the operating hours gives the energy saved, its cost and
-    CO2, and with --cost-table the installed cost and simple payback. With --cost-table the
+    The line is solved bare (the pipe's own surface, no insulation) and with its --layer
+    build-up; the difference over the run (--length, default 1 m) and the operating hours
+    gives the energy saved, its cost and CO2, and with --cost-table the installed cost and
+    simple payback.  Heat losses (heating, through --efficiency) and heat gains (cooling,
+    through --cop, which a chilled line needs) are kept apart.  With no --layer the bare
+    line alone is priced; --length 0 with --valves 1 prices a single bare fitting. With --cost-table the
     cost curve of the outer layer's material over the thicknesses the table lists is
     printed too (installed cost, present value of energy over --years at
     --discount-rate, and total), so the flat bottom of the curve is visible. Bare valves,
@@ -54,7 +57,14 @@ def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
             conditions.append((parse_quantity(temp, "temperature", "--profile", units),
                                parse_quantity(hours, "time", "--profile", units) / 3600.0))
         opts = {**opts, "fluid_temp": f"{conditions[0][0]}C"}
+    fittings_alone = bool(opts.get("length")) and parse_quantity(opts["length"], "length", "--length", units) == 0
+    if fittings_alone:  # --length 0: the bare fittings priced alone
+        opts = {**opts, "length": None}
     spec = spec_from_options(opts, units)
+    if fittings_alone:
+        from dataclasses import replace
+
+        spec = replace(spec, length_m=0.0)
     basis = basis_from_options(opts, units, need_price=True)
     study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers}, conditions)
     report = cost_report(study, units)

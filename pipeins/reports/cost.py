@@ -1,4 +1,10 @@
-"""Report of a cost study: bare against insulated, payback, the economic curve."""
+"""Report of a cost study: bare against insulated, payback, the economic curve.
+
+Heat losses and heat gains are separate columns (never netted), each with its energy, cost
+and CO2 per year: heating (losses made up through the heat source's efficiency) and cooling
+(gains removed through the chiller's COP).  The saving row is bare − insulated of the
+numbers as printed, so the rows subtract.
+"""
 
 from __future__ import annotations
 
@@ -11,56 +17,129 @@ from .cautions import cautions_for
 
 __all__ = ["cost_report"]
 
+_DUTY_WORDS = {"heating": ("heat loss", "heating"), "cooling": ("heat gain", "cooling")}
+
 
 def _money(x):
     return None if x is None or not math.isfinite(x) else round(float(x), 2)
 
 
+def _rounded(bare, ins, digits):
+    """(bare, insulated, saving) rounded to *digits*, the saving the difference of the
+    rounded values (so the printed rows subtract)."""
+    if bare is None:
+        return None, None, None
+    b = round(float(bare), digits)
+    if ins is None:
+        return b, None, None
+    i = round(float(ins), digits)
+    return b, i, round(b - i, digits)
+
+
+def _duties(study) -> list[str]:
+    """Duties the line has (heating, cooling or both over a profile)."""
+    figs = [study.bare] + ([study.insulated] if study.insulated is not None else [])
+    out = [d for d, key in (("heating", "heat_loss_w"), ("cooling", "heat_gain_w"))
+           if any(f[key] > 0 for f in figs)]
+    return out or ["heating"]
+
+
 def cost_report(study, units: str = "si") -> Report:
     from ..units import format_quantity as fq
+    from ..units import to_display, unit_label
 
-    cur = study.basis.price.currency if study.basis.price is not None else ""
+    basis = study.basis
+    cur = basis.price.currency if basis.price is not None else ""
     per = f"{cur}/" if cur else "per "
-    money = f"cost per year [{cur}]" if cur else "cost per year"
-    cols = [Column("case"), Column("heat flow", "heat_flow_per_length"), Column("over the run", "power"),
-            Column("energy per year", "energy"), Column(money, None), Column("CO2 per year [kg]", None)]
-    sav = study.saving
+    duties = _duties(study)
+    bare, ins = study.bare, study.insulated
+    ins_get = (lambda *keys: None) if ins is None else (lambda *keys: _dig(ins, keys))
 
-    def row(name, q_m, q, fig):
-        return [name, q_m, q, fig["energy_j"], _fmt(fig["cost"]), _fmt(fig["co2_kg"], 0)]
+    cols, columns = [Column("case")], []
+    digits_q = 0
+    for duty in duties:
+        word, money_word = _DUTY_WORDS[duty]
+        key = "heat_loss_w" if duty == "heating" else "heat_gain_w"
+        over = _rounded(to_display(bare[key], "power", units), None if ins is None else
+                        to_display(ins[key], "power", units), digits_q)
+        cols.append(Column(f"{word}, over the run", unit=unit_label("power", units), digits=digits_q, grouped=True))
+        columns.append(over)
+        e_b, e_i = bare[duty]["energy_j"], ins_get(duty, "energy_j")
+        e_digits = 0
+        cols.append(Column(f"{money_word} energy per year", unit=unit_label("energy", units), digits=e_digits,
+                           grouped=True))
+        columns.append(_rounded(to_display(e_b, "energy", units),
+                                None if e_i is None else to_display(e_i, "energy", units), e_digits))
+        if bare[duty]["cost"] is not None:
+            cols.append(Column(f"{money_word} cost per year", unit=cur or None, digits=2, grouped=True))
+            columns.append(_rounded(bare[duty]["cost"], ins_get(duty, "cost"), 2))
+        if bare[duty]["co2_kg"] is not None:
+            cols.append(Column(f"{money_word} CO2 per year", unit="kg", digits=0, grouped=True))
+            columns.append(_rounded(bare[duty]["co2_kg"], ins_get(duty, "co2_kg"), 0))
+    names = ["bare", "insulated", "saving"] if ins is not None else ["bare"]
+    rows = [[name] + [c[j] for c in columns] for j, name in enumerate(names)]
+    fittings = ", ".join(f"{n} {kind}{'s' if n > 1 else ''}" for kind, n in study.fittings.items())
+    if study.length_m == 0:
+        title = f"Bare fittings alone: {fittings} (as {fq(study.fitting_length_m, 'length', units)} of bare pipe)"
+    else:
+        title = (f"Bare against insulated over {fq(study.length_m, 'length', units)}" if ins is not None
+                 else f"Bare line over {fq(study.length_m, 'length', units)}")
+        if study.fitting_length_m:
+            title += f" with {fittings} ({fq(study.fitting_length_m, 'length', units)} of bare pipe)"
+    per_m_cols = [Column("case"), Column("heat flow", "heat_flow_per_length"), Column("over the run", "power")]
+    per_m_rows = [["bare", study.bare_w_per_m, study.bare_w]]
+    if ins is not None:
+        per_m_rows.append(["insulated", study.insulated_w_per_m, study.insulated_w])
+    note = ("Heat losses and heat gains are kept apart; saving = bare − insulated as printed." if ins is not None
+            else "The bare line: the pipe's own surface, no insulation (no --layer given).")
+    tables = [Table(title, cols, rows, note=note),
+              Table("Heat flow (+ lost by the fluid, − gained)", per_m_cols, per_m_rows)]
 
-    rows = [row("bare", study.bare_w_per_m, study.bare_w, study.bare),
-            row("insulated", study.insulated_w_per_m, study.insulated_w, study.insulated),
-            row("saving", study.bare_w_per_m - study.insulated_w_per_m, study.bare_w - study.insulated_w, sav)]
-    tables = [Table(f"Bare against insulated over {fq(study.length_m, 'length', units)}"
-                    + (f" with {study.fitting_length_m:.1f} m of bare fittings" if study.fitting_length_m else ""),
-                    cols, rows)]
+    def block(fig, w_per_m, w):
+        out = {"heat_flow_w_per_m": w_per_m, "heat_flow_w": w,
+               "heat_loss_w": fig["heat_loss_w"], "heat_gain_w": fig["heat_gain_w"],
+               "heating": dict(fig["heating"]), "cooling": dict(fig["cooling"]),
+               "cost": study.annual_cost(fig)}
+        co2 = [fig[d]["co2_kg"] for d in ("heating", "cooling")]
+        out["co2_kg"] = None if any(c is None for c in co2) else float(sum(co2))
+        return out
+
+    bare_block = block(bare, study.bare_w_per_m, study.bare_w)
+    bare_block.update({"surface": study.bare_surface.name, "emittance": float(np.asarray(study.bare_surface.emittance))})
     data = {
         "length_m": study.length_m,
         "fittings": study.fittings,
         "fitting_equivalent_length_m": study.fitting_length_m,
-        "bare": {"heat_flow_w_per_m": study.bare_w_per_m, "heat_flow_w": study.bare_w, **_si(study.bare)},
-        "insulated": {"heat_flow_w_per_m": study.insulated_w_per_m, "heat_flow_w": study.insulated_w,
-                      **_si(study.insulated)},
-        "saving": {"heat_flow_w": study.bare_w - study.insulated_w, **_si(sav)},
+        "bare": bare_block,
+        "insulated": None if ins is None else block(ins, study.insulated_w_per_m, study.insulated_w),
         "currency": cur,
         "installed_cost": _money(study.installed_cost),
         "simple_payback_years": _money(study.payback_years),
     }
+    if ins is not None:
+        sav = study.saving
+        data["saving"] = {"heat_loss_w": sav["heat_loss_w"], "heat_gain_w": sav["heat_gain_w"],
+                          "heating": sav["heating"], "cooling": sav["cooling"], "cost": study.annual_cost(sav)}
+    else:
+        data["saving"] = None
     if study.installed_cost is not None:
-        tables.append(Table("Investment", [Column("installed cost"), Column("saving per year"),
-                                           Column("simple payback [years]")],
-                            [[_fmt(study.installed_cost), _fmt(sav["cost"]), _fmt(study.payback_years, 1)]]))
+        saving_cost = study.annual_cost(study.saving)
+        tables.append(Table("Investment", [Column("installed cost", unit=cur or None, digits=2, grouped=True),
+                                           Column("cost saving per year", unit=cur or None, digits=2, grouped=True),
+                                           Column("simple payback", unit="years", digits=1)],
+                            [[study.installed_cost, saving_cost, study.payback_years]],
+                            note="the payback is on the heating and cooling savings of this line together"))
     curve = study.curve
     if curve is not None:
-        ccols = [Column("thickness", "thickness"), Column(f"installed [{cur}/m]"),
-                 Column(f"energy, present value [{cur}/m]"), Column(f"total [{cur}/m]"), Column("least total")]
-        crow = [[t, _fmt(i), _fmt(e), _fmt(tot), "← economic thickness" if j == curve.best_index else ""]
+        unit = f"{cur}/m" if cur else "per m"
+        ccols = [Column("thickness", "thickness"), Column("installed", unit=unit, digits=2, grouped=True),
+                 Column("energy, present value", unit=unit, digits=2, grouped=True),
+                 Column("total", unit=unit, digits=2, grouped=True), Column("least total")]
+        crow = [[t, float(i), float(e), float(tot), "← economic thickness" if j == curve.best_index else ""]
                 for j, (t, i, e, tot) in enumerate(zip(curve.thickness_m, curve.installed_per_m,
                                                        curve.energy_pv_per_m, curve.total_per_m))]
-        b = study.basis
-        tables.append(Table(f"Economic thickness over {b.years:g} years at {100 * b.discount_rate:g} %"
-                            + (f", price rising {100 * b.escalation:g} %/year" if b.escalation else ""),
+        tables.append(Table(f"Economic thickness over {basis.years:g} years at {100 * basis.discount_rate:g} %"
+                            + (f", price rising {100 * basis.escalation:g} %/year" if basis.escalation else ""),
                             ccols, crow, note="the flat bottom of the curve: thicknesses near the least "
                                               "total cost about the same over the life"))
         data["economic_curve"] = {
@@ -71,7 +150,6 @@ def cost_report(study, units: str = "si") -> Report:
             "economic_thickness_m": float(curve.thickness_m[curve.best_index]),
         }
     warnings = list(study.warnings) + (list(curve.warnings) if curve is not None else [])
-    basis = study.basis
     hours = np.asarray(basis.hours_per_year, dtype=float)
     profile = getattr(study, "profile", None)
     if profile:
@@ -79,10 +157,14 @@ def cost_report(study, units: str = "si") -> Report:
             f"{fq(t, 'temperature', units)} for {h:g} h" for t, h in profile) + " (heat flows shown are hours-weighted means)"
     else:
         footer_hours = f"{float(hours):g} h per year"
-    footer = [footer_hours + "; "
-              + (f"heat source efficiency {basis.efficiency:g}" if basis.cop is None else
-                 f"efficiency {basis.efficiency:g}, chiller COP {basis.cop:g}")
-              + (f"; energy {basis.price.price_per_unit:g} {per}{basis.price.unit}" if basis.price else ""),
+    source = [f"heat losses through a heat source efficiency of {basis.efficiency:g}"] if "heating" in duties else []
+    if "cooling" in duties:
+        source.append(f"heat gains through a chiller COP of {basis.cop:g}")
+    footer = [footer_hours + "; " + ", ".join(source)
+              + (f"; energy {basis.price.price_per_unit:g} {per}{basis.price.unit}" if basis.price else "")
+              + (f"; CO2 {basis.emission.kg_co2_per_unit:g} kg/{basis.emission.unit}" if basis.emission else ""),
+              f"bare line: {study.bare_surface.name}, emittance {float(np.asarray(study.bare_surface.emittance)):.2f}, "
+              "no insulation",
               "energy, price and emission inputs are the user's; demo values in examples/ are invented"]
     cautions = cautions_for(study.spec, study.result)
     data.update({"warnings": warnings, "cautions": cautions})
@@ -90,23 +172,7 @@ def cost_report(study, units: str = "si") -> Report:
     return Report(f"Energy and cost: {size}", tables, data, warnings, cautions, footer)
 
 
-def _fmt(x, digits=2):
-    if x is None:
-        return "–"
-    try:
-        import numpy as np
-
-        x = float(np.asarray(x))
-    except TypeError:
-        return str(x)
-    if not math.isfinite(x):
-        return "never"
-    return f"{x:,.{digits}f}"
-
-
-def _si(fig: dict) -> dict:
-    import numpy as np
-
-    return {"energy_j": float(np.asarray(fig["energy_j"])),
-            "cost": None if fig["cost"] is None else float(np.asarray(fig["cost"])),
-            "co2_kg": None if fig["co2_kg"] is None else float(np.asarray(fig["co2_kg"]))}
+def _dig(fig, keys):
+    for k in keys:
+        fig = fig[k]
+    return fig
