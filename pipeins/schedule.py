@@ -65,7 +65,13 @@ class ScheduleRow:
 
 @dataclass
 class LineResult:
-    """One line solved at its schedule thickness (SI; heat flows positive = loss)."""
+    """One line solved at its schedule thickness and bare (SI).
+
+    ``heat_flow_w*`` are signed (+ lost by the fluid, − gained).  The money side is kept
+    apart by duty: ``heating_*`` prices the heat losses (through the efficiency),
+    ``cooling_*`` the heat gains (through the chiller COP); a line that gains heat with no
+    COP in its service's energy basis has ``priced = False`` and ``None`` in every money
+    field (never priced as heating)."""
 
     tag: str
     service: str
@@ -81,28 +87,83 @@ class LineResult:
     surface_temp_c: float
     dew_point_margin_k: float | None
     outlet_temp_c: float | None
-    energy_j: float
-    bare_energy_j: float
-    cost: float | None
-    bare_cost: float | None
-    co2_kg: float | None
-    bare_co2_kg: float | None
+    bare_surface: str
+    bare_emittance: float
+    priced: bool
+    heating_energy_j: float | None
+    bare_heating_energy_j: float | None
+    heating_cost: float | None
+    bare_heating_cost: float | None
+    heating_co2_kg: float | None
+    bare_heating_co2_kg: float | None
+    cooling_energy_j: float | None
+    bare_cooling_energy_j: float | None
+    cooling_cost: float | None
+    bare_cooling_cost: float | None
+    cooling_co2_kg: float | None
+    bare_cooling_co2_kg: float | None
     installed_cost: float | None
+    installed_cost_note: str = ""
+
+    @property
+    def heat_loss_w(self) -> float:
+        return max(self.heat_flow_w, 0.0)
+
+    @property
+    def bare_heat_loss_w(self) -> float:
+        return max(self.bare_heat_flow_w, 0.0)
+
+    @property
+    def heat_gain_w(self) -> float:
+        return max(-self.heat_flow_w, 0.0)
+
+    @property
+    def bare_heat_gain_w(self) -> float:
+        return max(-self.bare_heat_flow_w, 0.0)
+
+    def cost_saving(self) -> float | None:
+        """Cost per year saved by the insulation, heating and cooling (None when unpriced)."""
+        parts = [(self.bare_heating_cost, self.heating_cost), (self.bare_cooling_cost, self.cooling_cost)]
+        if any(b is None or i is None for b, i in parts):
+            return None
+        return sum(b - i for b, i in parts)
+
+
+@dataclass
+class Figure:
+    """A total bare and insulated; ``saving`` is bare − insulated of these two numbers."""
+
+    bare: float | None
+    insulated: float | None
+
+    @property
+    def saving(self) -> float | None:
+        return None if self.bare is None or self.insulated is None else self.bare - self.insulated
+
+    def to_dict(self) -> dict:
+        return {"bare": self.bare, "insulated": self.insulated, "saving": self.saving}
 
 
 @dataclass
 class Totals:
-    heat_flow_w: float
-    bare_heat_flow_w: float
-    energy_j: float
-    bare_energy_j: float
-    cost: float | None
-    bare_cost: float | None
-    co2_kg: float | None
-    bare_co2_kg: float | None
+    """Project totals, never netted: heat losses and heat gains apart, and the money of each
+    duty (heating: losses; cooling: gains) as :class:`Figure` s.  ``heating``/``cooling``
+    map ``energy_j``, ``cost``, ``co2_kg`` to a Figure (over the priced lines).
+
+    The investment covers one set of lines, ``payback_lines``: those the cost table prices
+    and whose energy is priced; ``installed_cost``, ``cost_saving`` and ``payback_years``
+    are all over that set."""
+
+    heat_loss_w: Figure
+    heat_gain_w: Figure
+    heating: dict
+    cooling: dict
     installed_cost: float | None
+    cost_saving: float | None
     payback_years: float | None
-    heat_saving_w: float = 0.0   # sum over lines of |bare| − |insulated|
+    payback_lines: list[str] = field(default_factory=list)
+    lines_left_out: list[str] = field(default_factory=list)
+    unpriced_lines: list[str] = field(default_factory=list)
 
 
 @dataclass
@@ -135,14 +196,15 @@ def _spec(service, condition, length_m=None, with_rh=True):
     return LineSpec(**kw)
 
 
-def _basis(service, cold: bool, with_cost: bool):
+def _basis(service, with_cost: bool):
+    """The service's energy basis: heat losses through its efficiency, heat gains through
+    its COP (a gain with no COP is never priced as heating)."""
     from .annual import EnergyBasis
 
     e = service.energy
-    return EnergyBasis(hours_per_year=e.hours_per_year, price=e.price,
-                       efficiency=1.0 if cold and e.cop else e.efficiency,
-                       cop=e.cop if cold else None, emission=e.co2, discount_rate=e.discount_rate,
-                       years=e.years, escalation=e.escalation, maintenance_fraction=e.maintenance,
+    return EnergyBasis(hours_per_year=e.hours_per_year, price=e.price, efficiency=e.efficiency, cop=e.cop,
+                       emission=e.co2, discount_rate=e.discount_rate, years=e.years, escalation=e.escalation,
+                       maintenance_fraction=e.maintenance,
                        cost_table=service.cost_table if with_cost else None)
 
 
@@ -208,28 +270,33 @@ def compute_schedule(project: Project) -> Schedule:
 
     rows = _bands(project, chosen, groups)
     totals = _totals(results)
-    if any(r.installed_cost is None for r in results) and totals.installed_cost is not None:
-        warnings.append("installed cost left out for lines whose size or thickness the cost table does not list")
+    if totals.lines_left_out:
+        notes = [f'"{r.tag}" ({r.installed_cost_note or _unpriced_reason(r)})'
+                 for r in results if r.tag in totals.lines_left_out]
+        warnings.append(f"installed cost, cost saving and payback cover {len(totals.payback_lines)} of "
+                        f"{len(results)} lines; left out: " + "; ".join(notes))
     cautions = _cautions(project, groups)
     return Schedule(project, rows, results, totals, list(dict.fromkeys(warnings)), cautions, criteria_used)
+
+
+def _unpriced_reason(line) -> str:
+    return "its heat gain is not priced: no COP" if not line.priced else "no energy price"
 
 
 def _select(project, service, condition, sizes, length):
     from .selection import select
 
-    cold = service.fluid_temp_c < condition.air_temp_c
     spec = _spec(service, condition, length, with_rh="condensation" in service.criteria)
-    economic = _basis(service, cold, True) if "economic" in service.criteria else None
+    economic = _basis(service, True) if "economic" in service.criteria else None
     return select(spec, service.material, service.requirements, service.series, project.units, sizes=sizes,
                   code=service.code, economic=economic, code_paths=project.code_paths, add_inner_layer=False)
 
 
 def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[LineResult]:
-    from .annual import annual_figures
+    from .bare import bare_surface as bare_surface_of
     from .catalog.fittings import equivalent_length_m
     from .catalog.materials import lookup_material
-    from .model import Layer, Surface
-    from .catalog.finishes import lookup_finish
+    from .model import Layer
     from .solve import solve
 
     n = len(lines)
@@ -238,8 +305,7 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
     thickness = np.array([chosen[(l.service, l.condition, l.size.label)][0] for l in lines])[:, None]
     layers = [Layer(lookup_material(service.material), thickness)]
     result = solve(pipe, layers, fluid, surroundings, surface)
-    bare_surface = Surface.from_finish(lookup_finish(
-        "copper_oxidised" if lines[0].size.kind == "copper" else "bare_steel_oxidised"))
+    bare_surface = bare_surface_of(pipe, surface)  # the one bare line: the pipe's own material
     bare = solve(pipe, [], fluid, surroundings, bare_surface)
     q = np.ravel(result.heat_flow_w_per_m)
     q_bare = np.ravel(bare.heat_flow_w_per_m)
@@ -272,56 +338,88 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
         outlet = list(np.ravel(run.outlet_temp_c))
         warnings += [f'service "{service.name}": {w}' for w in run.warnings]
 
-    cold = service.fluid_temp_c < condition.air_temp_c
-    basis = _basis(service, cold, False)
-    ins, raw = annual_figures(heat, basis), annual_figures(heat_bare, basis)
+    basis = _basis(service, False)
+    money = _line_money(heat, heat_bare, basis)
+    gaining = (heat < 0) | (heat_bare < 0)
+    if basis.cop is None and gaining.any():
+        tags = ", ".join(f'"{l.tag}"' for l, g in zip(lines, gaining) if g)
+        warnings.append(f'service "{service.name}" gains heat with no chiller COP (give cop in [energy] or the '
+                        f"service): {tags} left out of the energy, cost and CO2 columns")
     installed = [None] * n
+    installed_note = [""] * n
     table = service.cost_table or project.cost_table
     if table is not None:
         for i, l in enumerate(lines):
             try:
                 installed[i] = float(table.cost_per_m(l.size.label, thickness[i, 0])) * l.length_m
             except InputError:
-                installed[i] = None
-
-    def at(values, i):
-        return None if values is None else float(np.ravel(values)[i])
+                installed_note[i] = f"{table.name} has no price for {l.size.label} at {1000 * thickness[i, 0]:g} mm"
 
     out = []
     for i, l in enumerate(lines):
+        priced = not (basis.cop is None and gaining[i])
+        figures = [money[duty][case][key][i] if priced else None
+                   for duty in ("heating", "cooling") for key in ("energy_j", "cost", "co2_kg")
+                   for case in ("insulated", "bare")]
         out.append(LineResult(
             l.tag, l.service, l.size.label, l.condition, l.length_m, float(thickness[i, 0]), float(q[i]),
             float(q_bare[i]), float(fit_len[i]), float(heat[i]), float(heat_bare[i]), float(ts[i]),
             None if dew_margin[i] is None else float(dew_margin[i]),
             None if outlet[i] is None else float(outlet[i]),
-            at(ins["energy_j"], i), at(raw["energy_j"], i), at(ins["cost"], i), at(raw["cost"], i),
-            at(ins["co2_kg"], i), at(raw["co2_kg"], i), installed[i]))
+            bare_surface.name, float(bare_surface.emittance), priced, *figures, installed[i], installed_note[i]))
+    return out
+
+
+def _line_money(heat, heat_bare, basis) -> dict:
+    """``{duty: {"insulated"|"bare": {"energy_j"|"cost"|"co2_kg": list}}}`` per line; a line
+    that gains heat with no COP gets zeros here (the caller leaves it unpriced)."""
+    from .annual import split_figures
+
+    out = {"heating": {}, "cooling": {}}
+    for case, q in (("insulated", heat), ("bare", heat_bare)):
+        if basis.cop is None:
+            q = np.where(q < 0, 0.0, q)  # unpriced heat gains: the caller leaves these lines out
+        fig = split_figures(q, basis)
+        for duty in out:
+            out[duty][case] = {k: [None] * len(q) if v is None else [float(x) for x in np.ravel(v)]
+                               for k, v in fig[duty].items()}
     return out
 
 
 def _sum(values):
-    values = [v for v in values]
-    if all(v is None for v in values):
+    values = list(values)
+    if not values or any(v is None for v in values):
         return None
-    return float(sum(v for v in values if v is not None))
+    return float(sum(values))
 
 
 def _totals(results: list[LineResult]) -> Totals:
+    """Totals of *results*: plain sums of the lines, losses and gains apart; money over the
+    priced lines; the investment over one set of lines (see :class:`Totals`)."""
     from .economics import simple_payback_years
 
-    t = Totals(
-        heat_flow_w=float(sum(r.heat_flow_w for r in results)),
-        bare_heat_flow_w=float(sum(r.bare_heat_flow_w for r in results)),
-        energy_j=float(sum(r.energy_j for r in results)),
-        bare_energy_j=float(sum(r.bare_energy_j for r in results)),
-        cost=_sum(r.cost for r in results), bare_cost=_sum(r.bare_cost for r in results),
-        co2_kg=_sum(r.co2_kg for r in results), bare_co2_kg=_sum(r.bare_co2_kg for r in results),
-        installed_cost=_sum(r.installed_cost for r in results), payback_years=None,
-        heat_saving_w=float(sum(abs(r.bare_heat_flow_w) - abs(r.heat_flow_w) for r in results)))
-    if t.installed_cost is not None and t.cost is not None:
-        priced = [r for r in results if r.installed_cost is not None and r.cost is not None]
-        saving = sum(r.bare_cost - r.cost for r in priced)
-        t.payback_years = float(simple_payback_years(sum(r.installed_cost for r in priced), saving))
+    priced = [r for r in results if r.priced]
+
+    def figure(attr):
+        return Figure(_sum(getattr(r, "bare_" + attr) for r in priced), _sum(getattr(r, attr) for r in priced))
+
+    heat_loss = Figure(float(sum(r.bare_heat_loss_w for r in results)), float(sum(r.heat_loss_w for r in results)))
+    heat_gain = Figure(float(sum(r.bare_heat_gain_w for r in results)), float(sum(r.heat_gain_w for r in results)))
+    heating = {key: figure(f"heating_{key}") for key in ("energy_j", "cost", "co2_kg")}
+    cooling = {key: figure(f"cooling_{key}") for key in ("energy_j", "cost", "co2_kg")}
+    if not any(r.bare_heat_gain_w > 0 or r.heat_gain_w > 0 for r in priced) and len(priced) < len(results):
+        cooling = {key: Figure(None, None) for key in cooling}  # no heat gain priced at all: no cooling money
+    has_table = any(r.installed_cost is not None or r.installed_cost_note for r in results)
+    t = Totals(heat_loss, heat_gain, heating, cooling, None, None, None,
+               unpriced_lines=[r.tag for r in results if not r.priced])
+    if has_table:
+        covered = [r for r in results if r.installed_cost is not None and r.cost_saving() is not None]
+        t.payback_lines = [r.tag for r in covered]
+        t.lines_left_out = [r.tag for r in results if r not in covered]
+        if covered:
+            t.installed_cost = float(sum(r.installed_cost for r in covered))
+            t.cost_saving = float(sum(r.cost_saving() for r in covered))
+            t.payback_years = float(simple_payback_years(t.installed_cost, t.cost_saving))
     return t
 
 

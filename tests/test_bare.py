@@ -90,3 +90,36 @@ def test_finish_catalogue_agrees_with_bare_metals():
     assert lookup_finish("bare steel, oxidised").emittance == bare_surface("carbon steel").emittance
     assert lookup_finish("bare copper, oxidised").emittance == bare_surface("copper").emittance
 
+
+def test_bare_copper_is_the_same_in_all_four_commands(run):
+    # copper L 2 at 60 C in still 20 C air: check (no layer), size --min-reduction, cost and schedule
+    line = ["--pipe", "copper L 2", "--fluid-temp", "60C", "--ambient-temp", "20C"]
+    code, out, err = run("check", *line, "--format", "json")
+    assert code == 0, err
+    checked = json.loads(out)
+    assert checked["line"]["emittance"] == 0.65  # tables/wall_materials.csv, copper
+    bare_q = checked["heat_flow_w_per_m"]
+
+    code, out, err = run("cost", *line, "--energy-price", "0.1/kWh", "--layer", "elastomeric foam:19mm",
+                         "--format", "json")
+    assert code == 0, err
+    costed = json.loads(out)
+    assert costed["bare"]["emittance"] == 0.65
+    assert costed["bare"]["heat_flow_w_per_m"] == pytest.approx(bare_q, rel=1e-9)
+
+    code, out, err = run("size", *line, "--material", "k=0.04", "--min-reduction", "80%", "--no-touch-check",
+                         "--finish", "aluminium jacket, new")
+    assert code == 0, err
+    import re
+
+    cap = float(re.search(r"under the cap of ([\d.]+) W/m", out).group(1))
+    assert cap == pytest.approx(0.2 * bare_q, abs=0.05)  # 80 % below the same bare line (printed to 0.1 W/m)
+
+    from pathlib import Path
+
+    food = Path(__file__).resolve().parents[1] / "examples" / "food_factory_chilled.toml"
+    code, out, err = run("schedule", str(food), "--format", "json")
+    assert code == 0, err
+    lines = json.loads(out)["lines"]
+    assert {l["bare_emittance"] for l in lines} == {0.65}  # every line there is copper
+    assert {l["bare_surface"] for l in lines} == {"bare copper pipe"}

@@ -187,14 +187,14 @@ def test_demo_cost_table_lookups():
     # values as written in examples/costs_demo.csv (invented demo data)
     assert float(table.cost_per_m("NPS 4", 0.050)) == 44.85
     np.testing.assert_array_equal(table.cost_per_m("nps   4", [0.025, 0.1]), [35.00, 69.35])
-    np.testing.assert_allclose(table.thicknesses_m("NPS 4"), [0.025, 0.04, 0.05, 0.065, 0.08, 0.1, 0.125, 0.15])
+    np.testing.assert_allclose(table.thicknesses_m("NPS 4"), [0.025, 0.04, 0.05, 0.065, 0.08, 0.1, 0.125, 0.13, 0.15])
     assert table.sizes[0] == "NPS 1/2"
 
 
 def test_cost_table_missing_rows():
     table = CostTable.from_csv(DEMO_COSTS)
     raises(
-        "--cost-table", "costs_demo.csv has no row for NPS 3 at 45 mm; it lists 25, 40, 50, 65, 80, 100, 125, 150 mm",
+        "--cost-table", "costs_demo.csv has no row for NPS 3 at 45 mm; it lists 25, 40, 50, 65, 80, 100, 125, 130, 150 mm",
         table.cost_per_m, "NPS 3", 0.045,
     )
     raises(

@@ -36,14 +36,26 @@ def _close(a, b):
 
 def test_totals_equal_sum_of_lines(solved):  # invariant
     t, lines = solved.totals, solved.lines
-    assert _close(t.heat_flow_w, sum(l.heat_flow_w for l in lines))
-    assert _close(t.bare_heat_flow_w, sum(l.bare_heat_flow_w for l in lines))
-    assert _close(t.energy_j, sum(l.energy_j for l in lines))
-    assert _close(t.bare_energy_j, sum(l.bare_energy_j for l in lines))
-    assert _close(t.cost, sum(l.cost for l in lines))
-    assert _close(t.co2_kg, sum(l.co2_kg for l in lines))
+    assert _close(t.heat_loss_w.insulated, sum(max(l.heat_flow_w, 0) for l in lines))
+    assert _close(t.heat_loss_w.bare, sum(max(l.bare_heat_flow_w, 0) for l in lines))
+    assert _close(t.heat_gain_w.insulated, sum(max(-l.heat_flow_w, 0) for l in lines))
+    assert _close(t.heat_gain_w.bare, sum(max(-l.bare_heat_flow_w, 0) for l in lines))
+    for duty, money in (("heating", t.heating), ("cooling", t.cooling)):
+        assert _close(money["energy_j"].insulated, sum(getattr(l, f"{duty}_energy_j") for l in lines))
+        assert _close(money["cost"].bare, sum(getattr(l, f"bare_{duty}_cost") for l in lines))
+        assert _close(money["co2_kg"].insulated, sum(getattr(l, f"{duty}_co2_kg") for l in lines))
     if t.installed_cost is not None:
-        assert _close(t.installed_cost, sum(l.installed_cost for l in lines if l.installed_cost is not None))
+        covered = [l for l in lines if l.tag in t.payback_lines]
+        assert _close(t.installed_cost, sum(l.installed_cost for l in covered))
+        assert _close(t.cost_saving, sum(l.cost_saving() for l in covered))  # one set of lines
+
+
+def test_saving_is_bare_minus_insulated(solved):  # issue 8 §1: the rows subtract
+    t = solved.totals
+    figures = [t.heat_loss_w, t.heat_gain_w] + list(t.heating.values()) + list(t.cooling.values())
+    for f in figures:
+        if f.bare is not None:
+            assert f.saving == f.bare - f.insulated  # exactly, on the totals themselves
 
 
 def test_every_line_saves_and_is_in_the_schedule(solved):  # invariant
@@ -58,18 +70,30 @@ def test_line_energy_follows_the_definition(solved):
     project = solved.project
     for line in solved.lines:
         energy = project.services[line.service].energy
-        cold = line.heat_flow_w < 0
-        divisor = energy.cop if cold and energy.cop else energy.efficiency
-        expected = abs(line.heat_flow_w) * energy.hours_per_year * 3600.0 / divisor
-        assert math.isclose(line.energy_j, expected, rel_tol=1e-12)
+        if line.heat_flow_w < 0:
+            expected, other = abs(line.heat_flow_w) * energy.hours_per_year * 3600.0 / energy.cop, line.heating_energy_j
+            got = line.cooling_energy_j
+        else:
+            expected = line.heat_flow_w * energy.hours_per_year * 3600.0 / energy.efficiency
+            got, other = line.heating_energy_j, line.cooling_energy_j
+        assert math.isclose(got, expected, rel_tol=1e-12)
+        assert other == 0.0  # one duty per line: never netted
+
+
+def test_examples_end_without_warning(solved):
+    # the demo cost tables cover every thickness the examples select (issue 8 §3)
+    assert solved.warnings == []
+    if solved.totals.installed_cost is not None:
+        assert solved.totals.lines_left_out == []
 
 
 def test_energy_total_in_kwh_matches_pint(solved, capsys):
     ureg = pint.UnitRegistry()
-    kwh = (solved.totals.energy_j * ureg.joule).to(ureg.kilowatt_hour).magnitude  # pint
+    energy_j = solved.totals.heating["energy_j"].bare
+    kwh = (energy_j * ureg.joule).to(ureg.kilowatt_hour).magnitude  # pint
     from pipeins.units import to_display
 
-    assert math.isclose(to_display(solved.totals.energy_j, "energy", "si"), kwh, rel_tol=1e-12)
+    assert math.isclose(to_display(energy_j, "energy", "si"), kwh, rel_tol=1e-12)
 
 
 def test_all_criteria_and_both_rule_sets_are_exercised():
@@ -103,7 +127,8 @@ def test_cli_json_is_one_document(run):
     assert code == 0, err
     data = json.loads(out)
     assert {"schedule", "lines", "totals", "warnings", "cautions"} <= set(data)
-    assert math.isclose(data["totals"]["heat_flow_w"], sum(l["heat_flow_w"] for l in data["lines"]), rel_tol=1e-9)
+    assert math.isclose(data["totals"]["heat_loss_w"]["insulated"], sum(l["heat_loss_w"] for l in data["lines"]),
+                        rel_tol=1e-9)
 
 
 def test_cli_text_and_markdown(run):
@@ -118,6 +143,8 @@ def test_cli_csv_writes_one_file_per_table(run, tmp_path):
     code, out, err = run("schedule", str(EXAMPLES / "district_heating_plant.toml"), "--format", "csv",
                          "--output", str(folder))
     assert code == 0, err
-    assert sorted(p.name for p in folder.iterdir()) == ["lines.csv", "schedule.csv", "totals.csv"]
-    assert (folder / "lines.csv").read_text(encoding="utf-8").count("\n") == 11  # heading + 10 lines
+    assert sorted(p.name for p in folder.iterdir()) == ["investment.csv", "lines.csv", "locations.csv",
+                                                        "schedule.csv", "services.csv", "totals.csv"]
+    text = (folder / "lines.csv").read_text(encoding="utf-8")
+    assert len([x for x in text.splitlines() if not x.startswith("#")]) == 11  # heading + 10 lines
     assert not [p for p in tmp_path.iterdir() if p.name.startswith(".pipeins-")]

@@ -9,22 +9,13 @@ from .options import ascii_option
 
 def write_csv_folder(report, units: str, folder: str) -> None:
     """Write each table of *report* as its own CSV file into *folder*, swapped in whole
-    (see :func:`pipeins.fileio.write_folder`)."""
-    import csv
-    import io
-
+    (see :func:`pipeins.fileio.write_folder`); each file carries the basis and cautions as
+    comment lines (:func:`pipeins.reports.table_csv`)."""
     from ..fileio import write_folder
-    from ..reports import _cells
-    from ..reports.schedule import CSV_NAMES
+    from ..reports import table_csv
+    from ..reports.schedule import csv_files
 
-    files = {}
-    for name, table in zip(CSV_NAMES, report.tables):
-        heads, rows = _cells(table, units)
-        buffer = io.StringIO()
-        writer = csv.writer(buffer, lineterminator="\n")
-        writer.writerow(heads)
-        writer.writerows(rows)
-        files[name] = buffer.getvalue()
+    files = {name: table_csv(report, table, units) for name, table in csv_files(report)}
     write_folder(folder, files, "--output")
 
 

@@ -1,9 +1,16 @@
-"""Report of a project's insulation schedule: the schedule, the lines, the totals.
+"""Report of a project's insulation schedule: the schedule, the lines, the totals, the basis.
 
-Tables (in this order, also the CSV files ``schedule.csv``, ``lines.csv``,
-``totals.csv``): the insulation schedule per service, location and size band; the
-per-line results; the totals bare against insulated (plus installed cost and payback
-when the project has a cost table).  JSON carries the same in SI.
+Tables, in this order (also the CSV files of a ``--format csv`` folder, see
+:func:`csv_files`): the insulation schedule per service, location and size band
+(``schedule.csv``); the per-line results (``lines.csv``); the totals bare, insulated and
+saving, heat losses and heat gains apart and the money of each duty apart
+(``totals.csv``); the investment over one set of lines when the project has a cost table
+(``investment.csv``); and the basis: each service's fluid, temperature, energy basis and
+code rule set (``services.csv``) and each location's air (``locations.csv``).
+
+Every saving printed is bare − insulated of the two numbers printed beside it (rounded
+first, then subtracted), so the rows subtract.  JSON carries the same in SI, unrounded,
+with ``saving = bare − insulated`` of its own numbers.
 """
 
 from __future__ import annotations
@@ -11,22 +18,16 @@ from __future__ import annotations
 from . import Column, Report, Table
 from .sizing import layers_text
 
-__all__ = ["schedule_report", "CSV_NAMES"]
+__all__ = ["schedule_report", "csv_files", "CSV_NAMES"]
 
 #: File name of each table when the report is written as CSV files into a folder.
-CSV_NAMES = ("schedule.csv", "lines.csv", "totals.csv")
+CSV_NAMES = {"Insulation schedule": "schedule.csv", "Lines": "lines.csv", "Totals": "totals.csv",
+             "Investment": "investment.csv", "Services": "services.csv", "Locations": "locations.csv"}
 
 
-def _money(value, currency: str):
-    return None if value is None else f"{value:,.0f} {currency}".strip()
-
-
-def _kw(value_w, units):
-    from ..units import format_quantity
-
-    if units == "si":
-        return f"{value_w / 1000:.2f}"
-    return format_quantity(value_w, "power", units).rsplit(" ", 1)[0]
+def csv_files(report) -> list[tuple[str, Table]]:
+    """``(file name, table)`` of every table of a schedule report, in order."""
+    return [(CSV_NAMES[t.title], t) for t in report.tables]
 
 
 def _governing(key):
@@ -35,10 +36,154 @@ def _governing(key):
     return GOVERNING_LABELS.get(key, "–") if key else "–"
 
 
+def _triple(figure, scale, digits):
+    """(bare, insulated, saving) of a :class:`~pipeins.schedule.Figure` in display units,
+    rounded to *digits*; the saving is the difference of the rounded numbers."""
+    if figure.bare is None or figure.insulated is None:
+        return None, None, None
+    b, i = round(scale(figure.bare), digits), round(scale(figure.insulated), digits)
+    return b, i, round(b - i, digits)
+
+
+def _totals_table(schedule, units, cur):
+    from ..units import to_display, unit_label
+
+    t = schedule.totals
+    lines = schedule.lines
+    duties = [d for d, attr in (("heating", "bare_heat_loss_w"), ("cooling", "bare_heat_gain_w"))
+              if any(getattr(l, attr) > 0 for l in lines)] or ["heating"]
+    if units == "si":
+        power, p_digits, p_unit = (lambda w: w / 1000.0), 2, "kW"
+    else:
+        power, p_digits, p_unit = (lambda w: to_display(w, "power", units)), 0, unit_label("power", units)
+    e_digits = 0 if units == "si" else 1
+    energy = (lambda j: to_display(j, "energy", units))
+    e_unit = unit_label("energy", units)
+    columns, cols = [], [Column("case")]
+    for duty in duties:
+        flow = t.heat_loss_w if duty == "heating" else t.heat_gain_w
+        word = "heat loss" if duty == "heating" else "heat gain"
+        cols.append(Column(word, unit=p_unit, digits=p_digits, grouped=True))
+        columns.append(_triple(flow, power, p_digits))
+        money = t.heating if duty == "heating" else t.cooling
+        cols.append(Column(f"{duty} energy per year", unit=e_unit, digits=e_digits, grouped=True))
+        columns.append(_triple(money["energy_j"], energy, e_digits))
+        if money["cost"].bare is not None:
+            cols.append(Column(f"{duty} cost per year", unit=cur or None, digits=0, grouped=True))
+            columns.append(_triple(money["cost"], float, 0))
+        if money["co2_kg"].bare is not None:
+            cols.append(Column(f"{duty} CO2 per year", unit="t", digits=1, grouped=True))
+            columns.append(_triple(money["co2_kg"], lambda kg: kg / 1000.0, 1))
+    rows = [[name] + [c[j] for c in columns] for j, name in enumerate(("bare", "insulated", "saving"))]
+    note = ("Heat losses (made up by the heat source: heating) and heat gains (removed by the chiller: "
+            "cooling) are kept apart, never netted; saving = bare − insulated as printed.")
+    if t.unpriced_lines:
+        note += f" Energy, cost and CO2 leave out {len(t.unpriced_lines)} line(s) whose heat gain has no COP."
+    return Table("Totals", cols, rows, note=note)
+
+
+def _investment_table(schedule, cur):
+    t = schedule.totals
+    n, total = len(t.payback_lines), len(schedule.lines)
+    payback = t.payback_years
+    rows = [[f"{n} of {total}", t.installed_cost, t.cost_saving, payback]]
+    return Table("Investment", [Column("lines covered"), Column("installed cost", unit=cur or None, digits=0, grouped=True),
+                                Column("cost saving per year", unit=cur or None, digits=0, grouped=True),
+                                Column("simple payback", unit="years", digits=1)], rows,
+                 note="Installed cost, cost saving and payback cover the same lines"
+                      + ("." if not t.lines_left_out else "; left out: " + ", ".join(t.lines_left_out) + "."))
+
+
+def _energy_text(e, cur, units):
+    """The energy basis of a service as words."""
+    parts = [f"{e.hours_per_year:g} h/year", f"efficiency {e.efficiency:g}"]
+    parts.append(f"COP {e.cop:g}" if e.cop is not None else "no COP")
+    if e.price is not None:
+        parts.append(f"price {e.price.price_per_unit:g} {cur + '/' if cur else 'per '}{e.price.unit}")
+    if e.co2 is not None:
+        parts.append(f"CO2 {e.co2.kg_co2_per_unit:g} kg/{e.co2.unit}")
+    parts.append(f"{100 * e.discount_rate:g} % over {e.years:g} years"
+                 + (f", price rising {100 * e.escalation:g} %/year" if e.escalation else ""))
+    return "; ".join(parts)
+
+
+def _code_text(project, name):
+    if name is None:
+        return None
+    from ..codes import load_rule_sets
+
+    try:
+        rule_set = load_rule_sets(project.code_paths)[name]
+    except Exception:  # the schedule already ran with it; a listing problem must not hide the report
+        return name
+    sources = "; ".join(dict.fromkeys(r.source for r in rule_set.rows))
+    return f"{name} ({rule_set.origin}; {sources})"
+
+
+def _basis_tables(schedule, units, cur):
+    project = schedule.project
+    used = {(l.service, l.condition) for l in schedule.lines}
+    s_rows = []
+    for name, s in project.services.items():
+        if not any(sn == name for sn, _ in used):
+            continue
+        fluid = "steam (saturated)" if s.steam_pressure_pa is not None else (s.fluid or "water (no inner film)")
+        s_rows.append([name, fluid, s.fluid_temp_c, s.steam_pressure_pa, s.material, s.finish or "–",
+                       ", ".join(s.criteria), _code_text(project, s.code) if "code" in s.criteria else None,
+                       _energy_text(s.energy, cur, units)])
+    services = Table("Services", [
+        Column("service"), Column("fluid"), Column("temperature", "temperature"),
+        Column("steam pressure (absolute)", "pressure"), Column("material"), Column("finish"),
+        Column("criteria"), Column("code rule set"), Column("energy basis")], s_rows,
+        note="Heat losses are priced through the efficiency, heat gains through the COP; a gain with no "
+             "COP is left unpriced, never priced as heating.")
+    l_rows = []
+    for name, c in project.conditions.items():
+        if not any(cn == name for _, cn in used):
+            continue
+        l_rows.append([name, c.air_temp_c, c.rh_percent, c.wind_m_s,
+                       c.air_temp_c if c.surroundings_temp_c is None else c.surroundings_temp_c, c.pressure_pa])
+    locations = Table("Locations", [
+        Column("location"), Column("air", "temperature"), Column("relative humidity", "percent"),
+        Column("wind", "speed"), Column("surroundings (radiant)", "temperature"),
+        Column("air pressure (absolute)", "pressure")], l_rows,
+        note="The surroundings are the mean radiant temperature (the air temperature when not given).")
+    return services, locations
+
+
+def _basis_data(schedule):
+    project = schedule.project
+    services = {}
+    for name, s in project.services.items():
+        e = s.energy
+        services[name] = {
+            "fluid": "steam" if s.steam_pressure_pa is not None else s.fluid,
+            "fluid_temp_c": s.fluid_temp_c, "steam_pressure_pa": s.steam_pressure_pa,
+            "material": s.material, "finish": s.finish, "criteria": list(s.criteria),
+            "code": s.code if "code" in s.criteria else None,
+            "code_basis": _code_text(project, s.code) if "code" in s.criteria else None,
+            "energy": {"hours_per_year": e.hours_per_year, "efficiency": e.efficiency, "cop": e.cop,
+                       "price_per_unit": None if e.price is None else e.price.price_per_unit,
+                       "price_unit": None if e.price is None else e.price.unit,
+                       "co2_kg_per_unit": None if e.co2 is None else e.co2.kg_co2_per_unit,
+                       "co2_unit": None if e.co2 is None else e.co2.unit,
+                       "discount_rate": e.discount_rate, "years": e.years, "escalation": e.escalation},
+        }
+    locations = {name: {"air_temp_c": c.air_temp_c, "rh_percent": c.rh_percent, "wind_m_s": c.wind_m_s,
+                        "surroundings_temp_c": c.air_temp_c if c.surroundings_temp_c is None else c.surroundings_temp_c,
+                        "pressure_pa": c.pressure_pa}
+                 for name, c in project.conditions.items()}
+    return {"services": services, "locations": locations}
+
+
+def _clean(v):
+    if isinstance(v, float):
+        return None if v != v or v in (float("inf"), float("-inf")) else round(v, 9)
+    return v
+
+
 def schedule_report(schedule, units: str = "si") -> Report:
     """The :class:`~pipeins.reports.Report` of a :class:`pipeins.schedule.Schedule`."""
-    from ..units import unit_label
-
     project = schedule.project
     cur = project.currency
     sched = Table("Insulation schedule", [
@@ -48,37 +193,26 @@ def schedule_report(schedule, units: str = "si") -> Report:
           _governing(r.governing)] for r in schedule.rows])
 
     lines = Table("Lines", [
-        Column("line"), Column("size"), Column("length", "length"), Column("thickness", "thickness"),
-        Column("heat flow", "heat_flow_per_length"), Column("bare fittings", "length"),
-        Column("heat flow, line", "power"), Column("surface", "temperature"),
+        Column("line"), Column("service"), Column("size"), Column("location"), Column("length", "length"),
+        Column("thickness", "thickness"), Column("heat flow", "heat_flow_per_length"),
+        Column("bare fittings", "length"), Column("heat flow, line", "power"),
+        Column("bare heat flow, line", "power"), Column("surface", "temperature"),
         Column("above dew point", "temperature_difference"), Column("outlet", "temperature")],
-        [[l.tag, l.size, l.length_m, l.thickness_m, l.heat_flow_w_per_m, l.fittings_length_m or None,
-          l.heat_flow_w, l.surface_temp_c, l.dew_point_margin_k, l.outlet_temp_c] for l in schedule.lines],
+        [[l.tag, l.service, l.size, l.condition, l.length_m, l.thickness_m, l.heat_flow_w_per_m,
+          l.fittings_length_m or None, l.heat_flow_w, l.bare_heat_flow_w, l.surface_temp_c, l.dew_point_margin_k,
+          l.outlet_temp_c] for l in schedule.lines],
         note="Heat flow positive = lost by the fluid, negative = gained. Bare fittings are counted as "
-             "that length of bare pipe.")
+             "that length of bare pipe; the bare line is the pipe's own surface with no insulation.")
 
+    tables = [sched, lines, _totals_table(schedule, units, cur)]
     t = schedule.totals
-    power_head = "heat flow [kW]" if units == "si" else f"heat flow [{unit_label('power', units)}]"
-    energy = Column("energy per year", "energy")
-
-    def row(name, q, e, cost, co2):
-        return [name, _kw(q, units), e, _money(cost, cur), None if co2 is None else f"{co2 / 1000:,.1f}"]
-
-    totals_rows = [row("insulated", t.heat_flow_w, t.energy_j, t.cost, t.co2_kg),
-                   row("bare", t.bare_heat_flow_w, t.bare_energy_j, t.bare_cost, t.bare_co2_kg),
-                   row("saving", t.heat_saving_w, t.bare_energy_j - t.energy_j,
-                       None if t.cost is None else t.bare_cost - t.cost,
-                       None if t.co2_kg is None else t.bare_co2_kg - t.co2_kg)]
-    if t.installed_cost is not None:
-        payback = "never" if t.payback_years is None or t.payback_years == float("inf") else f"{t.payback_years:.1f} years"
-        totals_rows.append(["installed cost", None, None, _money(t.installed_cost, cur), None])
-        totals_rows.append(["simple payback", None, None, payback, None])
-    totals = Table("Totals", [Column("case"), Column(power_head), energy, Column("cost per year"),
-                              Column("CO2 per year [t]")], totals_rows,
-                   note="Heat flow: net (losses positive, gains negative); the saving counts both as "
-                        "magnitudes.")
+    if t.payback_lines or t.lines_left_out:
+        tables.append(_investment_table(schedule, cur))
+    tables += list(_basis_tables(schedule, units, cur))
 
     footer = [f"units: {units}; currency: {cur or '–'}"]
+    bare = sorted({f"{l.bare_surface}, emittance {l.bare_emittance:.2f}" for l in schedule.lines})
+    footer.append("bare line: " + "; ".join(bare) + " (no insulation, bare fittings as bare pipe)")
     for service, texts in schedule.criteria_used.items():
         footer.append(f"{service}: " + "; ".join(texts))
     data = {
@@ -89,13 +223,25 @@ def schedule_report(schedule, units: str = "si") -> Report:
                       "material": r.material, "finish": r.finish, "thickness_mm": round(r.thickness_m * 1000, 2),
                       "layers_mm": [round(x * 1000, 2) for x in r.layers_m], "governing": r.governing}
                      for r in schedule.rows],
-        "lines": [{k: (round(v, 9) if isinstance(v, float) else v) for k, v in l.__dict__.items()}
+        "lines": [{**{k: _clean(v) for k, v in l.__dict__.items()},
+                   "heat_loss_w": l.heat_loss_w, "bare_heat_loss_w": l.bare_heat_loss_w,
+                   "heat_gain_w": l.heat_gain_w, "bare_heat_gain_w": l.bare_heat_gain_w}
                   for l in schedule.lines],
-        "totals": {k: (None if v is None or v == float("inf") else round(v, 9) if isinstance(v, float) else v)
-                   for k, v in t.__dict__.items()},
+        "totals": {
+            "heat_loss_w": t.heat_loss_w.to_dict(),
+            "heat_gain_w": t.heat_gain_w.to_dict(),
+            "heating": {k: f.to_dict() for k, f in t.heating.items()},
+            "cooling": {k: f.to_dict() for k, f in t.cooling.items()},
+            "unpriced_lines": list(t.unpriced_lines),
+        },
+        "investment": None if not (t.payback_lines or t.lines_left_out) else {
+            "lines": list(t.payback_lines), "left_out": list(t.lines_left_out),
+            "installed_cost": _clean(t.installed_cost), "cost_saving_per_year": _clean(t.cost_saving),
+            "simple_payback_years": _clean(t.payback_years)},
+        "basis": _basis_data(schedule),
         "criteria": schedule.criteria_used,
         "warnings": schedule.warnings,
         "cautions": schedule.cautions,
     }
-    return Report(f"Insulation schedule: {project.name}", [sched, lines, totals], data,
+    return Report(f"Insulation schedule: {project.name}", tables, data,
                   list(schedule.warnings), list(schedule.cautions), footer)
