@@ -1,9 +1,12 @@
 """The bare line: one definition for every command.
 
 "Bare" in pipeins always means the same thing: the pipe with no insulation layer and no
-jacket, its outer surface the pipe's own material as installed, with the bare emittance
-the wall-material catalogue gives (``tables/wall_materials.csv``: oxidised carbon steel
-0.80, oxidised copper 0.65, lightly oxidised stainless steel 0.40, plastics 0.90). The
+jacket, its outer surface the pipe's own material as installed.  The wall-material
+catalogue (``tables/wall_materials.csv``) names for each material the finish row of
+``tables/finishes.csv`` that describes its bare surface (carbon steel: "carbon steel, bare,
+oxidised"; copper: "copper, oxidised"; stainless steel: "stainless steel, weathered";
+plastics: "plastic pipe, bare"), so the emittance has one source, and the touch kind of
+the bare pipe (bare metal or non-metallic). The
 film coefficients follow from the surroundings as for any other surface; a fixed outer
 coefficient given by the user is kept (it replaces convection and radiation on both).
 
@@ -34,7 +37,7 @@ def bare_surface(pipe: Pipe | str, surface: Surface | None = None) -> Surface:
     Returns
     -------
     Surface
-        Emittance [-] and touch kind of the bare pipe material, labelled
+        Emittance [-] (of the material's bare finish row) and touch kind of the bare pipe, labelled
         ``"bare <material> pipe"``.
 
     Examples
@@ -43,11 +46,13 @@ def bare_surface(pipe: Pipe | str, surface: Surface | None = None) -> Surface:
     >>> s.emittance, s.surface_kind, s.name
     (0.65, 'bare_metal', 'bare copper pipe')
     """
+    from .catalog.finishes import lookup_finish
     from .catalog.materials import lookup_wall_material
 
     name = pipe.wall_material if isinstance(pipe, Pipe) else pipe
     wall = lookup_wall_material(name)
-    out = Surface(wall.bare_emittance, f"bare {wall.name} pipe", wall.surface_kind)
+    finish = lookup_finish(wall.bare_finish)
+    out = Surface(finish.emittance, f"bare {wall.name} pipe", wall.surface_kind)
     if surface is not None and surface.fixed_coefficient_w_m2k is not None:
         out = replace(out, fixed_coefficient_w_m2k=surface.fixed_coefficient_w_m2k, name="fixed outer coefficient")
     return out

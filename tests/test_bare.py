@@ -66,7 +66,7 @@ def test_min_reduction_against_bare_steel_by_hand(run):
     hand_mm = 1000 * hi
     assert hand_mm == pytest.approx(24.4, abs=0.3)  # the bare-steel basis of issue 8
     code, out, _ = run("size", "--pipe", "NPS 4", "--fluid-temp", "180C", "--material", "k=0.045",
-                       "--min-reduction", "90%", "--no-touch-check", "--finish", "aluminium jacket, new",
+                       "--min-reduction", "90%", "--no-touch-check", "--finish", "aluminium, bright",
                        "--format", "json")
     assert code == 0
     data = json.loads(out)
@@ -75,9 +75,14 @@ def test_min_reduction_against_bare_steel_by_hand(run):
 
 
 def test_bare_surface_is_the_pipe_material():
-    assert bare_surface("carbon steel").emittance == lookup_wall_material("carbon_steel").bare_emittance
+    from pipeins.catalog.finishes import lookup_finish
+
+    for key in ("carbon_steel", "stainless_steel", "copper", "pvc"):
+        wall = lookup_wall_material(key)
+        assert bare_surface(wall.name).emittance == lookup_finish(wall.bare_finish).emittance
+    assert bare_surface("carbon steel").emittance == 0.80  # Perry's/Hottel oxidised steel (tables/finishes.csv)
     assert bare_surface("copper").emittance == 0.65
-    assert bare_surface("stainless steel").emittance == 0.40
+    assert bare_surface("stainless steel").surface_kind == "bare_metal"  # the pipe itself, not a jacket
     assert bare_surface("PVC").surface_kind == "non_metallic"
     for name in ("carbon steel", "copper"):
         assert bare_surface(name).name.startswith(f"bare {name}")
@@ -87,8 +92,8 @@ def test_finish_catalogue_agrees_with_bare_metals():
     # one value per bare metal: the finish rows a user can pick agree with the bare line
     from pipeins.catalog.finishes import lookup_finish
 
-    assert lookup_finish("bare steel, oxidised").emittance == bare_surface("carbon steel").emittance
-    assert lookup_finish("bare copper, oxidised").emittance == bare_surface("copper").emittance
+    assert lookup_finish("carbon steel, bare, oxidised").emittance == bare_surface("carbon steel").emittance
+    assert lookup_finish("copper, oxidised").emittance == bare_surface("copper").emittance
 
 
 def test_bare_copper_is_the_same_in_all_four_commands(run):
@@ -108,7 +113,7 @@ def test_bare_copper_is_the_same_in_all_four_commands(run):
     assert costed["bare"]["heat_flow_w_per_m"] == pytest.approx(bare_q, rel=1e-9)
 
     code, out, err = run("size", *line, "--material", "k=0.04", "--min-reduction", "80%", "--no-touch-check",
-                         "--finish", "aluminium jacket, new")
+                         "--finish", "aluminium, bright")
     assert code == 0, err
     import re
 
@@ -123,3 +128,11 @@ def test_bare_copper_is_the_same_in_all_four_commands(run):
     lines = json.loads(out)["lines"]
     assert {l["bare_emittance"] for l in lines} == {0.65}  # every line there is copper
     assert {l["bare_surface"] for l in lines} == {"bare copper pipe"}
+
+
+def test_every_wall_material_has_a_bare_surface():
+    from pipeins.catalog.materials import list_materials
+
+    for row in list_materials("wall"):
+        surface = bare_surface(row["name"])
+        assert 0 < surface.emittance <= 1 and surface.surface_kind in ("bare_metal", "non_metallic")

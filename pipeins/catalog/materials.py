@@ -79,9 +79,9 @@ class WallMaterial:
     heat_capacity_j_kgk : float
         Specific heat capacity [J/(kg·K)].
     source : str
-    bare_emittance : float
-        Total hemispherical emittance of the bare pipe of this material [-] (see
-        :mod:`pipeins.bare`).
+    bare_finish : str
+        Key of the finish (``tables/finishes.csv``) whose emittance the bare pipe of this
+        material has as installed (see :mod:`pipeins.bare`).
     surface_kind : str
         Touch-limit kind of the bare pipe (``bare_metal`` or ``non_metallic``).
     """
@@ -92,7 +92,7 @@ class WallMaterial:
     density_kg_m3: float
     heat_capacity_j_kgk: float
     source: str
-    bare_emittance: float = 0.8
+    bare_finish: str = "steel_oxidised"
     surface_kind: str = "bare_metal"
 
 
@@ -135,7 +135,7 @@ def _walls() -> dict[str, WallMaterial]:
             density_kg_m3=float(row["density_kg_m3"]),
             heat_capacity_j_kgk=float(row["heat_capacity_j_kgk"]),
             source=row["source"],
-            bare_emittance=float(row["bare_emittance"]),
+            bare_finish=row["bare_finish"],
             surface_kind=row["surface_kind"],
         )
         for row in read_table("wall_materials")

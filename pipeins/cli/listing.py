@@ -169,10 +169,11 @@ def _finishes(match, units):
 
     rows = _match(list_finishes(), match, ("key", "name", "family", "aliases"))
     table = Table("Outer surface finishes", [
-        Column("family"), Column("key"), Column("name"), Column("condition"), Column("source range [-]"),
-        Column("emittance [-]"), Column("surface kind"), Column("source"),
-    ], [[r["family"], r["key"], r["name"], r["condition"], f"{r['emittance_low']:.2f} to {r['emittance_high']:.2f}",
-         f"{r['emittance']:.2f}", r["surface_kind"], r["source"]] for r in rows],
+        Column("family"), Column("key"), Column("name"), Column("condition"),
+        Column("source range, low", unit="-", digits=2), Column("source range, high", unit="-", digits=2),
+        Column("emittance", unit="-", digits=2), Column("surface kind"), Column("source"),
+    ], [[r["family"], r["key"], r["name"], r["condition"], r["emittance_low"], r["emittance_high"],
+         r["emittance"], r["surface_kind"], r["source"]] for r in rows],
         note="Emittance is the total hemispherical emittance near room temperature: the range the "
              "source gives and the value used. Any other value: --emittance.")
     return table, [dict(r) for r in rows]
