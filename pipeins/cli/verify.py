@@ -11,6 +11,18 @@ from .options import emit, output_options
 __all__ = ["verify"]
 
 
+def _emit_json_list(items, output):
+    import json
+
+    from ..fileio import write_text_output
+
+    text = json.dumps(items, indent=2, allow_nan=False) + "\n"
+    if output is None or output == "-":
+        click.echo(text, nl=False)
+    else:
+        write_text_output(output, text, "--output")
+
+
 @click.command()
 @click.option("--match", metavar="TEXT", help="Run only the checks whose id or source contains TEXT.")
 @output_options
@@ -28,7 +40,7 @@ def verify(match, fmt, units, output):
     Example:
       pipeins verify
       pipeins verify --match incropera
-      pipeins verify --format json -o verification.json
+      pipeins verify --format json -o verification.json   # a list of checks
     """
     from ..errors import InputError
     from ..verification import CHECKS, run_checks
@@ -41,6 +53,9 @@ def verify(match, fmt, units, output):
         if not checks:
             raise InputError("--match", f'no check id or source contains "{match.strip()}"')
     outcomes = run_checks(checks)
-    emit(verification_report(outcomes), fmt, units, output)
+    if fmt == "json":  # the contract: a bare list of checks, each with source, expected, actual, tolerance, passed
+        _emit_json_list([o.to_dict() for o in outcomes], output)
+    else:
+        emit(verification_report(outcomes), fmt, units, output)
     if not all(o.passed for o in outcomes):
         sys.exit(1)  # after the report is out: a failed check is a result, not bad input
