@@ -165,3 +165,27 @@ def test_benchmark_grid_converges_in_a_few_evaluations(wind):
     r = solve(*build_cases(wind))
     assert r.iterations <= 4
     assert np.all(np.isfinite(r.heat_flow_w_per_m))
+
+
+def test_flat_top_face_at_the_mcadams_switch_answers():
+    # McAdams' hot-top-face correlation changes form at Ra = 1e7 (0.54·Ra^1/4 below, 0.15·Ra^1/3
+    # above: 30.4 against 32.3, a 6.4 % jump; McAdams, Heat Transmission, 3rd ed., 1954, as given
+    # by Incropera et al., 6th ed., Eqs. 9.30-9.31).  q_out then jumps as Ts crosses it and G has
+    # a sign change but no root; the old solver raised SolverError here.  The bracket closes on
+    # the jump: the answer is finite and within the jump of either side's outer film.
+    from pipeins.model import FlatWall
+    from pipeins.physics import outer, radiation
+
+    length = 0.14345751455925987
+    r = solve(FlatWall(0.001, 50.0, length, "top"),
+              [Layer(lookup_material("cellular glass"), 0.02133351875601975), Layer(K040, 0.12470283618319924)],
+              Fluid(216.9283156494094), Surroundings(-23.35128536870348, surroundings_temp_c=3.988984181183433),
+              Surface(0.7300339102588238))
+    q, ts = float(r.heat_flow_w_per_m), float(r.surface_temp_c)
+    assert np.isfinite(q) and q > 0
+    flows = r.layer_heat_flows_w_per_m()
+    assert np.allclose(flows, q, rtol=1e-9)
+    h_c = outer.outer_convection_coefficient(ts, -23.35128536870348, length, 0.0, "top", length, 101325.0, "flat")
+    h_r = radiation.radiation_coefficient_w_m2k(ts, 3.988984181183433, 0.7300339102588238)
+    q_out = float(h_c * (ts + 23.35128536870348) + h_r * (ts - 3.988984181183433))
+    assert abs(q_out - q) <= 0.07 * q
