@@ -150,8 +150,8 @@ def thickness_sweep_data(selection, index: int = 0, points: int = 61) -> dict:
                            "value": float(crit.limit_c)})
         elif crit.key == "condensation" and result.dew_point_c is not None:
             dew = float(np.ravel(np.broadcast_to(result.dew_point_c, result.shape))[index * grid.size])
-            limits.append({"key": crit.key, "label": f"{crit.label} (dew point + {crit.margin_k:g} K)",
-                           "quantity": "surface_temp", "value": dew + float(crit.margin_k)})
+            limits.append({"key": crit.key, "label": crit.label, "quantity": "surface_temp",
+                           "value": dew + float(crit.margin_k), "dew_point_c": dew, "margin_k": float(crit.margin_k)})
         elif crit.key == "heat_flow" and hasattr(crit, "cap"):
             cap = float(np.ravel(crit.cap(problem))[index])
             sign = -1.0 if q[0] < 0 else 1.0
@@ -301,8 +301,12 @@ def _draw_thickness_sweep(axes, d, units):
     for j, lim in enumerate(d["limits"]):
         ax = ax_t if lim["quantity"] == "surface_temp" else ax_q
         kind = "temperature" if lim["quantity"] == "surface_temp" else "heat_flow_per_length"
+        label = f"limit: {lim['label']}"
+        if "margin_k" in lim:
+            margin = float(_disp(lim["margin_k"], "temperature_difference", units))
+            label += f" (dew point + {margin:.3g} {_lab('temperature_difference', units)})"
         ax.axhline(float(_disp(lim["value"], kind, units)), color=_ACCENT, lw=1.2, ls=_STYLES[j % len(_STYLES)],
-                   label=f"limit: {lim['label']}")
+                   label=label)
     for ax in axes:
         for j, req in enumerate(d["required"]):
             x = float(_disp(req["thickness_m"], "thickness", units))
@@ -316,8 +320,8 @@ def _draw_thickness_sweep(axes, d, units):
     ax_q.set_ylabel(f"heat flow [{_lab('heat_flow_per_length', units)}]", fontsize=9)
     ax_t.set_ylabel(f"surface [{_lab('temperature', units)}]", fontsize=9)
     ax_t.set_xlabel(f"thickness of {d['material']} [{_lab('thickness', units)}]", fontsize=9)
-    ax_q.legend(fontsize=7, loc="upper right", frameon=False)
-    ax_t.legend(fontsize=7, loc="upper right", frameon=False)
+    ax_q.legend(fontsize=7, loc="best", framealpha=0.9, edgecolor="none")
+    ax_t.legend(fontsize=7, loc="best", framealpha=0.9, edgecolor="none")
 
 
 def _draw_profile(axes, d, units):
@@ -325,11 +329,12 @@ def _draw_profile(axes, d, units):
     r = _disp(np.asarray(d["diameter_m"]) / 2, "diameter", units)
     temps = _disp(d["temp_c"], "temperature", units)
     grey = ("#e4e4e4", "#cfcfcf", "#f0f0f0", "#dadada", "#e9e9e9")
+    hot = temps[0] >= temps[-1]  # names of the bands where the line is not: low for a hot line
     for j, name in enumerate(d["bands"]):
         ax.axvspan(r[j], r[j + 1], color=grey[j % len(grey)], hatch=_HATCHES[(j + 1) % len(_HATCHES)] if j else "",
                    ec="#b0b0b0", lw=0.0)
-        ax.text((r[j] + r[j + 1]) / 2, 0.02, name, transform=ax.get_xaxis_transform(), rotation=90,
-                ha="center", va="bottom", fontsize=7, color=_INK)
+        ax.text((r[j] + r[j + 1]) / 2, 0.03 if hot else 0.97, name, transform=ax.get_xaxis_transform(),
+                rotation=90, ha="center", va="bottom" if hot else "top", fontsize=7, color=_INK)
     ax.plot(r, temps, color=_INK, lw=1.5, marker="o", ms=4, label="interface temperatures (solved)")
     for x, y in zip(r, temps):
         ax.annotate(f"{y:.1f}", (x, y), textcoords="offset points", xytext=(3, 5), fontsize=7)
@@ -340,7 +345,7 @@ def _draw_profile(axes, d, units):
     ax.set_xlim(r[0] - 0.02 * max(span, 1e-6), x_air)
     ax.set_xlabel(f"radius [{_lab('diameter', units)}]", fontsize=9)
     ax.set_ylabel(f"temperature [{_lab('temperature', units)}]", fontsize=9)
-    ax.legend(fontsize=7, frameon=False, loc="best")
+    ax.legend(fontsize=7, loc="best", framealpha=0.9, edgecolor="none")
     _style(ax)
 
 
