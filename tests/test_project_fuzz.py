@@ -15,6 +15,7 @@ Bounded and deterministic (``derandomize``): a few dozen files, about 20–30 s 
 from __future__ import annotations
 
 import contextlib
+import copy
 import io
 import json
 import math
@@ -127,7 +128,7 @@ def mutated(draw):
             table.pop(key, None)
         elif op == "duplicate":
             other = draw(st.sampled_from(tables))
-            other[key] = table[key]
+            other[key] = copy.deepcopy(table[key])  # a copy: never a table inside itself
         elif op == "retype":
             v = table[key]
             table[key] = (str(v) if not isinstance(v, str) else
