@@ -142,7 +142,7 @@ ALLOWED = 'give a conductivity in W/(m·K) above 0 and at most 5, e.g. "k=0.040"
 def test_lookup_material_errors(spec, message):
     with pytest.raises(InputError) as info:
         lookup_material(spec)
-    assert (info.value.name, info.value.message) == ("--layer", message)
+    assert (info.value.name, info.value.message) == ("layers", message)
 
 
 def test_wall_lookup_and_defaults():
@@ -155,7 +155,7 @@ def test_wall_lookup_and_defaults():
     with pytest.raises(InputError) as info:
         lookup_wall_material("steel")
     assert (info.value.name, info.value.message) == (
-        "--pipe-material", 'unknown pipe material "steel"; did you mean "carbon steel" or "stainless steel"?')
+        "pipe_material", 'unknown pipe material "steel"; did you mean "carbon steel" or "stainless steel"?')
 
 
 def test_list_materials():

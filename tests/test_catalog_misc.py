@@ -80,12 +80,12 @@ def test_finish_lookup():
     assert lookup_finish("aluminium, bright").key == "aluminium_bright"
     with pytest.raises(InputError) as info:
         lookup_finish("aluminum old")
-    assert info.value.name == "--finish"
+    assert info.value.name == "finish"
     assert info.value.message.startswith('unknown finish "aluminum old"; did you mean "aluminium ')
     with pytest.raises(InputError) as info:
         lookup_finish("pvc jackit")
     assert (info.value.name, info.value.message) == (
-        "--finish", 'unknown finish "pvc jackit"; did you mean "pvc jacket"?')
+        "finish", 'unknown finish "pvc jackit"; did you mean "pvc jacket"?')
     assert len(list_finishes()) == len(read_table("finishes"))
 
 
@@ -136,10 +136,10 @@ def test_series_errors():
     with pytest.raises(InputError) as info:
         thickness_series_m("mm_pipesection")
     assert (info.value.name, info.value.message) == (
-        "--series", 'unknown thickness series "mm_pipesection"; did you mean "mm_pipe_section"?')
+        "series", 'unknown thickness series "mm_pipesection"; did you mean "mm_pipe_section"?')
     with pytest.raises(InputError) as info:
         default_series("brick")
-    assert info.value.name == "--series"
+    assert info.value.name == "series"
     assert info.value.message.startswith('no thickness series for material family "brick"; families: ')
     with pytest.raises(InputError) as info:
         default_series("block", "imperial")

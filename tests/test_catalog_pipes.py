@@ -194,15 +194,15 @@ def test_lookup_schedules():
 @pytest.mark.parametrize(
     "args, name, message",
     [
-        (("NPS 7",), "--pipe", 'unknown pipe size "NPS 7"; did you mean "NPS 6" or "NPS 8"?'),
-        (("NPS 40",), "--pipe", 'unknown pipe size "NPS 40"; did you mean "NPS 36"?'),
-        (("DN 55",), "--pipe", 'unknown pipe size "DN 55"; did you mean "DN50" or "DN65"?'),
-        (("copper M 1/4",), "--pipe", 'unknown pipe size "copper M 1/4"; did you mean "copper M 3/8"?'),
-        (("copper X 1",), "--pipe", 'unknown copper tube type "X" in "copper X 1"; types: K, L, M'),
-        (("NPS 2", "60"), "--schedule",
+        (("NPS 7",), "pipe", 'unknown pipe size "NPS 7"; did you mean "NPS 6" or "NPS 8"?'),
+        (("NPS 40",), "pipe", 'unknown pipe size "NPS 40"; did you mean "NPS 36"?'),
+        (("DN 55",), "pipe", 'unknown pipe size "DN 55"; did you mean "DN50" or "DN65"?'),
+        (("copper M 1/4",), "pipe", 'unknown pipe size "copper M 1/4"; did you mean "copper M 3/8"?'),
+        (("copper X 1",), "pipe", 'unknown copper tube type "X" in "copper X 1"; types: K, L, M'),
+        (("NPS 2", "60"), "schedule",
          "NPS 2 has no schedule 60; available: 5S, 10S, 10, 30, 40, 40S, STD, 80, 80S, XS, 160, XXS"),
-        (("NPS 30", "40"), "--schedule", "NPS 30 has no schedule 40; available: 5S, 10S, 10, 20, 30, STD, XS"),
-        (("DN50", "40"), "--schedule",
+        (("NPS 30", "40"), "schedule", "NPS 30 has no schedule 40; available: 5S, 10S, 10, 20, 30, STD, XS"),
+        (("DN50", "40"), "schedule",
          'DN50 takes no schedule (schedules apply to NPS steel pipe; copper tube gives its type in the '
          'size, e.g. "copper L 3/4")'),
     ],
@@ -216,9 +216,9 @@ def test_lookup_errors(args, name, message):
 @pytest.mark.parametrize(
     "od, wall, name, message",
     [
-        (0.06, 0.03, "--wall", "0.03 m: the wall must be above 0 and below half the outside diameter (0.03 m)"),
-        (0.06, 0.0, "--wall", "0 m: the wall must be above 0 and below half the outside diameter (0.03 m)"),
-        (-0.06, 0.001, "--od", "-0.06 m: the outside diameter must be above 0"),
+        (0.06, 0.03, "wall_m", "0.03 m: the wall must be above 0 and below half the outside diameter (0.03 m)"),
+        (0.06, 0.0, "wall_m", "0 m: the wall must be above 0 and below half the outside diameter (0.03 m)"),
+        (-0.06, 0.001, "outer_diameter_m", "-0.06 m: the outside diameter must be above 0"),
     ],
 )
 def test_custom_pipe_errors(od, wall, name, message):

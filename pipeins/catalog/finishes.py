@@ -114,7 +114,7 @@ def lookup_finish(name: str) -> Finish:
     if key is not None:
         return _finishes()[key]
     names = [_norm(f.name) for f in _finishes().values()]
-    raise InputError("--finish", f'unknown finish "{str(name).strip()}"; {near_hint(wanted, names)}')
+    raise InputError("finish", f'unknown finish "{str(name).strip()}"; {near_hint(wanted, names)}')
 
 
 def list_finishes() -> list[dict]:

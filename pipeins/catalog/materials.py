@@ -153,7 +153,7 @@ def _match(spec: str, catalogue: dict) -> object | None:
     return leading[0] if len(leading) == 1 else None
 
 
-def _constant_k(spec: str, option: str = "--layer") -> InsulationMaterial:
+def _constant_k(spec: str, option: str = "layers") -> InsulationMaterial:
     text = spec.split("=", 1)[1].strip()
     allowed = (f"conductivity in W/(m·K) above 0 and at most {MAX_CONSTANT_CONDUCTIVITY_W_MK:g}, "
                'e.g. "k=0.040"')
@@ -175,7 +175,7 @@ def _constant_k(spec: str, option: str = "--layer") -> InsulationMaterial:
     )
 
 
-def lookup_material(spec: str, option: str = "--layer") -> InsulationMaterial:
+def lookup_material(spec: str, option: str = "layers") -> InsulationMaterial:
     """The insulation material named by *spec*, or a constant-conductivity layer.
 
     Parameters
@@ -233,7 +233,7 @@ def lookup_wall_material(name: str) -> WallMaterial:
     found = _match(name, _walls())
     if found is None:
         names = [item.name for item in _walls().values()]
-        raise InputError("--pipe-material", f'unknown pipe material "{str(name).strip()}"; '
+        raise InputError("pipe_material", f'unknown pipe material "{str(name).strip()}"; '
                                             f"{near_hint(_norm(name), names)}")
     return found
 
@@ -253,7 +253,7 @@ def default_wall_material(pipe_kind: str) -> WallMaterial:
     'copper'
     """
     if pipe_kind not in _DEFAULT_WALL:
-        raise InputError("--pipe", f'unknown pipe kind "{pipe_kind}"; kinds: '
+        raise InputError("pipe", f'unknown pipe kind "{pipe_kind}"; kinds: '
                                    f"{', '.join(_DEFAULT_WALL)}")
     return _walls()[_DEFAULT_WALL[pipe_kind]]
 

@@ -199,7 +199,7 @@ def _parse(text: str) -> tuple[str, str, Fraction | None] | None:
     return None
 
 
-def _unknown(text: str, name: str = "--pipe") -> InputError:
+def _unknown(text: str, name: str = "pipe") -> InputError:
     """The 'unknown pipe size' error, naming the neighbouring sizes when the catalogue is clear."""
     parsed = _parse(text)
     hint = None
@@ -216,7 +216,7 @@ def _unknown(text: str, name: str = "--pipe") -> InputError:
     return InputError(name, f'unknown pipe size "{str(text).strip()}"; {hint}')
 
 
-def _find(text: str, name: str = "--pipe") -> _Entry:
+def _find(text: str, name: str = "pipe") -> _Entry:
     parsed = _parse(text)
     if parsed is None or parsed[2] is None:
         raise _unknown(text, name)
@@ -247,12 +247,12 @@ def _make(entry: _Entry, schedule: str | None) -> PipeSize:
             key = _schedule_key(schedule)
         if key not in schedules:
             available = ", ".join(s for s in SCHEDULE_ORDER if s in schedules)
-            raise InputError("--schedule", f"{entry.label} has no schedule {key}; "
+            raise InputError("schedule", f"{entry.label} has no schedule {key}; "
                                            f"available: {available}")
         od, wall, _ = schedules[key]
         return PipeSize(entry.label, "steel", entry.nominal, key, od, wall)
     if schedule is not None:
-        raise InputError("--schedule", f"{entry.label} takes no schedule (schedules apply to NPS "
+        raise InputError("schedule", f"{entry.label} takes no schedule (schedules apply to NPS "
                                        "steel pipe; copper tube gives its type in the size, e.g. "
                                        '"copper L 3/4")')
     if entry.kind == "copper":
@@ -317,17 +317,17 @@ def custom_pipe(outer_diameter_m: float, wall_m: float) -> PipeSize:
     try:
         od = float(outer_diameter_m)
     except (TypeError, ValueError):
-        raise InputError("--od", f"{outer_diameter_m!r} is not a number; give the "
+        raise InputError("outer_diameter_m", f"{outer_diameter_m!r} is not a number; give the "
                                              "outside diameter in metres") from None
     try:
         wall = float(wall_m)
     except (TypeError, ValueError):
-        raise InputError("--wall", f"{wall_m!r} is not a number; give the wall thickness in "
+        raise InputError("wall_m", f"{wall_m!r} is not a number; give the wall thickness in "
                                    "metres") from None
     if not math.isfinite(od) or od <= 0.0:
-        raise InputError("--od", f"{od:g} m: the outside diameter must be above 0")
+        raise InputError("outer_diameter_m", f"{od:g} m: the outside diameter must be above 0")
     if not math.isfinite(wall) or wall <= 0.0 or wall >= od / 2.0:
-        raise InputError("--wall", f"{wall:g} m: the wall must be above 0 and below half the "
+        raise InputError("wall_m", f"{wall:g} m: the wall must be above 0 and below half the "
                                    f"outside diameter ({od / 2.0:g} m)")
     return PipeSize(f"OD {od * 1000:g} mm", "custom", f"{od * 1000:g} mm", None, od, wall)
 

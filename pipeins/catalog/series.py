@@ -69,7 +69,7 @@ def thickness_series_m(name: str) -> tuple[float, ...]:
     """
     key = str(name).strip().lower()
     if key not in _series():
-        raise InputError("--series", f'unknown thickness series "{str(name).strip()}"; '
+        raise InputError("series", f'unknown thickness series "{str(name).strip()}"; '
                                      f"{near_hint(key, series_names())}")
     return tuple(sorted(round(v, 9) for v in _series()[key]["values"]))
 
@@ -97,6 +97,6 @@ def default_series(family: str, units: str = "si") -> str:
     fam = "pipe_section" if family == "generic" else str(family).strip().lower()
     name = f"{_UNIT_SYSTEMS[system]}_{fam}"
     if name not in _series():
-        raise InputError("--series", f'no thickness series for material family "{family}"; '
+        raise InputError("series", f'no thickness series for material family "{family}"; '
                                      f"families: {', '.join(series_families())}")
     return name
