@@ -174,6 +174,8 @@ class Service:
     velocity_m_s: float | None = None
     inner_h_w_m2k: float | None = None
     base: str | None = None    # the service a line's overrides derive this one from
+    thickness_m: float | None = None   # a line's given thickness: checked, not sized
+    entry: str | None = None           # where a derived service comes from ("lines entry 3")
 
     @property
     def fluid_temp_c(self) -> float:
@@ -800,7 +802,7 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     if (len(r.problems) > before or sname not in services or cname not in conditions or size is None
             or "length_m" not in v):
         return None
-    sname = _line_service(services, sname, table, v, r.pos.header(p))
+    sname = _line_service(services, sname, table, v, r.pos.header(p), entry)
     cname = _line_condition(conditions, cname, table, v)
     return Line(index, tag, sname, size, v["length_m"], cname, fittings, r.pos.header(p))
 
@@ -809,7 +811,7 @@ def _written(table: dict, keys) -> str:
     return ", ".join(str(table[k]) for k in keys if k in table)
 
 
-def _line_service(services: dict, sname: str, table: dict, v: dict, file_line: int) -> str:
+def _line_service(services: dict, sname: str, table: dict, v: dict, file_line: int, entry: str) -> str:
     """The service a line is scheduled under: its own service, or one derived from it
     with the line's build-up (material, thickness, finish, emittance, pipe material)."""
     if not any(k in table for k in _LINE_SERVICE_KEYS):
@@ -820,7 +822,8 @@ def _line_service(services: dict, sname: str, table: dict, v: dict, file_line: i
         services[name] = replace(
             base, name=name, material=v.get("material", base.material), finish=v.get("finish", base.finish),
             emittance=v.get("emittance", base.emittance), pipe_material=v.get("pipe_material", base.pipe_material),
-            series=(v["thickness_m"],) if "thickness_m" in v else base.series, file_line=file_line, base=sname)
+            series=(v["thickness_m"],) if "thickness_m" in v else base.series, file_line=file_line, base=sname,
+            thickness_m=v.get("thickness_m", base.thickness_m), entry=entry)
     return name
 
 

@@ -242,12 +242,18 @@ def compute_schedule(project: Project) -> Schedule:
                     criteria_used[sname].append(text)
             warnings += [f'service "{sname}": {n}' for n in sel.notes]
             for i, size in enumerate(sizes):
+                if not out.feasible[i] and service.thickness_m is not None:
+                    problems.append(_fixed_thickness_miss(project, service, size, condition, None))
+                    continue
                 if not out.feasible[i]:
                     msg = "; ".join(out.messages[i]) or "no thickness of the series meets every criterion"
                     problems.append(f"{where}: {size.label} in {condition.name}: {msg}")
                     continue
                 key = (sname, cname, size.label)
                 pick = (float(out.selected_m[i]), tuple(out.layer_split_m[i]), out.governing[i])
+                if service.thickness_m is not None and abs(pick[0] - service.thickness_m) > 1e-9:
+                    problems.append(_fixed_thickness_miss(project, service, size, condition, pick))
+                    continue
                 if key not in chosen or pick[0] > chosen[key][0]:
                     chosen[key] = pick
             warnings += [f'service "{sname}" in {cname}: {w}' for w in dict.fromkeys(out.result.warnings)]
@@ -281,6 +287,19 @@ def compute_schedule(project: Project) -> Schedule:
 
 def _unpriced_reason(line) -> str:
     return "its heat gain is not priced: no COP" if not line.priced else "no energy price"
+
+
+def _fixed_thickness_miss(project, service, size, condition, pick) -> str:
+    """A line's given thickness that does not meet its service's criteria, in words."""
+    from .units import format_quantity
+
+    where = project.where(service.file_line, service.entry or f'service "{service.name}"', "thickness")
+    given = format_quantity(service.thickness_m, "thickness", project.units)
+    if pick is None:
+        return f"{where}: {size.label} in {condition.name}: the given thickness {given} does not meet the criteria"
+    picks = format_quantity(pick[0], "thickness", project.units)
+    return (f"{where}: {size.label} in {condition.name}: the given thickness {given} does not meet the "
+            f"{GOVERNING_LABELS.get(pick[2], pick[2])}; the sizing picks {picks}")
 
 
 def _select(project, service, condition, sizes, length):

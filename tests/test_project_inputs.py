@@ -357,3 +357,20 @@ def test_schedule_time_errors_use_the_file_words(run, tmp_path):
     assert line.startswith('Error: words.toml: line 7 (service "hot"): room: no sizing criterion applies')
     assert "touch_limit_c" not in line and "--" not in line and "{" not in line
     assert "touch_limit" in line
+
+
+def test_a_given_thickness_is_used_as_given_or_refused(run, tmp_path):
+    text = PROJECT.format(**SI).replace('criteria = ["touch"]', 'criteria = ["heat_flow"]\nmax_heat_flow = "20 W/m"')
+    path = tmp_path / "thin.toml"
+    path.write_text(text.replace('thickness = "50 mm"', 'thickness = "25 mm"'), encoding="utf-8")
+    code, out, err = run("schedule", str(path))
+    assert (code, out) == (2, "")
+    [line] = err.splitlines()
+    assert line == ("Error: thin.toml: line 20 (lines entry 1 \"R-1\"): thickness: NPS 4 in shaft (vertical, "
+                    "12 m): the given thickness 25 mm does not meet the criteria")
+    path.write_text(text.replace('thickness = "50 mm"', 'thickness = "100 mm"'), encoding="utf-8")
+    code, out, err = run("schedule", str(path), "--format", "json")
+    assert code == 0, err
+    data = json.loads(out)
+    assert data["lines"][0]["thickness_m"] == 0.1
+    assert [row["layers_mm"] for row in data["schedule"]] == [[100.0]]
