@@ -318,18 +318,29 @@ def noun(p: Param) -> str:
     return _NOUNS.get(p.name, p.help.split(" [")[0].split(",")[0].split(" (")[0])
 
 
-def allowed(p: Param) -> str:
-    """The allowed range of *p*, in words (``above 0 and at most 100 %``)."""
-    scale = 100.0 if p.kind == "fraction" else (1 / 3600 if p.kind == "time" else 1.0)
+def allowed(p: Param, units: str = "si") -> str:
+    """The allowed range of *p*, in words, in the unit system *units* (``above 0 and at
+    most 100 %``, ``from 0 to 223.7 mph``)."""
+    from .units import KINDS, to_display, unit_label
+
+    shown = lambda x: f"{x:g}"  # noqa: E731
     unit = _RANGE_UNITS.get(p.kind, "")
-    if p.kind == "time":
-        unit = " h"
+    if p.kind == "fraction":
+        shown = lambda x: f"{100 * x:g}"  # noqa: E731
+    elif p.kind == "time":
+        shown, unit = (lambda x: f"{x / 3600:g}"), " h"
+    elif p.kind in KINDS and p.kind not in ("percent", "temperature"):
+        label = unit_label(p.kind, units)
+        def shown(x):
+            v = float(to_display(x, p.kind, units))
+            return f"{v:.4g}" if abs(v) < 1e4 else f"{v:.0f}"
+        unit = f" {label}" if label else ""
     if p.low == 0.0 and p.high is None:
         return "greater than zero" if p.low_open else "zero or more"
-    low = "" if p.low is None else (f"above {p.low * scale:g}" if p.low_open else f"{p.low * scale:g} or more")
-    high = "" if p.high is None else f"at most {p.high * scale:g}"
+    low = "" if p.low is None else (f"above {shown(p.low)}" if p.low_open else f"{shown(p.low)} or more")
+    high = "" if p.high is None else f"at most {shown(p.high)}"
     if low and high and not p.low_open:
-        return f"from {p.low * scale:g} to {p.high * scale:g}{unit}"
+        return f"from {shown(p.low)} to {shown(p.high)}{unit}"
     return " and ".join(x for x in (low, high) if x) + unit
 
 
@@ -390,7 +401,7 @@ def parse_value(name: str, value, units: str = "si"):
     low_bad = p.low is not None and (si <= p.low if p.low_open else si < p.low)
     high_bad = p.high is not None and si > p.high
     if low_bad or high_bad:
-        raise InputError(name, f"{noun(p)} must be {allowed(p)}")
+        raise InputError(name, f"{noun(p)} must be {allowed(p, units)}")
     return number
 
 

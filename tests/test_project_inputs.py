@@ -374,3 +374,12 @@ def test_a_given_thickness_is_used_as_given_or_refused(run, tmp_path):
     data = json.loads(out)
     assert data["lines"][0]["thickness_m"] == 0.1
     assert [row["layers_mm"] for row in data["schedule"]] == [[100.0]]
+
+
+def test_ranges_are_stated_in_the_chosen_unit_system(run):
+    # 100 m/s = 223.7 mph; 11 000 m = 36 089 ft (international foot, 0.3048 m)
+    code, out, err = run("check", "--units", "us", "--pipe", "NPS 3", "--fluid-temp", "180", "--wind", "300mph",
+                         "--altitude", "40000ft")
+    assert (code, out) == (2, "")
+    assert err.splitlines() == ["Error: --wind: wind speed must be from 0 to 223.7 mph",
+                                "Error: --altitude: altitude must be from -1640 to 36089 ft"]
