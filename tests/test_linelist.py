@@ -226,3 +226,16 @@ def test_reader_is_a_pure_function(tmp_path):
                             "ignore": ["Notes"]}, name="list.csv")
     assert row.values == {"tag": "A1", "service": "hot", "size": "NPS 2", "length": "10 m", "condition": "room"}
     assert row.where("size") == 'list.csv: row 2, column "Size"'
+
+
+def test_a_csv_list_does_not_import_the_spreadsheet_library(tmp_path):
+    """openpyxl is imported for an XLSX list only (speed: heavy imports only when used)."""
+    import subprocess
+    import sys
+
+    (tmp_path / "l.csv").write_text(GOOD, encoding="utf-8")
+    (tmp_path / "p.toml").write_text(HEAD.format(name="l.csv", extra="", columns=""), encoding="utf-8")
+    code = ("import sys; from pipeins.project import load_project; from pipeins.schedule import compute_schedule; "
+            f"compute_schedule(load_project({str(tmp_path / 'p.toml')!r})); print('openpyxl' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=ROOT, check=True)
+    assert out.stdout.strip() == "False"
