@@ -130,7 +130,7 @@ PARAMS: tuple[Param, ...] = (
     Param("dew_margin_k", "--dew-margin", "dew_margin", _S, "temperature_difference",
           "surface margin above the dew point [K]", "1 K (common practice)", 0.0),
     Param("max_heat_flow_w_per_m", "--max-heat-flow", "max_heat_flow", _S, "heat_flow_per_length",
-          "cap on the magnitude of the heat flow [W/m]", "", 0.0, None, True),
+          "cap on the magnitude of the heat flow [W/m]", "", 0.001, None),
     Param("min_reduction", "--min-reduction", "min_reduction", _S, "fraction",
           "least reduction against the bare line [%]", "", 0.0, 1.0, True),
     Param("max_temp_change_k", "--max-temp-change", "max_temp_change", _S, "temperature_difference",
@@ -151,7 +151,7 @@ PARAMS: tuple[Param, ...] = (
     Param("efficiency", "--efficiency", "efficiency", _E, "efficiency", "heat source efficiency for heat losses "
           "(88 % or 0.88)", "1 (100 %)", 0.0, 1.0, True),
     Param("cop", "--cop", "cop", _E, "number", "chiller coefficient of performance for heat gains", "none",
-          0.0, 100.0, True),
+          0.1, 100.0),
     Param("emission", "--co2-factor", "co2", _E, "co2", "CO2 per unit of energy bought (0.20/kWh, 0.20 kg/kWh)",
           "none"),
     Param("discount_rate", "--discount-rate", "discount_rate", _E, "fraction", "discount rate per year [%]", "5 %",

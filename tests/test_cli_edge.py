@@ -115,10 +115,10 @@ def test_efficiency_spellings_agree(run):
         if "energy_j" in plain["bare"] else True
 
 
-@pytest.mark.parametrize("text", ["120%", "0", "-5%"])
+@pytest.mark.parametrize("text", ["120%", "0", "-5%", "1e-320", "0.5 %"])
 def test_efficiency_out_of_range(run, text):
     assert error_line(run, *COST, "--efficiency", text) == (
-        f'Error: --efficiency: "{text}" is out of range; an efficiency is above 0 and at most 100 % '
+        f'Error: --efficiency: "{text}" is out of range; an efficiency is from 1 % to 100 % '
         "(88 %, 88 and 0.88 all mean 88 %)")
 
 
@@ -329,3 +329,22 @@ def test_click_errors_are_one_line(run):
         "Error: No such option '--bogus'. (see pipeins check --help)")
     assert error_line(run, "check", "--pipe", "NPS 4", "--orientation", "sideways").startswith(
         "Error: Invalid value for '--orientation'")
+
+
+@pytest.mark.parametrize("args, line", [
+    pytest.param(COST + ["--cop", "1e-320"], "Error: --cop: the COP must be from 0.1 to 100", id="tiny COP"),
+    pytest.param(SIZE + ["--max-heat-flow", "1e-320"],
+                 "Error: --max-heat-flow: the heat-flow cap must be 0.001 or more", id="tiny heat-flow cap"),
+    pytest.param(HOT + ["--outer-h", "1e9"],
+                 "Error: --outer-h: outer coefficient must be from 0.1 to 10000 W/(m²·K)", id="outer-h 1e9"),
+    pytest.param(HOT + ["--inner-h", "1e-320"],
+                 "Error: --inner-h: inner film coefficient must be from 1 to 100000 W/(m²·K)", id="inner-h tiny"),
+])
+def test_physical_ranges_stated(run, args, line):
+    assert error_line(run, *args) == line
+
+
+def test_nul_in_a_path_is_one_error_line(run):
+    line = error_line(run, *COST, "--cost-table", "a\x00b")
+    assert line == ("Error: Invalid value for '--cost-table': a file name cannot hold a NUL character "
+                    "(see pipeins cost --help)")

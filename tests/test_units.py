@@ -620,7 +620,7 @@ def test_no_nan_sneaks_through():
                      '--x: cannot read "10 atm" as a steam pressure, which must say gauge or absolute; '
                      "write e.g. 10 barg (gauge) or 10 bara (absolute)", id="atm steam pressure"),
         pytest.param("150 %", "efficiency", "si",
-                     '--x: "150 %" is out of range; an efficiency is above 0 and at most 100 % '
+                     '--x: "150 %" is out of range; an efficiency is from 1 % to 100 % '
                      "(88 %, 88 and 0.88 all mean 88 %)", id="efficiency above 100 %"),
         pytest.param("1e999m", "length", "si", '--x: "1e999m" is not a finite length', id="inf length"),
         pytest.param(math.inf, "length", "si", '--x: "inf" is not a finite length', id="inf float"),

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import click
 
+from .options import Path
+
 __all__ = ["energy_options", "basis_from_options", "code_options"]
 
 ENERGY_OPTIONS = [
@@ -17,14 +19,14 @@ ENERGY_OPTIONS = [
     click.option("--years", help="Evaluation life in years (default 20)."),
     click.option("--escalation", help="Energy price rise per year (default 0%)."),
     click.option("--maintenance", help="Annual maintenance as a share of installed cost (default 0%)."),
-    click.option("--cost-table", type=click.Path(dir_okay=False),
+    click.option("--cost-table", type=Path(dir_okay=False),
                  help="CSV of installed insulation cost per metre by size and thickness (size, thickness_mm, "
                       "cost_per_m, currency)."),
 ]
 
 CODE_OPTIONS = [
     click.option("--code", help='Code-minimum rule set, e.g. "ashrae-90.1-2019" (see `pipeins list rules`).'),
-    click.option("--code-table", multiple=True, type=click.Path(dir_okay=False),
+    click.option("--code-table", multiple=True, type=Path(dir_okay=False),
                  help="Extra rule-set CSV of the same shape as the shipped ones (repeatable)."),
 ]
 

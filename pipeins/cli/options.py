@@ -11,6 +11,16 @@ import click
 __all__ = ["line_options", "output_options", "ascii_option", "plot_option", "spec_from_options", "emit", "parse_layer"]
 
 
+class Path(click.Path):
+    """``click.Path`` that refuses a NUL character with a usage error instead of the
+    ``ValueError`` ``os.stat`` raises on it."""
+
+    def convert(self, value, param, ctx):
+        if isinstance(value, str) and "\x00" in value:
+            self.fail("a file name cannot hold a NUL character", param, ctx)
+        return super().convert(value, param, ctx)
+
+
 def _opt(*names, **kw):
     return click.option(*names, **kw)
 
@@ -60,7 +70,7 @@ def ascii_option(func):
 
 
 def output_options(func):
-    func = click.option("--output", "-o", type=click.Path(),
+    func = click.option("--output", "-o", type=Path(),
                         help="Write to this file (written whole, or not at all; - for standard output).")(func)
     func = click.option("--units", type=click.Choice(["si", "us"]), default="si", show_default=True,
                         help="Default units of bare numbers and units shown.")(func)

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import click
 
-from .options import ascii_option
+from .options import Path, ascii_option
 
 
 def write_csv_folder(report, units: str, folder: str) -> None:
@@ -20,13 +20,13 @@ def write_csv_folder(report, units: str, folder: str) -> None:
 
 
 @click.command()
-@click.argument("project_file", metavar="PROJECT.toml", type=click.Path(dir_okay=False))
+@click.argument("project_file", metavar="PROJECT.toml", type=Path(dir_okay=False))
 @click.option("--format", "fmt", default="text", show_default=True,
               help="Output format: text, markdown, json (one document), html (one self-contained page), "
                    "xlsx (one workbook, needs --output) or csv (one file per table, needs --output).")
 @click.option("--units", type=click.Choice(["si", "us"]), default=None,
               help="Units shown (default: the project's unit system).")
-@click.option("--output", "-o", type=click.Path(),
+@click.option("--output", "-o", type=Path(),
               help="Write to this file (text, markdown, json) or into this folder (csv); whole or not at all.")
 @ascii_option
 def schedule(project_file, fmt, units, output):

@@ -265,7 +265,7 @@ RANGES: dict[str, tuple[float, float]] = {
     "conductivity": (-1e4, 1e4),
     "time": (-1e10, 1e10),
     "percent": (-1000.0, 1000.0),
-    "efficiency": (0.0, 1.0),  # above 0, checked when read
+    "efficiency": (0.01, 1.0),  # checked when read
     "flow": (-1e6, 1e6),
     "mass_flow": (-1e6, 1e6),
     "volume_flow": (-1e4, 1e4),

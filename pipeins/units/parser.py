@@ -312,8 +312,8 @@ def _parse_percent(number, unit, text, option, spec):
 
 def _parse_efficiency(number, unit, text, option, spec):
     value = number / 100.0 if _percent_sign(unit, text, option, spec) or number > 1.0 else number
-    if not 0.0 < value <= 1.0:
-        raise InputError(option, f'"{text}" is out of range; an efficiency is above 0 and at most 100 % '
+    if not 0.01 <= value <= 1.0:
+        raise InputError(option, f'"{text}" is out of range; an efficiency is from 1 % to 100 % '
                                  "(88 %, 88 and 0.88 all mean 88 %)")
     return value
 
