@@ -130,7 +130,7 @@ PARAMS: tuple[Param, ...] = (
     Param("dew_margin_k", "--dew-margin", "dew_margin", _S, "temperature_difference",
           "surface margin above the dew point [K]", "1 K (common practice)", 0.0),
     Param("max_heat_flow_w_per_m", "--max-heat-flow", "max_heat_flow", _S, "heat_flow_per_length",
-          "cap on the magnitude of the heat flow [W/m]", "", 0.001, None),
+          "cap on the magnitude of the heat flow [W/m]", "", 0.0, None, True),
     Param("min_reduction", "--min-reduction", "min_reduction", _S, "fraction",
           "least reduction against the bare line [%]", "", 0.0, 1.0, True),
     Param("max_temp_change_k", "--max-temp-change", "max_temp_change", _S, "temperature_difference",

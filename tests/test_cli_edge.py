@@ -334,7 +334,8 @@ def test_click_errors_are_one_line(run):
 @pytest.mark.parametrize("args, line", [
     pytest.param(COST + ["--cop", "1e-320"], "Error: --cop: the COP must be from 0.1 to 100", id="tiny COP"),
     pytest.param(SIZE + ["--max-heat-flow", "1e-320"],
-                 "Error: --max-heat-flow: the heat-flow cap must be 0.001 or more", id="tiny heat-flow cap"),
+                 'Error: --max-heat-flow: "1e-320" is out of range; a heat flow per length is zero or at least '
+                 "0.001 W/m in size", id="tiny heat-flow cap"),
     pytest.param(HOT + ["--outer-h", "1e9"],
                  "Error: --outer-h: outer coefficient must be from 0.1 to 10000 W/(m²·K)", id="outer-h 1e9"),
     pytest.param(HOT + ["--inner-h", "1e-320"],

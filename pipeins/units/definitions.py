@@ -277,6 +277,10 @@ RANGES: dict[str, tuple[float, float]] = {
 Thickness: at most 2 m (a thicker "layer" is a unit slip); temperature: absolute zero to
 2000 °C; percentages: -1000 to 1000 %."""
 
+# Smallest magnitude other than zero accepted, SI: a heat flow of 1e-320 W/m is no design value
+# and overflows the sizing search's divisions.
+FLOORS: dict[str, float] = {"heat_flow_per_length": 1e-3, "heat_flux": 1e-3}
+
 KINDS = tuple(_KINDS)
 """Every kind :func:`parse_quantity` reads."""
 

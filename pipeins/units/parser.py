@@ -13,6 +13,7 @@ import re
 from pipeins.errors import InputError, closest_names
 
 from .definitions import (
+    FLOORS,
     Flow,
     RANGES,
     _ABSOLUTE_ZERO_C,
@@ -350,6 +351,11 @@ def _check_range(value, kind, shown, option, system, spec, low, high, what):
     default_low, default_high = RANGES[kind]
     low = default_low if low is None else low
     high = default_high if high is None else high
+    floor = FLOORS.get(kind, 0.0)
+    if 0.0 < abs(value) < floor:
+        label = unit_label(kind, system)
+        raise InputError(option, f'"{shown}" is out of range; {what or f"{spec.article} {spec.noun}"} is zero or '
+                                 f"at least {_nice(to_display(floor, kind, system))} {label} in size")
     if not low <= value <= high:
         noun = what or f"{spec.article} {spec.noun}"
         raise InputError(option, f'"{shown}" is out of range; {noun} is '
