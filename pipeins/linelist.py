@@ -23,6 +23,7 @@ exactly as a TOML entry is.
 A column whose cells carry more than one unit (``50 mm`` in one row and ``2 in`` in
 another, or a bare number beside one with a unit) is refused: such a list is usually
 pasted together from two sources, and reading every cell as written would hide it.
+Spellings of one unit (``2 in`` and ``2"``) are one unit.
 
 Every problem names the file, the sheet (XLSX), the row and the column as the user sees
 them: ``line-list.xlsx: sheet "Lines" row 14, column "size": unknown pipe size …``.
@@ -157,6 +158,29 @@ def _unit_of(text: str) -> str | None:
     return re.sub(r"\s+", "", text[m.end():]).lower()
 
 
+def _same_unit(unit: str, kinds, key: str, seen: dict) -> str:
+    """The first spelling seen of the unit *unit* is (by its size in SI), else *unit*."""
+    kind = kinds.get(key) if isinstance(kinds, dict) else None
+    if not unit or kind is None:
+        return unit
+    from .units import parse_quantity
+
+    def size(u):
+        try:
+            return parse_quantity("1" + u, kind)
+        except InputError:
+            return None
+
+    mine = size(unit)
+    if mine is None:
+        return unit
+    for other in dict.fromkeys(seen.values()):
+        theirs = size(other) if other else None
+        if theirs is not None and abs(theirs - mine) <= 1e-12 * abs(mine):
+            return other
+    return unit
+
+
 def read_line_list(path, keys, columns: dict | None = None, sheet: str | None = None,
                    name: str | None = None, quantity_keys=()) -> list[Row]:
     """The rows of the line list at *path*.
@@ -173,8 +197,9 @@ def read_line_list(path, keys, columns: dict | None = None, sheet: str | None = 
         The XLSX sheet (default the first).
     name : str, optional
         The file as named in messages (default: *path* as given).
-    quantity_keys : collection of str
-        Keys whose cells carry units: a column of one of them must use one unit throughout.
+    quantity_keys : collection of str, or dict of key -> quantity kind
+        Keys whose cells carry units: a column of one of them must use one unit throughout
+        (with their kinds, spellings of one unit count as one: ``2 in`` and ``2"``).
 
     Returns
     -------
@@ -260,10 +285,12 @@ def read_line_list(path, keys, columns: dict | None = None, sheet: str | None = 
         if key not in first_col:
             continue
         units: dict[str, list[int]] = {}
+        same: dict = {}  # spelling -> the unit it is (2 in and 2" are one unit)
         for r in out:
             if key in r.values:
                 unit = _unit_of(r.values[key])
                 if unit is not None:
+                    unit = same.setdefault(unit, _same_unit(unit, quantity_keys, key, same))
                     units.setdefault(unit, []).append(r.row)
         if len(units) > 1:
             def said(unit, rows_):
@@ -316,7 +343,7 @@ def add_line_list(reader, head: dict, columns_table, raw_lines: list) -> list:
         return raw_lines
     if sheet is not None and FORMATS.get(full.suffix.lower()) != "xlsx":
         reader.problem(path_key, entry, "lines_sheet", "a sheet applies to an XLSX line list only")
-    quantity = {p.key for p in PARAMS if p.key and "lines" in p.tables and p.kind in KINDS}
+    quantity = {p.key: p.kind for p in PARAMS if p.key and "lines" in p.tables and p.kind in KINDS}
     name = str(head["lines_file"]).strip()
     try:
         rows = read_line_list(full, KEYS["lines"], columns, sheet, name, quantity)

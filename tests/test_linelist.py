@@ -239,3 +239,12 @@ def test_a_csv_list_does_not_import_the_spreadsheet_library(tmp_path):
             f"compute_schedule(load_project({str(tmp_path / 'p.toml')!r})); print('openpyxl' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=ROOT, check=True)
     assert out.stdout.strip() == "False"
+
+
+def test_spellings_of_one_unit_are_one_unit(run, tmp_path):
+    text = ('tag,service,size,length,condition\nA1,hot,NPS 2,50 ft,room\nA2,hot,NPS 2,"20 feet",room\n'
+            "A3,hot,NPS 2,15ft,room\n")
+    (tmp_path / "l.csv").write_text(text, encoding="utf-8")
+    (tmp_path / "p.toml").write_text(HEAD.format(name="l.csv", extra="", columns=""), encoding="utf-8")
+    data = _schedule_json(run, tmp_path / "p.toml")
+    assert [line["length_m"] for line in data["lines"]] == pytest.approx([15.24, 6.096, 4.572])
