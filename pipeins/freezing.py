@@ -187,6 +187,7 @@ class FreezeHold(Criterion):
     hold_time_s: float
     ice_fraction: float = 0.0
     key = "freeze"
+    own_solve = True  # its margin solves the line itself (march / quadrature), not from the shared result
     label = "freeze protection (hold time)"
 
     def __post_init__(self):

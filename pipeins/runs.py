@@ -350,6 +350,7 @@ class TempChange(Criterion):
     length_m: float
     segments: int = 4  # RK4: four segments hold the outlet to ~1e-4 K on a sizing run
     key = "temp_change"
+    own_solve = True  # its margin solves the line itself (march / quadrature), not from the shared result
     label = "temperature change along the run"
 
     def __post_init__(self):

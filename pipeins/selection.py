@@ -40,11 +40,13 @@ class Selection:
 
     def added_layers(self, index: int = 0) -> tuple[tuple[str, float], ...]:
         """The layers the selection adds over the line's own, inner to outer, for size *index*:
-        ``((material name, thickness [m]), ...)`` (the sized layer at its selected total)."""
+        ``((material name, thickness [m]), ...)`` (the sized layer at its selected total; none
+        where the pick is the bare line)."""
         out = []
         if self.inner_layer is not None and self.inner_layer[1][index] > 0:
             out.append((self.inner_layer[0].key, float(self.inner_layer[1][index])))
-        return tuple(out) + ((self.material.key, float(self.outcome.selected_m[index])),)
+        thickness = float(self.outcome.selected_m[index])
+        return tuple(out) + (((self.material.key, thickness),) if thickness > 0 else ())
 
     def interface_temp_c(self, index: int = 0) -> float:
         """Temperature [°C] at the sized layer's inner face (the interface over the layers

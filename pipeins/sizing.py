@@ -8,16 +8,24 @@ how much each passes (>= 0) or fails (< 0), in its own unit.  The search is shar
   the thickest failing grid point and the next one bracket the answer, which bisection
   narrows to 0.01 mm.  Because the grid is scanned from the thick end, a rising branch
   below the critical radius (where heat flow first grows with thickness) never passes
-  for the answer.
-* **Commercial**: the least thickness of a series from which on every thicker one passes
-  all active criteria; beyond the thickest single layer of the series, two layers whose
-  sum passes.
+  for the answer.  A criterion that fails at the thickest but passes thinner is met on an
+  interval: from its least thickness (0 when the bare line passes) up to a greatest
+  (``CriterionOutcome.most_m``), as condensation control under a sky colder than the air,
+  where radiation pulls an insulated surface below the air temperature.  The brackets of
+  every criterion and size are bisected together, one solve per step.
+* **Commercial**: the least thickness of a series that passes every criterion, from which
+  on every thicker one passes the lower bounds, and inside every interval; beyond the
+  thickest single layer of the series, two layers whose sum passes.  Where an interval
+  bounds the choice, the bare line is a candidate too, and the outcome states the bound;
+  where another criterion needs more than it allows, the size cannot be met and the
+  message says by how much.
 
 The sized layer is the outermost; fixed inner layers stay as given.
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 from typing import Sequence
 
@@ -86,6 +94,15 @@ def _in(units: str, value: float, kind: str, si_text: str) -> str:
     return si_text if units == "si" else _q(value, kind, units)
 
 
+def _thick(units: str, value_m: float, down: bool = False) -> str:
+    """A thickness for a sentence: to 0.1 mm in SI, rounded down for an upper bound (so the
+    figure said still holds)."""
+    if units == "si":
+        tenths = math.floor(value_m * 1e4 + 1e-6) if down else round(value_m * 1e4)
+        return f"{tenths / 10:.1f} mm"
+    return _q(value_m, "thickness", units)
+
+
 class Criterion:
     """Base class: ``key`` (JSON), ``label`` (reports), ``unit`` of the margin.
 
@@ -120,6 +137,25 @@ class Criterion:
 
     def state_text(self, margin: float) -> str:
         return f"margin {margin:.3g}"
+
+    def bound_text(self, least_m: float, most_m: float, selected_m: float) -> str:
+        """Where the criterion holds only up to *most_m* [m] (from *least_m*): the bound, said
+        beside a feasible pick of *selected_m* [m]."""
+        u = self.units
+        span = (f"from bare up to {_thick(u, most_m, down=True)}" if least_m <= 0 else
+                f"from {_thick(u, least_m)} up to {_thick(u, most_m, down=True)}")
+        return f"{self.label} holds {span} only; more makes it fail"
+
+    def conflict_text(self, most_m: float, need_m: float, need_label: str, series_gap: bool = False) -> str:
+        """The criterion allows at most *most_m* [m] but *need_label* needs *need_m* [m] (or, with
+        *series_gap*, no thickness of the series lies between them)."""
+        u = self.units
+        if series_gap:
+            return (f"{self.label} allows at most {_thick(u, most_m, down=True)} and {need_label} needs at "
+                    f"least {_thick(u, need_m)}: no thickness of the series lies between them; give a series "
+                    "with a thickness there")
+        return (f"{self.label} allows at most {_thick(u, most_m, down=True)} but {need_label} needs "
+                f"{_thick(u, need_m)}, {_thick(u, need_m - most_m)} more than allowed")
 
 
 @dataclass
@@ -186,6 +222,32 @@ class Condensation(Criterion):
             text += ("; surroundings colder than the air cool an insulated surface by radiation, so more "
                      "insulation does not help: a low-emittance jacket or a cover over the line may")
         return text
+
+    _SKY = ("surroundings colder than the air cool an insulated surface by radiation below the air "
+            "temperature")
+
+    def bound_text(self, least_m, most_m, selected_m):
+        u = self.units
+        most = _thick(u, most_m, down=True)
+        if selected_m <= 0:
+            return (f"no insulation is needed for condensation control: the bare surface stays above the dew "
+                    f"point plus {_in(u, self.margin_k, 'temperature_difference', f'{self.margin_k:g} K')}; "
+                    f"more than {most} would make the surface sweat under this sky ({self._SKY}): if the line "
+                    "is insulated for another reason, give it a low-emittance jacket or a cover")
+        span = "from bare" if least_m <= 0 else f"from {_thick(u, least_m)}"
+        return (f"condensation control holds {span} up to {most} only: more would make the surface sweat "
+                f"under this sky ({self._SKY}); a low-emittance jacket or a cover over the line allows more")
+
+    def conflict_text(self, most_m, need_m, need_label, series_gap=False):
+        u = self.units
+        most, need = _thick(u, most_m, down=True), _thick(u, need_m)
+        if series_gap:
+            return (f"condensation control allows at most {most} under this sky and {need_label} needs at "
+                    f"least {need}, but no thickness of the series lies between them: give a series with one "
+                    f"there, or a low-emittance jacket or a cover over the line ({self._SKY})")
+        return (f"condensation control allows at most {most} under this sky but {need_label} needs {need}, "
+                f"{_thick(u, need_m - most_m)} more than allowed: a thicker layer would make the surface sweat "
+                f"({self._SKY}); a low-emittance jacket or a cover over the line may let both be met")
 
 
 def layer_face_margins(result) -> list[tuple[object, np.ndarray, np.ndarray]]:
@@ -315,6 +377,9 @@ class CriterionOutcome:
     messages: list[str]
     commercial_m: np.ndarray | None = None
     source: str = ""
+    #: The greatest thickness at which the criterion still holds, where it is met only up to a
+    #: thickness (a surface under a sky colder than the air); inf where thicker always passes.
+    most_m: np.ndarray | None = None
 
 
 @dataclass
@@ -353,33 +418,146 @@ def _least_passing(passes, totals):
 
 
 def _margins(criteria, problem, thickness):
+    """Every criterion's margin at *thickness* (n, k), and the solved line.  Where the sized
+    layer is the only one, a zero thickness is judged on the bare line itself (the pipe's own
+    surface, :meth:`SizingProblem.bare`), as every command means by bare."""
     result = problem.solve(thickness)
-    return [np.asarray(c.margin(problem, result, thickness), dtype=float) for c in criteria], result
+    out = [np.asarray(c.margin(problem, result, thickness), dtype=float) for c in criteria]
+    zero = np.broadcast_to(np.asarray(thickness) <= 0, result.shape)
+    if not problem.fixed_layers and zero.any():
+        bare = problem.bare()
+        for j, c in enumerate(criteria):
+            if not getattr(c, "own_solve", False):
+                at_bare = np.broadcast_to(np.asarray(c.margin(problem, bare, np.zeros((problem.n_sizes, 1))),
+                                                     dtype=float), result.shape)
+                out[j] = np.where(zero, at_bare, np.broadcast_to(out[j], result.shape))
+    return out, result
 
 
-def _continuous(criterion, problem, grid, margin_on_grid):
-    """Least thickness from which on every thicker grid point passes, refined to 0.01 mm."""
-    n = problem.n_sizes
-    fails = margin_on_grid < 0
+def _brackets(passes, grid):
+    """Per row of one criterion's pass/fail on the grid: which kind of answer it has and the
+    grid brackets that the bisection narrows.
+
+    * lower bound (the thickest point passes): the least thickness from which on every
+      thicker point passes; bracket = the thickest failing point and the next one;
+    * interval (the thickest fails, some point passes, as under a sky colder than the air,
+      where insulation cools the surface): the first run of passing points from the thin
+      side, from its least thickness (0 when bare passes) up to its greatest.
+    """
+    n, k = passes.shape
+    fails = ~passes
     any_fail = fails.any(axis=1)
-    last_fail = np.where(any_fail, grid.size - 1 - np.argmax(fails[:, ::-1], axis=1), -1)
-    feasible = last_fail < grid.size - 1
-    required = np.zeros(n)
-    todo = any_fail & feasible
-    lo = np.where(todo, grid[np.clip(last_fail, 0, grid.size - 1)], 0.0)
-    hi = np.where(todo, grid[np.clip(last_fail + 1, 0, grid.size - 1)], 0.0)
-    while np.any(todo & (hi - lo > SEARCH_TOLERANCE_M)):
+    last_fail = np.where(any_fail, k - 1 - np.argmax(fails[:, ::-1], axis=1), -1)
+    lower = last_fail < k - 1                       # the thick end passes
+    interval = ~lower & passes.any(axis=1)
+    first_pass = np.argmax(passes, axis=1)
+    after = fails & (np.arange(k)[None, :] >= first_pass[:, None])
+    run_end = np.argmax(after, axis=1) - 1          # last passing point of the first run
+    low_todo = (lower & any_fail) | (interval & (first_pass > 0))
+    low_fail_i = np.where(lower, last_fail, first_pass - 1)
+    low_lo = np.where(low_todo, grid[np.clip(low_fail_i, 0, k - 1)], 0.0)
+    low_hi = np.where(low_todo, grid[np.clip(low_fail_i + 1, 0, k - 1)], 0.0)
+    up_lo = np.where(interval, grid[np.clip(run_end, 0, k - 1)], 0.0)       # passes
+    up_hi = np.where(interval, grid[np.clip(run_end + 1, 0, k - 1)], 0.0)   # fails
+    return lower, interval, low_todo, low_lo, low_hi, up_lo, up_hi
+
+
+def _continuous(criteria, problem, grid, margins_on_grid):
+    """Every criterion's continuous answer for every size, in one bracketed search.
+
+    The brackets of all criteria (least thickness and, where a criterion is met only up to
+    a thickness, its greatest) are bisected together to 0.01 mm: one solve of the line per
+    step over all of them (criteria that march or integrate over their own thickness get
+    theirs alone).  Each criterion keeps bisecting while any of its own brackets is wider
+    than the tolerance, so its answers do not depend on the other criteria asked for.
+    """
+    n, c = problem.n_sizes, len(criteria)
+    if c == 0:
+        return []
+    kinds = [_brackets(m >= 0, grid) for m in margins_on_grid]
+    lo = np.stack([np.stack([k[3], k[5]], axis=1) for k in kinds], axis=1)   # (n, c, 2)
+    hi = np.stack([np.stack([k[4], k[6]], axis=1) for k in kinds], axis=1)
+    todo = np.stack([np.stack([k[2], k[1]], axis=1) for k in kinds], axis=1)
+    # the edge of a lower bound fails below and passes above; the top of an interval passes
+    # below and fails above
+    pass_is_hi = np.zeros((n, c, 2), dtype=bool)
+    pass_is_hi[:, :, 0] = True
+    # bisection groups: per criterion, its lower-bound rows, and its interval rows
+    lower = np.stack([k[0] for k in kinds], axis=1)                          # (n, c)
+    group_new = np.broadcast_to(~lower[:, :, None], (n, c, 2))
+    own = [bool(getattr(cr, "own_solve", False)) for cr in criteria]
+    while True:
+        wide = todo & (hi - lo > SEARCH_TOLERANCE_M)
+        active_old = (wide & ~group_new).reshape(n, c * 2).any(axis=0).reshape(c, 2).any(axis=1)
+        active_new = (wide & group_new).reshape(n, c * 2).any(axis=0).reshape(c, 2).any(axis=1)
+        if not (active_old.any() or active_new.any()):
+            break
         mid = 0.5 * (lo + hi)
-        t = np.where(todo, mid, hi)[:, None]
-        margin = np.asarray(criterion.margin(problem, problem.solve(t), t), dtype=float)[:, 0]
-        passed = margin >= 0
-        hi = np.where(todo & passed, mid, hi)
-        lo = np.where(todo & ~passed, mid, lo)
-    required = np.where(todo, hi, required)
-    required = np.where(feasible, required, np.nan)
-    messages = ["" if feasible[i] else criterion.miss(float(margin_on_grid[i, -1]), float(grid[-1]))
-                for i in range(n)]
-    return CriterionOutcome(criterion.key, criterion.label, criterion.describe(criterion.units), required, feasible, messages)
+        t = np.where(todo, mid, hi)                                          # (n, c, 2)
+        shared = [j for j in range(c) if not own[j] and (active_old[j] or active_new[j])]
+        result = problem.solve(t[:, shared].reshape(n, -1)) if shared else None
+        passed = np.zeros((n, c, 2), dtype=bool)
+        for j, crit in enumerate(criteria):
+            if not (active_old[j] or active_new[j]):
+                continue
+            if own[j]:
+                m = crit.margin(problem, None, t[:, j])
+            else:
+                pos = shared.index(j)
+                flat = t[:, shared].reshape(n, -1)
+                m = np.asarray(crit.margin(problem, result, flat), dtype=float)
+                m = np.broadcast_to(m, flat.shape)[:, 2 * pos:2 * pos + 2]
+            passed[:, j] = np.asarray(m, dtype=float) >= 0
+        active = np.stack([np.where(~group_new[:, j, 0], active_old[j], active_new[j]) for j in range(c)], axis=1)
+        step = todo & active[:, :, None]
+        to_hi = passed == pass_is_hi        # the midpoint is on the hi side of the edge
+        hi = np.where(step & to_hi, mid, hi)
+        lo = np.where(step & ~to_hi, mid, lo)
+    outcomes = []
+    for j, crit in enumerate(criteria):
+        low_kind, interval = kinds[j][0], kinds[j][1]
+        feasible = low_kind | interval
+        required = np.where(todo[:, j, 0], hi[:, j, 0], 0.0)
+        required = np.where(feasible, required, np.nan)
+        most = np.where(interval, lo[:, j, 1], np.inf)
+        messages = ["" if feasible[i] else crit.miss(float(margins_on_grid[j][i, -1]), float(grid[-1]))
+                    for i in range(n)]
+        out = CriterionOutcome(crit.key, crit.label, crit.describe(crit.units), required, feasible, messages)
+        out.most_m = most
+        outcomes.append(out)
+    return outcomes
+
+
+def _from_here_on(passes):
+    """Per row, True from the least option from which on every larger one passes."""
+    return np.flip(np.logical_and.accumulate(np.flip(passes, axis=1), axis=1), axis=1)
+
+
+def _first(mask, totals):
+    """Per row, the least total where *mask* holds (nan if none)."""
+    return np.where(mask.any(axis=1), totals[np.argmax(mask, axis=1)], np.nan)
+
+
+def _bounds(outcomes, criteria, i, feasible, selected_m, option_totals):
+    """Say, for size *i*, where a criterion met only up to a thickness bounds the choice: the
+    bound itself on a feasible pick, or the conflict with what the other criteria need (set as
+    that criterion's message, which makes the size infeasible)."""
+    by_key = {c.key: c for c in criteria}
+    bounded = [o for o in outcomes if o.most_m is not None and np.isfinite(o.most_m[i]) and o.feasible[i]]
+    if not bounded:
+        return
+    tight = min(bounded, key=lambda o: o.most_m[i])
+    crit, most = by_key[tight.key], float(tight.most_m[i])
+    needs = [(float(o.required_m[i]), o) for o in outcomes if np.isfinite(o.required_m[i])]
+    need_m, need = max(needs, key=lambda x: x[0])
+    if feasible:
+        tight.messages[i] = crit.bound_text(float(tight.required_m[i]), most, selected_m)
+        return
+    if need_m > most + SEARCH_TOLERANCE_M:
+        tight.messages[i] = crit.conflict_text(most, need_m, need.label)
+    else:
+        tight.messages[i] = crit.conflict_text(most, need_m, need.label, series_gap=True)
+    tight.feasible[i] = False
 
 
 def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequence[float],
@@ -408,7 +586,7 @@ def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequen
         raise InputError("touch_limit_c", no_criterion_message(not_applicable, rh_given=True))
     margins = [m for m, d in zip(margins, dropped) if not d]
     criteria = [c for c, d in zip(criteria, dropped) if not d]
-    outcomes = [_continuous(c, problem, grid, m) for c, m in zip(criteria, margins)]
+    outcomes = _continuous(criteria, problem, grid, margins)
     outcomes += list(extra_required)
 
     # Commercial: single layers of the series, then sums of two (same material, so a
@@ -428,22 +606,32 @@ def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequen
     order = np.argsort(option_totals, kind="stable")
     options = [options[i] for i in order]
     option_totals = option_totals[order]
+    # Where a criterion is met only up to a thickness, thinner is better, down to the bare line.
+    bounded_rows = np.zeros(n, dtype=bool)
+    for o in outcomes:
+        if o.most_m is not None:
+            bounded_rows |= np.isfinite(o.most_m)
+    if bounded_rows.any():
+        options = [(0.0,)] + options
+        option_totals = np.concatenate([[0.0], option_totals])
     option_margins, _ = _margins(criteria, problem, np.broadcast_to(option_totals, (n, option_totals.size)))
     passes = np.ones((n, option_totals.size), dtype=bool)
+    if bounded_rows.any():
+        passes[:, 0] = bounded_rows
     for outcome, m in zip(outcomes, option_margins):
-        outcome.commercial_m = _least_passing(m >= 0, option_totals)
-        passes &= m >= 0
+        mask = _from_here_on(m >= 0)
+        if outcome.most_m is not None:
+            within = (m >= 0) & (option_totals[None, :] <= outcome.most_m[:, None] + SEARCH_TOLERANCE_M)
+            mask = np.where(np.isfinite(outcome.most_m)[:, None], within, mask)
+        outcome.commercial_m = _first(mask, option_totals)
+        passes &= mask
     for extra in extra_required:  # a requirement that does not apply (nan) sets no bound
         need = np.where(np.isfinite(extra.required_m), extra.required_m, 0.0)
         ok = option_totals[None, :] >= need[:, None] - 1e-9
         extra.commercial_m = _least_passing(ok, option_totals)
         passes &= ok
-    # least option from which on every thicker one passes
-    fail_any = ~passes
-    last_fail = np.where(fail_any.any(axis=1),
-                         option_totals.size - 1 - np.argmax(fail_any[:, ::-1], axis=1), -1)
-    feasible = last_fail < option_totals.size - 1
-    pick = np.clip(last_fail + 1, 0, option_totals.size - 1)
+    feasible = passes.any(axis=1)
+    pick = np.argmax(passes, axis=1)
     selected = np.where(feasible, option_totals[pick], np.nan)
     split = [options[pick[i]] if feasible[i] else () for i in range(n)]
 
@@ -451,6 +639,7 @@ def size(problem: SizingProblem, criteria: Sequence[Criterion], series_m: Sequen
     for i in range(n):
         req = [(o.required_m[i], o.key) for o in outcomes if np.isfinite(o.required_m[i])]
         governing.append(max(req)[1] if req and feasible[i] else None)
+        _bounds(outcomes, criteria, i, feasible[i], float(selected[i]), option_totals)
         msgs = [o.messages[i] for o in outcomes if o.messages[i]]
         if not feasible[i] and not msgs:
             msgs.append(f"no thickness up to {1000 * option_totals[-1]:.0f} mm meets every criterion")
