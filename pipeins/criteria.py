@@ -37,6 +37,8 @@ class Requirements:
     max_temp_change_k: float | None = None
     hold_time_s: float | None = None
     ice_fraction: float = 0.0
+    tracer_output_w_per_m: float | None = None
+    safety_factor_percent: float | None = None
 
 
 def touch_limit_for(req: Requirements, surface_kind: str) -> tuple[float, str]:
@@ -140,6 +142,10 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
             notes.append(freeze_not_applicable(units))
         else:
             criteria.append(FreezeHold(req.hold_time_s, req.ice_fraction))
+    if req.tracer_output_w_per_m is not None:
+        from .tracing import tracer_criterion
+
+        criteria.append(tracer_criterion(req, fluid_cold, float(np.max(air))))
     return criteria, notes
 
 

@@ -139,6 +139,10 @@ PARAMS: tuple[Param, ...] = (
           "", 0.0, None, True),
     Param("ice_fraction", "--ice-fraction", "ice_fraction", _S, "fraction", "with hold_time: the ice fraction "
           "allowed to form [%]", "0 %", 0.0, 1.0),
+    Param("tracer_output_w_per_m", "--tracer-output", None, (), "heat_flow_per_length",
+          "a heat tracer's output at the maintain temperature [W/m]", "", 0.0, None, True),
+    Param("safety_factor_percent", "--safety-factor", None, (), "percent",
+          "safety factor on the heat loss a tracer makes up [%]", "20 %", 0.0, 100.0),
     Param("code", "--code", "code", ("project", "services"), "text", "code-minimum rule set "
           "(see `pipeins list rules`)", "none"),
     Param("code_table", "--code-table", "code_tables", ("project",), "path", "extra rule-set CSV files", "none"),
@@ -185,6 +189,10 @@ CLI_ONLY = {
     "--profile": "an operating profile of one line; a project service runs at one temperature",
     "--plot": "an extra chart file beside one command's output; the schedule's formats carry their charts",
     "--ascii": "how the console draws one command's text output (plain ASCII rules); not part of a project",
+    "--tracer-output": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
+    "--safety-factor": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
+    "--maintain-temp": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
+    "--min-ambient": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
 }
 #: Project-file keys with no command-line option, and why.
 FILE_ONLY = {
@@ -438,7 +446,8 @@ LINE_PARAMS = ("pipe", "schedule", "outer_diameter_m", "wall_m", "pipe_material"
                "altitude_m", "finish", "emittance", "outer_h_w_m2k", "touch_limit_c", "length_m")
 #: Parameters of the sizing requirements (:class:`pipeins.criteria.Requirements`).
 REQUIREMENT_PARAMS = ("touch", "touch_limit_c", "contact_time_s", "dew_margin_k", "max_heat_flow_w_per_m",
-                      "min_reduction", "max_temp_change_k", "hold_time_s", "ice_fraction")
+                      "min_reduction", "max_temp_change_k", "hold_time_s", "ice_fraction",
+                      "tracer_output_w_per_m", "safety_factor_percent")
 
 
 def values_from_options(opts: dict, names) -> dict:

@@ -4,11 +4,13 @@ from __future__ import annotations
 
 import click
 
+from .field_options import add_field_sections, field_options, pop_field_options
 from .options import emit, line_options, output_options, plot_option, spec_from_options
 
 
 @click.command()
 @line_options
+@field_options
 @output_options
 @plot_option
 def check(fmt, units, output, **opts):
@@ -31,9 +33,11 @@ def check(fmt, units, output, **opts):
     from ..reports.check import check_report
     from ..runs import run_extras
 
+    field = pop_field_options(opts)
     spec = spec_from_options(opts, units)
     result = spec.solve()
     rows, data, warnings = run_extras(spec, result, units)
     report = check_report(spec, result, units, rows, data, warnings)
     report.charts = check_charts(spec, result)
+    add_field_sections(report, spec, field, units)
     emit(report, fmt, units, output)

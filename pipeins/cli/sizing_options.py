@@ -23,6 +23,10 @@ SIZING_OPTIONS = [
     click.option("--max-temp-change", help="Cap on the fluid temperature change over --length at --flow."),
     click.option("--hold-time", help="Still water must stay above 0 °C this long, e.g. 8h."),
     click.option("--ice-fraction", help="With --hold-time: the ice fraction allowed to form (default 0)."),
+    click.option("--tracer-output", help="Heat tracing: the tracer's output, e.g. 15W/m; the line's fluid "
+                                         "temperature is the maintain temperature, its air the minimum ambient."),
+    click.option("--safety-factor", help="With --tracer-output: safety factor on the heat loss, percent "
+                                         "(default 20 %)."),
 ]
 
 

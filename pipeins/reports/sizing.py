@@ -16,6 +16,7 @@ CRITERION_OPTIONS = {
     "heat_flow": "--max-heat-flow",
     "temp_change": "--max-temp-change",
     "freeze": "--hold-time",
+    "tracer": "--tracer-output",
     "economic": "--energy-price",
     "code": "--code",
     "service_limit": "--material",
