@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import io
 import json
+import re
 from pathlib import Path
 
 import pytest
@@ -89,6 +90,21 @@ def test_cells_equal_json(example, sheet, key, columns):
                 assert cell == pytest.approx(to_display(value * to_si, column.kind, "si"), rel=1e-6, abs=1e-6)
             compared += 1
     assert compared >= 2 * len(records)
+
+
+def test_schedule_text_cells_equal_json(example):
+    """The text cells of the schedule sheet: the size band spans the JSON sizes, the layers
+    are the JSON layers, the governing requirement is the JSON key in words."""
+    from pipeins.schedule import GOVERNING_LABELS
+
+    _, book, data = example
+    heads, body = _rows(book["Insulation schedule"])
+    col = {h.split(" [")[0]: i for i, h in enumerate(heads)}
+    for row, record in zip(body, data["schedule"]):
+        assert row[col["sizes"]].startswith(record["sizes"][0]) and row[col["sizes"]].endswith(record["sizes"][-1])
+        shown = [float(x) for x in re.findall(r"([\d.]+) mm", row[col["layers"]])]
+        assert shown == pytest.approx(record["layers_mm"], abs=0.5)
+        assert row[col["governing requirement"]] == GOVERNING_LABELS.get(record["governing"], "–")
 
 
 def test_totals_numbers_are_numbers(example):
