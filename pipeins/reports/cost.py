@@ -15,7 +15,17 @@ import numpy as np
 from . import Column, Report, Table
 from .cautions import cautions_for
 
-__all__ = ["cost_report"]
+__all__ = ["cost_report", "per_energy_text"]
+
+#: Energy unit prices and emission factors are shown per: kWh in SI, MMBtu (10^6 Btu, IT) in US units.
+_ENERGY_UNIT = {"si": ("kWh", 3.6e6), "us": ("MMBtu", 1.05505585262e9)}
+
+
+def per_energy_text(value_per_j: float, units: str, what: str = "") -> str:
+    """A price or emission factor per joule as text per kWh (SI) or per MMBtu (US), e.g.
+    ``per_energy_text(2.5e-8, "si", "EUR")`` → ``"0.09 EUR/kWh"``."""
+    unit, joules = _ENERGY_UNIT[units]
+    return f"{value_per_j * joules:.4g} {what + '/' if what else 'per '}{unit}"
 
 _DUTY_WORDS = {"heating": ("heat loss", "heating"), "cooling": ("heat gain", "cooling")}
 
@@ -50,7 +60,6 @@ def cost_report(study, units: str = "si") -> Report:
 
     basis = study.basis
     cur = basis.price.currency if basis.price is not None else ""
-    per = f"{cur}/" if cur else "per "
     duties = _duties(study)
     bare, ins = study.bare, study.insulated
     ins_get = (lambda *keys: None) if ins is None else (lambda *keys: _dig(ins, keys))
@@ -65,7 +74,7 @@ def cost_report(study, units: str = "si") -> Report:
         cols.append(Column(f"{word}, over the run", unit=unit_label("power", units), digits=digits_q, grouped=True))
         columns.append(over)
         e_b, e_i = bare[duty]["energy_j"], ins_get(duty, "energy_j")
-        e_digits = 0
+        e_digits = 0 if units == "si" else 1
         cols.append(Column(f"{money_word} energy per year", unit=unit_label("energy", units), digits=e_digits,
                            grouped=True))
         columns.append(_rounded(to_display(e_b, "energy", units),
@@ -161,8 +170,8 @@ def cost_report(study, units: str = "si") -> Report:
     if "cooling" in duties:
         source.append(f"heat gains through a chiller COP of {basis.cop:g}")
     footer = [footer_hours + "; " + ", ".join(source)
-              + (f"; energy {basis.price.price_per_unit:g} {per}{basis.price.unit}" if basis.price else "")
-              + (f"; CO2 {basis.emission.kg_co2_per_unit:g} kg/{basis.emission.unit}" if basis.emission else ""),
+              + (f"; energy {per_energy_text(basis.price.price_per_j, units, cur)}" if basis.price else "")
+              + (f"; CO2 {per_energy_text(basis.emission.kg_per_j, units, 'kg')}" if basis.emission else ""),
               f"bare line: {study.bare_surface.name}, emittance {float(np.asarray(study.bare_surface.emittance)):.2f}, "
               "no insulation",
               "energy, price and emission inputs are the user's; demo values in examples/ are invented"]

@@ -16,6 +16,7 @@ with ``saving = bare − insulated`` of its own numbers.
 from __future__ import annotations
 
 from . import Column, Report, Table
+from .cost import per_energy_text
 from .sizing import layers_text
 
 __all__ = ["schedule_report", "csv_files", "CSV_NAMES"]
@@ -99,25 +100,34 @@ def _energy_text(e, cur, units):
     parts = [f"{e.hours_per_year:g} h/year", f"efficiency {e.efficiency:g}"]
     parts.append(f"COP {e.cop:g}" if e.cop is not None else "no COP")
     if e.price is not None:
-        parts.append(f"price {e.price.price_per_unit:g} {cur + '/' if cur else 'per '}{e.price.unit}")
+        parts.append(f"price {per_energy_text(e.price.price_per_j, units, cur)}")
     if e.co2 is not None:
-        parts.append(f"CO2 {e.co2.kg_co2_per_unit:g} kg/{e.co2.unit}")
+        parts.append(f"CO2 {per_energy_text(e.co2.kg_per_j, units, 'kg')}")
     parts.append(f"{100 * e.discount_rate:g} % over {e.years:g} years"
                  + (f", price rising {100 * e.escalation:g} %/year" if e.escalation else ""))
     return "; ".join(parts)
 
 
-def _code_text(project, name):
-    if name is None:
-        return None
+def _rule_set(project, name):
     from ..codes import load_rule_sets
 
     try:
-        rule_set = load_rule_sets(project.code_paths)[name]
+        return load_rule_sets(project.code_paths)[name]
     except Exception:  # the schedule already ran with it; a listing problem must not hide the report
+        return None
+
+
+def _code_text(project, name, full: bool = False):
+    """The rule set's name (its edition in the name) and table; with *full* its sources too."""
+    if name is None:
+        return None
+    rule_set = _rule_set(project, name)
+    if rule_set is None:
         return name
+    if not full:
+        return f"{name} ({rule_set.origin})"
     sources = "; ".join(dict.fromkeys(r.source for r in rule_set.rows))
-    return f"{name} ({rule_set.origin}; {sources})"
+    return f"{name} ({rule_set.origin}): {sources}"
 
 
 def _basis_tables(schedule, units, cur):
@@ -161,7 +171,7 @@ def _basis_data(schedule):
             "fluid_temp_c": s.fluid_temp_c, "steam_pressure_pa": s.steam_pressure_pa,
             "material": s.material, "finish": s.finish, "criteria": list(s.criteria),
             "code": s.code if "code" in s.criteria else None,
-            "code_basis": _code_text(project, s.code) if "code" in s.criteria else None,
+            "code_basis": _code_text(project, s.code, full=True) if "code" in s.criteria else None,
             "energy": {"hours_per_year": e.hours_per_year, "efficiency": e.efficiency, "cop": e.cop,
                        "price_per_unit": None if e.price is None else e.price.price_per_unit,
                        "price_unit": None if e.price is None else e.price.unit,
@@ -213,6 +223,8 @@ def schedule_report(schedule, units: str = "si") -> Report:
     footer = [f"units: {units}; currency: {cur or '–'}"]
     bare = sorted({f"{l.bare_surface}, emittance {l.bare_emittance:.2f}" for l in schedule.lines})
     footer.append("bare line: " + "; ".join(bare) + " (no insulation, bare fittings as bare pipe)")
+    codes = dict.fromkeys(s.code for s in project.services.values() if s.code and "code" in s.criteria)
+    footer += [f"code rule set {_code_text(project, name, full=True)}" for name in codes]
     for service, texts in schedule.criteria_used.items():
         footer.append(f"{service}: " + "; ".join(texts))
     data = {
