@@ -788,7 +788,7 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     cvals, corigin = condition_values.get(cname, ({}, {}))
     svals, sorigin = service_values.get(sname, ({}, {}))
     merged = {**cvals, **{k: x for k, x in svals.items() if k not in ("fluid_temp_c", "steam_pressure_pa")}, **v}
-    already = set(check_line(cvals)) | set(check_line(svals))
+    already = _reported(r, sname, cname, cvals, svals)
     r.cross_check(merged, {**corigin, **sorigin, **origin}, (p, entry, None), skip=already)
     fittings = {}
     for key, kind in _FITTINGS.items():
@@ -805,6 +805,16 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     sname = _line_service(services, sname, table, v, r.pos.header(p), entry)
     cname = _line_condition(conditions, cname, table, v)
     return Line(index, tag, sname, size, v["length_m"], cname, fittings, r.pos.header(p))
+
+
+def _reported(r: _Reader, sname, cname, cvals: dict, svals: dict) -> set:
+    """The problems of a line's location and service on their own (reported with them), once
+    per pair."""
+    memo = r.__dict__.setdefault("_reported", {})
+    key = (sname, cname)
+    if key not in memo:
+        memo[key] = set(check_line(cvals)) | set(check_line(svals))
+    return memo[key]
 
 
 def _written(table: dict, keys) -> str:
