@@ -63,7 +63,8 @@ class SweepResult:
     ``heat_flow_w_per_m`` and ``surface_temp_c`` are those of the line's own build-up.
     With a material: ``criteria`` lists (key, label, description) of every criterion that
     took part somewhere; ``required_m[key]`` its least thickness per value (nan where it
-    cannot be met, 0 where the line meets it bare); ``selected_m``, ``governing`` (None
+    cannot be met, 0 where the line meets it bare, nan and ``criterion_feasible[key]`` True
+    where it sets no thickness, e.g. the service-temperature check); ``selected_m``, ``governing`` (None
     where every criterion is met bare and the pick is the series' least),
     ``feasible``, ``selected_heat_flow_w_per_m`` and ``selected_surface_temp_c`` the pick and
     the line at the pick; ``messages[i]`` the messages of value *i*.  ``notes`` are the
@@ -80,6 +81,7 @@ class SweepResult:
     criteria: list = field(default_factory=list)
     required_m: dict = field(default_factory=dict)
     commercial_m: dict = field(default_factory=dict)
+    criterion_feasible: dict = field(default_factory=dict)
     selected_m: np.ndarray | None = None
     governing: list = field(default_factory=list)
     feasible: np.ndarray | None = None
@@ -220,6 +222,7 @@ def _size(out: SweepResult, spec, variable, values, material, requirements, seri
     out.criteria = list(seen.values())
     out.required_m = {k: np.zeros(n) for k in seen}
     out.commercial_m = {k: np.zeros(n) for k in seen}
+    out.criterion_feasible = {k: np.ones(n, dtype=bool) for k in seen}
     out.selected_m = np.empty(n)
     out.feasible = np.empty(n, dtype=bool)
     out.selected_heat_flow_w_per_m = np.empty(n)
@@ -229,6 +232,7 @@ def _size(out: SweepResult, spec, variable, values, material, requirements, seri
         o = s.outcome
         for c in o.criteria:
             out.required_m[c.key][i] = c.required_m[j]
+            out.criterion_feasible[c.key][i] = bool(c.feasible[j])
             out.commercial_m[c.key][i] = c.commercial_m[j] if c.commercial_m is not None else np.nan
         out.selected_m[i] = o.selected_m[j]
         out.feasible[i] = bool(o.feasible[j])

@@ -209,3 +209,17 @@ def test_k_factor_needs_insulation(run):
 def test_a_unit_on_one_end_applies_to_the_other(run):
     data = _json(run, "sweep", "--vary", "wind=0..22.36936mph:2", *HOT, "--layer", "mineral wool:50mm")
     assert data["values"] == pytest.approx([0.0, 10.0], abs=1e-3)
+
+
+def test_a_criterion_that_sets_no_thickness_stays_out_of_the_table(run):
+    args = ("sweep", "--vary", "wind=0..20:3", "--pipe", "NPS 2", "--fluid-temp", "150C", "--material",
+            "mineral wool")
+    data = _json(run, *args)
+    keys = [c["key"] for c in data["criteria"]]
+    code, out, _ = run(*args, "--format", "csv")
+    head = out.splitlines()[0]
+    assert "least for touch safety [mm]" in head
+    for c in data["criteria"]:
+        if all(r["required_thickness_mm"][c["key"]] is None for r in data["rows"]):
+            assert f"least for {c['label']}" not in head
+    assert "surface_temp" in keys

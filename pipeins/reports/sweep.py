@@ -146,8 +146,11 @@ def sweep_report(result, units: str = "si", range_text: str = "") -> Report:
     columns = [Column(words, kind)] + [Column(f"{h} of the build-up", "heat_flow_per_length") for h, _ in q_cols]
     columns.append(Column("surface of the build-up", "temperature"))
     sel_cols = []
+    # table columns: the criteria that ask for a thickness somewhere (JSON keeps every one)
+    shown = [(k, label, d) for k, label, d in result.criteria
+             if np.any(np.isfinite(result.required_m[k])) or not np.all(result.criterion_feasible.get(k, True))]
     if sized:
-        columns += [Column(f"least for {label}", "thickness", 1) for _, label, _ in result.criteria]
+        columns += [Column(f"least for {label}", "thickness", 1) for _, label, _ in shown]
         columns += [Column("selected", "thickness"), Column("governing")]
         sel_cols = _flow_columns(np.where(result.feasible, result.selected_heat_flow_w_per_m, 0.0))
         columns += [Column(f"{h} at the selection", "heat_flow_per_length") for h, _ in sel_cols]
@@ -160,7 +163,7 @@ def sweep_report(result, units: str = "si", range_text: str = "") -> Report:
         entry = {"value": value, "heat_flow_w_per_m": q, "surface_temp_c": ts}
         if sized:
             ok = bool(result.feasible[i])
-            row += [result.required_m[key][i] for key, _, _ in result.criteria]
+            row += [result.required_m[key][i] for key, _, _ in shown]
             row += [result.selected_m[i] if ok else None,
                     labels.get(result.governing[i], "none (met bare)") if ok else "cannot be met"]
             qs = float(result.selected_heat_flow_w_per_m[i])
