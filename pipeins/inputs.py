@@ -193,6 +193,10 @@ CLI_ONLY = {
     "--safety-factor": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
     "--maintain-temp": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
     "--min-ambient": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
+    "--buried": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
+    "--soil-k": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
+    "--soil": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
+    "--ground-temp": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
 }
 #: Project-file keys with no command-line option, and why.
 FILE_ONLY = {

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import click
 
-from .field_options import add_field_sections, field_options, pop_field_options
+from .field_options import add_field_sections, field_line, field_options, pop_field_options
 from .options import emit, line_options, output_options, plot_option, spec_from_options
 
 
@@ -34,7 +34,7 @@ def check(fmt, units, output, **opts):
     from ..runs import run_extras
 
     field = pop_field_options(opts)
-    spec = spec_from_options(opts, units)
+    spec = field_line(spec_from_options(opts, units), field, units)
     result = spec.solve()
     rows, data, warnings = run_extras(spec, result, units)
     report = check_report(spec, result, units, rows, data, warnings)

@@ -1,9 +1,10 @@
-"""Field-condition options of ``check``: heat tracing (more to come: buried lines, fittings,
-user materials).
+"""Field-condition options of ``check``: heat tracing and buried lines (more to come:
+fittings, user materials).
 
 :func:`field_options` adds the options; :func:`pop_field_options` takes their text out of
-the command's options before the line is built; :func:`add_field_sections` solves what
-they ask for and adds its sections to the check report.  Every problem is an
+the command's options before the line is built; :func:`field_line` turns the line into the
+one solved (buried in soil); :func:`add_field_sections` solves what they ask for and adds
+its sections to the check report.  Every problem is an
 :class:`~pipeins.errors.InputError` naming the flag, raised before anything is written.
 """
 
@@ -11,7 +12,7 @@ from __future__ import annotations
 
 import click
 
-__all__ = ["field_options", "pop_field_options", "add_field_sections", "FIELD_FLAGS"]
+__all__ = ["field_options", "pop_field_options", "field_line", "add_field_sections", "FIELD_FLAGS"]
 
 FIELD_OPTIONS = [
     click.option("--maintain-temp", help="Heat tracing: the temperature the tracer must hold, e.g. 5C; "
@@ -21,9 +22,19 @@ FIELD_OPTIONS = [
                                          "(default 20 %, common practice after IEEE 515 / IEC/IEEE 60079-30-2)."),
     click.option("--tracer-output", help="Heat tracing: the tracer's output at the maintain temperature, "
                                          "e.g. 15W/m, compared with the design heat loss."),
+    click.option("--buried", help="Buried line: depth of the pipe centre below the ground surface, e.g. 0.8m; "
+                                  "the soil replaces the air film and radiation."),
+    click.option("--soil-k", help="Buried line: soil conductivity, W/(m·K) (0.1 to 5)."),
+    click.option("--soil", help='Buried line: soil type instead of --soil-k, e.g. "moist sand" '
+                                "(tables/soils.csv)."),
+    click.option("--ground-temp", help="Buried line: ground surface temperature, e.g. 8C."),
 ]
 #: click destinations of the options above.
-FIELD_FLAGS = ("maintain_temp", "min_ambient", "safety_factor", "tracer_output")
+FIELD_FLAGS = ("maintain_temp", "min_ambient", "safety_factor", "tracer_output", "buried", "soil_k", "soil",
+               "ground_temp")
+_WORDS = {"maintain_temp_c": "--maintain-temp", "safety_factor_percent": "--safety-factor",
+          "tracer_output_w_per_m": "--tracer-output", "depth_m": "--buried", "soil_k_w_mk": "--soil-k",
+          "soil": "--soil", "outer_h_w_m2k": "--outer-h"}
 
 
 def field_options(func):
@@ -41,14 +52,71 @@ def _flag(name: str) -> str:
     return "--" + name.replace("_", "-")
 
 
-def add_field_sections(report, spec, field: dict, units: str) -> None:
-    """Solve what the field options ask for and add the sections (and JSON keys) to *report*."""
-    from ..errors import InputError
+def _reader(field: dict, units: str):
     from ..units import parse_quantity
 
     def q(name, kind):
         text = field.get(name)
         return None if text is None else parse_quantity(text, kind, _flag(name), units)
+
+    return q
+
+
+def _in_words(exc):
+    """*exc* (an InputError naming a library parameter) named by its flag."""
+    from ..errors import InputError
+
+    if exc.name in _WORDS:
+        return InputError(_WORDS[exc.name], exc.message)
+    return exc
+
+
+def field_line(spec, field: dict, units: str):
+    """The line to solve: *spec*, or *spec* buried in soil with ``--buried`` (the buried
+    line's particulars are kept in *field* under ``"_buried"`` for its section)."""
+    from ..errors import InputError
+
+    q = _reader(field, units)
+    depth = q("buried", "length")
+    given = [n for n in ("soil_k", "soil", "ground_temp") if field.get(n) is not None]
+    if depth is None:
+        if given:
+            raise InputError(_flag(given[0]), "is a buried-line input: give --buried DEPTH too")
+        return spec
+    k = q("soil_k", "conductivity") if field.get("soil_k") is not None else None
+    if (k is None) == (field.get("soil") is None):
+        raise InputError("--soil-k", "a buried line needs the soil: give --soil-k or --soil, one of them")
+    ground = q("ground_temp", "temperature")
+    if ground is None:
+        raise InputError("--ground-temp", "a buried line needs the ground surface temperature")
+    from ..buried import buried_spec, lookup_soil
+
+    try:
+        soil = lookup_soil(field["soil"]) if field.get("soil") is not None else None
+        k = soil.conductivity_w_mk if soil is not None else k
+        buried, diameter, s, r, h = buried_spec(spec, depth, k, ground)
+    except InputError as exc:
+        raise _in_words(exc) from None
+    field["_buried"] = dict(depth_m=depth, soil_name=soil.name if soil else "given", soil_k_w_mk=k,
+                            soil_source=soil.source if soil else "given", ground_temp_c=ground,
+                            casing_diameter_m=diameter, shape_factor_per_m=s, soil_resistance_mk_w=r,
+                            soil_coefficient_w_m2k=h)
+    return buried
+
+
+def add_field_sections(report, spec, field: dict, units: str) -> None:
+    """Solve what the field options ask for and add the sections (and JSON keys) to *report*."""
+    from ..errors import InputError
+
+    q = _reader(field, units)
+    if field.get("_buried") is not None:
+        from ..reports.field import buried_table
+
+        data = dict(field["_buried"])
+        data["heat_flow_w_per_m"] = float(report.data["heat_flow_w_per_m"])
+        data["casing_temp_c"] = float(report.data["surface_temp_c"])
+        report.tables.append(buried_table(data, units))
+        report.data["buried"] = data
 
     maintain = q("maintain_temp", "temperature")
     others = [n for n in ("min_ambient", "safety_factor", "tracer_output") if field.get(n) is not None]
@@ -60,8 +128,7 @@ def add_field_sections(report, spec, field: dict, units: str) -> None:
 
     sf = q("safety_factor", "percent")
     output = q("tracer_output", "heat_flow_per_length")
-    words = {"maintain_temp_c": "--maintain-temp", "safety_factor_percent": "--safety-factor",
-             "tracer_output_w_per_m": "--tracer-output"}
+    words = _WORDS
     try:
         design = design_heat_loss(spec, maintain, DEFAULT_SAFETY_FACTOR_PERCENT if sf is None else sf,
                                   min_ambient_c=q("min_ambient", "temperature"), tracer_output_w_per_m=output)

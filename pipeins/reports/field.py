@@ -6,7 +6,7 @@ from __future__ import annotations
 
 from . import Column, Table
 
-__all__ = ["tracing_table"]
+__all__ = ["tracing_table", "buried_table"]
 
 
 def _rows_table(title: str, rows, note: str = "") -> Table:
@@ -41,3 +41,27 @@ def tracing_table(design, units: str) -> Table:
             "temperature (no inner film). Select and install the tracer to its maker's rules and the "
             "electrical codes that apply; this is not a tracer design.")
     return _rows_table("Heat tracing", rows, note)
+
+
+def buried_table(data: dict, units: str) -> Table:
+    """The buried-line section (the dict of ``check``'s JSON key ``buried``)."""
+    from ..units import format_quantity as fq
+
+    soil = data["soil_name"]
+    rows = [
+        ["depth to the pipe centre", fq(data["depth_m"], "length", units)],
+        ["casing outside diameter", fq(data["casing_diameter_m"], "diameter", units)],
+        ["soil", f"{soil}, k = {fq(data['soil_k_w_mk'], 'conductivity', units)}"
+                 + ("" if soil == "given" else f" ({data['soil_source']})")],
+        ["ground surface temperature", fq(data["ground_temp_c"], "temperature", units)],
+        ["shape factor per metre, 2π/acosh(2z/D)", f"{data['shape_factor_per_m']:.4f}"],
+        ["soil resistance", f"{data['soil_resistance_mk_w']:.4f} m·K/W"],
+        ["heat flow", fq(data["heat_flow_w_per_m"], "heat_flow_per_length", units)],
+        ["casing surface temperature", fq(data["casing_temp_c"], "temperature", units)],
+    ]
+    note = ("The soil is a resistance acosh(2z/D)/(2π·k) in series with the insulation, to an isothermal ground "
+            "surface (cylinder in a semi-infinite medium, Incropera et al., Table 4.1); the Results above hold it "
+            "as a fixed outer coefficient to the ground temperature (no air film, no radiation). Single pipe only: "
+            "twin pipes and neighbouring lines are not modelled. Soil conductivity varies with moisture: use a "
+            "site survey where the heat flow matters.")
+    return _rows_table("Buried line", rows, note)

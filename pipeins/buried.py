@@ -1,0 +1,166 @@
+"""Buried pipes: a single insulated pipe in soil, the soil as an outer resistance to the
+ground surface temperature.
+
+An isothermal cylinder of diameter D whose centre lies at depth z below an isothermal
+ground surface (a semi-infinite medium of conductivity k_s) conducts, per metre,
+
+    q = S · k_s · (T_casing − T_ground),   S = 2π / acosh(2z/D)    [per metre]
+
+(the conduction shape factor of a cylinder parallel to a plane surface: Incropera et al.,
+Fundamentals of Heat and Mass Transfer, Table 4.1, case 1; the same as
+``ht.conduction.S_isothermal_pipe_to_plane``).  The soil is thus a resistance
+R_s = acosh(2z/D) / (2π k_s) [m·K/W] in series with the pipe wall and the insulation.  It
+is solved by the ordinary solver as a fixed outer coefficient h = 1 / (R_s · π D) to the
+ground temperature (no air film, no radiation), so every layer keeps its k(T).
+
+Twin pipes (supply and return side by side or in one casing) and their mutual influence
+are not covered here.
+"""
+
+from __future__ import annotations
+
+import functools
+import math
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from .errors import InputError, closest_names
+from .tables import read_table
+
+__all__ = ["Soil", "lookup_soil", "list_soils", "shape_factor_per_m", "soil_resistance_mk_w",
+           "BuriedLine", "buried_spec", "solve_buried", "SOIL_K_RANGE_W_MK"]
+
+#: The soil conductivities taken as physical [W/(m·K)]: dry sand to saturated rock.
+SOIL_K_RANGE_W_MK = (0.1, 5.0)
+
+
+@dataclass(frozen=True)
+class Soil:
+    """A soil type of ``tables/soils.csv``: conductivity used and the source's range [W/(m·K)]."""
+
+    key: str
+    name: str
+    conductivity_w_mk: float
+    conductivity_low_w_mk: float
+    conductivity_high_w_mk: float
+    source: str
+
+
+@functools.cache
+def _soils() -> dict[str, Soil]:
+    return {r["key"]: Soil(r["key"], r["name"], float(r["conductivity_w_mk"]), float(r["conductivity_low_w_mk"]),
+                           float(r["conductivity_high_w_mk"]), r["source"]) for r in read_table("soils")}
+
+
+def list_soils() -> list[Soil]:
+    """Every soil type of the table."""
+    return list(_soils().values())
+
+
+def _norm(text: str) -> str:
+    return " ".join(text.lower().replace("_", " ").replace("-", " ").replace(",", " ").split())
+
+
+def lookup_soil(name: str) -> Soil:
+    """The soil type named *name* (its key or name, case and punctuation ignored).
+
+    >>> lookup_soil("moist sand").conductivity_w_mk
+    1.5
+    """
+    wanted = _norm(name)
+    for soil in _soils().values():
+        if wanted in (_norm(soil.key), _norm(soil.name)):
+            return soil
+    names = [s.key.replace("_", " ") for s in _soils().values()]
+    raise InputError("soil", f'unknown soil "{name}"; {closest_names(name, names)}')
+
+
+def check_soil_k(k_w_mk: float) -> float:
+    low, high = SOIL_K_RANGE_W_MK
+    if not (np.isfinite(k_w_mk) and low <= k_w_mk <= high):
+        raise InputError("soil_k_w_mk", f"the soil conductivity must be from {low:g} to {high:g} W/(m·K) "
+                                        f"(got {k_w_mk:g})")
+    return float(k_w_mk)
+
+
+def shape_factor_per_m(depth_m, outer_diameter_m):
+    """Conduction shape factor per metre of a cylinder at centre depth *depth_m* below an
+    isothermal plane: 2π / acosh(2z/D) [–, per metre of pipe].
+
+    >>> round(float(shape_factor_per_m(1.0, 0.2)), 4)
+    2.0991
+    """
+    z, d = np.asarray(depth_m, dtype=float), np.asarray(outer_diameter_m, dtype=float)
+    if np.any(z <= d / 2):
+        raise InputError("depth_m", "the burial depth (to the pipe centre) must be more than the casing radius")
+    return 2 * math.pi / np.arccosh(2 * z / d)
+
+
+def soil_resistance_mk_w(depth_m, outer_diameter_m, soil_k_w_mk):
+    """Resistance of the soil per metre of pipe, acosh(2z/D) / (2π k_s) [m·K/W]."""
+    return 1.0 / (shape_factor_per_m(depth_m, outer_diameter_m) * soil_k_w_mk)
+
+
+@dataclass(frozen=True)
+class BuriedLine:
+    """A buried line solved (SI): the inputs, the soil's part and the solved result."""
+
+    depth_m: float
+    soil_name: str
+    soil_k_w_mk: float
+    soil_source: str
+    ground_temp_c: float
+    casing_diameter_m: float
+    shape_factor_per_m: float
+    soil_resistance_mk_w: float
+    soil_coefficient_w_m2k: float
+    heat_flow_w_per_m: float
+    casing_temp_c: float
+    result: object = None
+
+    def to_dict(self) -> dict:
+        return {k: v for k, v in self.__dict__.items() if k != "result"}
+
+
+def buried_spec(spec, depth_m: float, soil_k_w_mk: float, ground_temp_c: float):
+    """*spec* (a :class:`~pipeins.line.LineSpec`) buried: its outer surface (the outermost
+    layer, or the pipe when bare) loses heat to the ground temperature through the soil
+    only, as a fixed outer coefficient 1/(R_s·π·D).  Returns (spec, D, S, R_s, h)."""
+    check_soil_k(soil_k_w_mk)
+    if spec.outer_h_w_m2k is not None:
+        raise InputError("outer_h_w_m2k", "a buried line loses heat through the soil: leave out the fixed "
+                                          "outer coefficient")
+    if not (np.isfinite(depth_m) and depth_m > 0):
+        raise InputError("depth_m", f"the burial depth must be greater than zero (got {depth_m:g} m)")
+    pipe = spec.build_pipe()
+    if np.ndim(pipe.outer_diameter_m) or any(np.ndim(t) for _, t in spec.layers):
+        raise InputError("depth_m", "a buried line is solved for one pipe size and one build-up")
+    diameter = float(pipe.outer_diameter_m) + 2 * sum(float(t) for _, t in spec.layers)
+    if not depth_m > diameter / 2:
+        raise InputError("depth_m", f"the burial depth {depth_m:g} m (to the pipe centre) must be more than the "
+                                    f"casing radius {diameter / 2:g} m")
+    s = float(shape_factor_per_m(depth_m, diameter))
+    r = 1.0 / (s * soil_k_w_mk)
+    h = 1.0 / (r * math.pi * diameter)
+    buried = replace(spec, air_temp_c=float(ground_temp_c), surroundings_temp_c=None, wind_m_s=0.0, rh_percent=None,
+                     orientation="horizontal", height_m=None, finish=None, emittance=None, outer_h_w_m2k=h)
+    return buried, diameter, s, r, h
+
+
+def solve_buried(spec, depth_m: float, ground_temp_c: float, soil_k_w_mk: float | None = None,
+                 soil: str | None = None) -> BuriedLine:
+    """Solve *spec* buried at centre depth *depth_m* [m] in a soil of conductivity
+    *soil_k_w_mk* [W/(m·K)] or the soil type *soil* (``tables/soils.csv``), under a ground
+    surface at *ground_temp_c* [°C]."""
+    if (soil_k_w_mk is None) == (soil is None):
+        raise InputError("soil_k_w_mk", "give the soil conductivity or a soil type, one of them")
+    if soil is not None:
+        found = lookup_soil(soil)
+        k, name, source = found.conductivity_w_mk, found.name, found.source
+    else:
+        k, name, source = float(soil_k_w_mk), "given", "given"
+    buried, diameter, s, r, h = buried_spec(spec, float(depth_m), k, float(ground_temp_c))
+    result = buried.solve()
+    return BuriedLine(float(depth_m), name, k, source, float(ground_temp_c), diameter, s, r, h,
+                      float(np.ravel(result.heat_flow_w_per_m)[0]), float(np.ravel(result.surface_temp_c)[0]), result)
