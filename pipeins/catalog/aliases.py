@@ -36,7 +36,6 @@ TRADE_WORDS: dict[str, str] = {
     "fiberglass": "glass wool",
     "fibreglass": "glass wool",
     "glass fibre": "glass wool",
-    "rockwool": "mineral wool",
     "rock wool": "mineral wool",
     "stone wool": "mineral wool",
     "mineral fibre": "mineral wool",
