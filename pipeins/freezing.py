@@ -121,7 +121,7 @@ def freeze_times(pipe, layers, surroundings, surface, start_temp_c, wall_materia
 
     if normalise_fluid(fluid_name) != "water":
         raise InputError("--fluid", f'the freezing model is for water only; "{fluid_name}" is not water')
-    _require_pipe(pipe)
+    _require_pipe(pipe, surroundings)
     start = np.asarray(start_temp_c, dtype=float)
     if np.any(~np.isfinite(start) | (start <= 0)):
         raise InputError("--fluid-temp", "the water must start above 0 °C for a freezing time")

@@ -79,6 +79,13 @@ class Pipe:
     def inner_diameter_m(self):
         return np.asarray(self.outer_diameter_m, float) - 2 * np.asarray(self.wall_m, float)
 
+    def shape(self, surroundings):
+        """The :class:`~pipeins.geometry.Cylinder` of this pipe in *surroundings* (its
+        orientation and, for a vertical run, height)."""
+        from .geometry.cylinder import Cylinder
+
+        return Cylinder(self.outer_diameter_m, self.wall_m, surroundings.orientation, surroundings.height_m)
+
 
 @dataclass(frozen=True)
 class FlatWall:
@@ -101,6 +108,12 @@ class FlatWall:
         _positive("length_m", self.length_m, "face length")
         if self.face not in FACES:
             raise InputError("face", f'unknown face "{self.face}"; use {", ".join(FACES)}')
+
+    def shape(self, surroundings):
+        """The :class:`~pipeins.geometry.Plane` of this face (its own length and facing)."""
+        from .geometry.plane import Plane
+
+        return Plane(self.length_m, self.face)
 
 
 @dataclass(frozen=True)

@@ -7,7 +7,10 @@ from typing import Any
 
 import numpy as np
 
-__all__ = ["Result", "film_warnings"]
+__all__ = ["Result", "film_warnings", "HEAT_FLOW_KEYS"]
+
+#: JSON key of the heat flow by the shape's basis (its unit).
+HEAT_FLOW_KEYS = {"W/m": "heat_flow_w_per_m", "W/m²": "heat_flow_w_per_m2", "W": "heat_flow_w"}
 
 
 def _plain(x):
@@ -24,8 +27,11 @@ def _plain(x):
 class Result:
     """Heat flow and temperatures of solved cases; every array has the cases' shape.
 
-    ``heat_flow_w_per_m`` is per metre of pipe (per m² of face for a flat wall) and
-    positive when heat leaves the fluid.  ``interface_temps_c`` stacks, along its first
+    The heat flow is positive when heat leaves the fluid, in the unit ``basis`` names:
+    ``"W/m"`` per metre of pipe, ``"W/m²"`` per m² of a flat face.  The field
+    ``heat_flow_w_per_m`` holds it whatever the basis (kept for pipes and the existing
+    callers); read :attr:`heat_flow` with :attr:`basis` for any shape, or the accessor
+    named for the unit (:attr:`heat_flow_w_per_m2`).  ``interface_temps_c`` stacks, along its first
     axis: the bore (inner wall face), the pipe's outside, then the outer face of each
     layer; the last equals ``surface_temp_c``.
     """
@@ -44,10 +50,28 @@ class Result:
     geometry: str
     warnings: list[str] = field(default_factory=list)
     inputs: dict[str, Any] = field(default_factory=dict, repr=False)
+    #: Unit of the heat flow q: "W/m" (pipe run), "W/m²" (flat face) or "W" (sphere).
+    basis: str = "W/m"
 
     def __post_init__(self):
         # The films' validity notes travel with every result, once each.
         self.warnings = list(dict.fromkeys(list(self.warnings) + film_warnings(self)))
+
+    @property
+    def heat_flow(self) -> np.ndarray:
+        """Heat flow in the unit of :attr:`basis`, positive out of the fluid."""
+        return self.heat_flow_w_per_m
+
+    @property
+    def heat_flow_w_per_m2(self) -> np.ndarray:
+        """Heat flow per m² of a flat face [W/m²]."""
+        return self._in_basis("W/m²")
+
+    def _in_basis(self, basis: str) -> np.ndarray:
+        if self.basis != basis:
+            raise AttributeError(f"this result's heat flow is in {self.basis}, not {basis}: read .heat_flow "
+                                 f"and .basis, or the accessor named for {self.basis}")
+        return self.heat_flow_w_per_m
 
     @property
     def shape(self) -> tuple[int, ...]:
@@ -72,15 +96,8 @@ class Result:
 
         pipe, layers = self.inputs["pipe"], self.inputs["layers"]
         temps = self.interface_temps_c
-        flat = self.geometry == "flat"
-        if flat:
-            factors = [np.asarray(pipe.wall_m)] + [np.asarray(l.thickness_m) for l in layers]
-        else:
-            radii = [np.asarray(pipe.outer_diameter_m) / 2 - np.asarray(pipe.wall_m),
-                     np.asarray(pipe.outer_diameter_m) / 2]
-            for layer in layers:
-                radii.append(radii[-1] + np.asarray(layer.thickness_m))
-            factors = [conduction.cylinder_shape_m(radii[j], radii[j + 1]) for j in range(len(radii) - 1)]
+        net = _network_of(self.inputs)
+        factors = [net.wall_factor, *net.layer_factors]
         flows = [(temps[0] - temps[1]) * np.asarray(pipe.wall_conductivity_w_mk) / factors[0]]
         for j, layer in enumerate(layers):
             fit = conduction.conductivity_of(layer.material)
@@ -91,8 +108,7 @@ class Result:
         """JSON-ready dict in SI (scalars for a single case, nested lists for arrays)."""
         interfaces = np.moveaxis(self.interface_temps_c, 0, -1)
         return {
-            "heat_flow_w_per_m" if self.geometry == "cylinder" else "heat_flow_w_per_m2":
-                _plain(self.heat_flow_w_per_m),
+            HEAT_FLOW_KEYS[self.basis]: _plain(self.heat_flow_w_per_m),
             "heat_flux_w_m2": _plain(self.outer_heat_flux_w_m2),
             "surface_temp_c": _plain(self.surface_temp_c),
             "interface_temps_c": _plain(interfaces),
@@ -127,13 +143,19 @@ def film_warnings(result: "Result") -> list[str]:
         return out
     from .physics.outer import outer_convection_warnings
 
-    if result.geometry == "flat":
-        length, orientation, height = pipe.length_m, pipe.face, pipe.length_m
-    else:
-        orientation = surroundings.orientation
-        length = result.outer_diameter_m
-        height = surroundings.height_m if orientation == "vertical" else None
-    out += outer_convection_warnings(result.surface_temp_c, surroundings.air_temp_c, length,
-                                     surroundings.wind_speed_m_s, orientation, height,
-                                     surroundings.pressure_pa, result.geometry)
+    shape = inputs.get("shape") or pipe.shape(surroundings)
+    net = _network_of(inputs)
+    geometry, orientation = shape.correlation_key
+    out += outer_convection_warnings(result.surface_temp_c, surroundings.air_temp_c, net.film_length_m,
+                                     surroundings.wind_speed_m_s, orientation, net.film_height_m,
+                                     surroundings.pressure_pa, geometry)
     return out
+
+
+def _network_of(inputs):
+    """The shape's network factors of the solved section, on its own (unbroadcast) arrays."""
+    pipe, layers = inputs["pipe"], inputs["layers"]
+    shape = inputs.get("shape") or pipe.shape(inputs["surroundings"])
+    columns = {k: np.asarray(v, dtype=float) for k, v in shape.columns().items()}
+    columns["wall"] = np.asarray(pipe.wall_m, dtype=float)
+    return shape.network(columns, [np.asarray(layer.thickness_m, dtype=float) for layer in layers])

@@ -83,8 +83,13 @@ def _case_shape(pipe, layers, surroundings, surface, *more) -> tuple[int, ...]:
     return np.broadcast_shapes(*(np.shape(v) for v in values if v is not None))
 
 
-def _require_pipe(pipe):
-    if not hasattr(pipe, "outer_diameter_m"):
+def _is_run(pipe, surroundings) -> bool:
+    """Whether *pipe* is a run whose heat flow is per metre (its shape's basis is W/m)."""
+    return pipe.shape(surroundings).basis == "W/m"
+
+
+def _require_pipe(pipe, surroundings):
+    if not _is_run(pipe, surroundings):
         raise InputError("--pipe", "a run needs a round pipe, not a flat face")
 
 
@@ -192,7 +197,7 @@ def temperature_along_run(pipe, layers, fluid_name, inlet_temp_c, mass_flow_kg_s
     from .props.liquids import fluid_properties, fluid_temp_range_c
     from .solve import solve
 
-    _require_pipe(pipe)
+    _require_pipe(pipe, surroundings)
     mdot = np.asarray(mass_flow_kg_s, dtype=float)
     if np.any(~np.isfinite(mdot) | (mdot <= 0)):
         raise InputError("--flow", "flow must be greater than zero")
@@ -316,7 +321,7 @@ def run_extras(spec, result, units):
                          fq(per_m_kg_s * length, "mass_flow", units, digits=2)])
             data["condensate_kg_per_h"] = per_m_kg_s * 3600.0 * length
     if not steam and spec.fluid and _is_water(spec.fluid) and _one(surroundings.air_temp_c) < 0 \
-            and temp_c > 0 and hasattr(pipe, "outer_diameter_m"):
+            and temp_c > 0 and _is_run(pipe, surroundings):
         from .freezing import freeze_times
 
         frozen = freeze_times(pipe, layers, surroundings, surface, temp_c)

@@ -40,6 +40,7 @@ from typing import Sequence
 import numpy as np
 
 from .errors import InputError
+from .geometry import shape_of
 from .model import FlatWall, Layer, Pipe, Surface, Surroundings, Fluid
 from .physics import conduction, outer, radiation
 from .results import Result
@@ -89,7 +90,7 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
 
 
 def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_iterations):
-    flat = isinstance(pipe, FlatWall)
+    shape = shape_of(pipe, surroundings)
     radiant_c = surroundings.radiant_temp_c
     fixed_h = surface.fixed_coefficient_w_m2k
     raw = {
@@ -103,52 +104,34 @@ def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_
         "p": surroundings.pressure_pa,
         "eps": surface.emittance,
         "hfix": np.nan if fixed_h is None else fixed_h,
-        "od": np.nan if flat else pipe.outer_diameter_m,
-        "length": pipe.length_m if flat else (surroundings.height_m if surroundings.height_m is not None else np.nan),
+        **shape.columns(),
     }
     for j, layer in enumerate(layers):
         raw[f"t{j}"] = layer.thickness_m
     arrays = {k: np.asarray(v, dtype=float) for k, v in raw.items()}
-    shape = np.broadcast_shapes(*(a.shape for a in arrays.values()))
-    c = {k: np.broadcast_to(a, shape).ravel() for k, a in arrays.items()}
+    shape_of_cases = np.broadcast_shapes(*(a.shape for a in arrays.values()))
+    c = {k: np.broadcast_to(a, shape_of_cases).ravel() for k, a in arrays.items()}
     n = c["fluid"].size
 
     fits = [conduction.conductivity_of(layer.material) for layer in layers]
     has_film = np.isfinite(c["hi"])
 
-    # Geometry: per-layer conduction factors S (q = ΔΘ / S) and the outer area per unit.
-    if flat:
-        film_r = np.where(has_film, 1.0 / np.where(has_film, c["hi"], 1.0), 0.0)
-        wall_s = c["wall"]
-        layer_s = [c[f"t{j}"] for j in range(len(layers))]
-        area = np.ones(n)
-        char_len = c["length"]
-        radii = None
-    else:
-        r_in = c["od"] / 2 - c["wall"]
-        radii = [r_in, c["od"] / 2]
-        for j in range(len(layers)):
-            radii.append(radii[-1] + c[f"t{j}"])
-        film_r = np.where(has_film, 1.0 / (np.where(has_film, c["hi"], 1.0) * 2 * math.pi * r_in), 0.0)
-        wall_s = conduction.cylinder_shape_m(radii[0], radii[1])
-        layer_s = [conduction.cylinder_shape_m(radii[j + 1], radii[j + 2]) for j in range(len(layers))]
-        area = 2 * math.pi * radii[-1]
-        char_len = 2 * radii[-1]
-    wall_r = wall_s / c["kw"]
+    # Geometry (the shape's protocol): per-layer conduction factors S (q = ΔΘ / S), the
+    # outer area per unit and the outer film's lengths.
+    net = shape.network(c, [c[f"t{j}"] for j in range(len(layers))])
+    film_r = np.where(has_film, net.inner_film_factor / np.where(has_film, c["hi"], 1.0), 0.0)
+    layer_s = net.layer_factors
+    area = np.broadcast_to(net.outer_area, (n,))
+    wall_r = net.wall_factor / c["kw"]
     _check_network(film_r, wall_r, layer_s, area, layers)
-
-    if flat:
-        geometry, orientation, height = "flat", pipe.face, c["length"]
-    else:
-        geometry, orientation = "cylinder", surroundings.orientation
-        height = c["length"] if orientation == "vertical" else None
+    height = net.film_height_m
 
     network = _Network(fits, film_r, wall_r, layer_s)
     cases = {"fluid": c["fluid"], "air": c["air"], "rad": c["rad"], "wind": c["wind"], "p": c["p"],
-             "eps": c["eps"], "hfix": c["hfix"], "area": area, "len": char_len, **network.columns}
+             "eps": c["eps"], "hfix": c["hfix"], "area": area, "len": net.film_length_m, **network.columns}
     if height is not None:
         cases["height"] = np.broadcast_to(height, (n,))
-    outer_side = _OuterSide(fixed_h is not None, geometry, orientation, height is not None)
+    outer_side = _OuterSide(fixed_h is not None, shape, height is not None)
     cases.update(outer_side.columns(cases))
 
     q, x, h_c, h_r, q_slope, iterations = _newton_in_bracket(cases, network, outer_side, rtol, max_iterations)
@@ -161,16 +144,17 @@ def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_
     residual = np.where(no_flow, 0.0, q_slope * np.abs(x - ts))
 
     def shaped(x):
-        return np.asarray(x).reshape(shape)
+        return np.asarray(x).reshape(shape_of_cases)
 
-    warnings = _warnings(layers, fits, temps, layer_s, h_c + h_r, radii, flat)
+    warnings = _warnings(layers, fits, temps, h_c + h_r, net.outer_radius_m, shape)
     dew_point = None
     if surroundings.relative_humidity_percent is not None:
         from .props.humid import dew_point_c
 
         dew_point = shaped(np.broadcast_to(dew_point_c(surroundings.air_temp_c,
                                                        surroundings.relative_humidity_percent,
-                                                       surroundings.pressure_pa), shape))
+                                                       surroundings.pressure_pa), shape_of_cases))
+    round_shape = net.outer_radius_m is not None
     return Result(
         heat_flow_w_per_m=shaped(q),
         outer_heat_flux_w_m2=shaped(q / area),
@@ -178,15 +162,16 @@ def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_
         interface_temps_c=np.stack([shaped(t) for t in temps]),
         h_conv_w_m2k=shaped(h_c),
         h_rad_w_m2k=shaped(h_r),
-        outer_diameter_m=None if flat else shaped(2 * radii[-1]),
+        outer_diameter_m=shaped(2 * net.outer_radius_m) if round_shape else None,
         residual_w_per_m=float(np.max(residual)) if n else 0.0,
         iterations=iterations,
         dew_point_c=dew_point,
         touch_limit_c=touch_limit_c,
-        geometry="flat" if flat else "cylinder",
+        geometry=shape.kind,
         warnings=warnings,
         inputs={"pipe": pipe, "layers": tuple(layers), "fluid": fluid,
-                "surroundings": surroundings, "surface": surface},
+                "surroundings": surroundings, "surface": surface, "shape": shape},
+        basis=shape.basis,
     )
 
 
@@ -272,8 +257,9 @@ class _OuterSide:
     same values), without re-checking its inputs on every iteration.
     """
 
-    def __init__(self, fixed, geometry, orientation, vertical):
-        self.fixed, self.geometry, self.orientation, self.vertical = fixed, geometry, orientation, vertical
+    def __init__(self, fixed, shape, vertical):
+        self.fixed, self.shape, self.vertical = fixed, shape, vertical
+        self.geometry, self.orientation = shape.correlation_key
 
     def columns(self, c):
         """Per-case constants of the outer side (added to the solver's case arrays)."""
@@ -305,9 +291,9 @@ class _OuterSide:
 
         The conduction side is a fixed resistance (k at the mean of the fluid and the
         surface), the outer side a fixed film: radiation exact at the guess, convection
-        from the simplified air correlations h_N = C·(ΔT/L)^(1/4) (C = 1.32 on a horizontal
-        cylinder, 1.42 otherwise) and h_F = 4.1·V^0.618/D^0.382 across a cylinder or
-        3.84·(V/L)^0.5 along a face, combined as (h_F³ + h_N³)^(1/3) (common practice for
+        from the shape's simplified air correlations h_N = C·(ΔT/L)^(1/4) (C = 1.32 on a
+        horizontal cylinder, 1.42 otherwise) and h_F (4.1·V^0.618/D^0.382 across a cylinder,
+        3.84·(V/L)^0.5 along a face), combined as (h_F³ + h_N³)^(1/3) (common practice for
         air near room temperature, from memory; only a starting point: the iteration uses
         the real correlations).  Two fixed-point passes from h_c = 4 W/(m²·K).
         """
@@ -318,11 +304,8 @@ class _OuterSide:
             h_c = np.full(fluid.shape, 4.0)
             wind, length = cases["wind"], cases["len"]
             natural_len = cases["height"] if self.vertical else length
-            c_nat = 1.32 if (self.geometry == "cylinder" and not self.vertical) else 1.42
-            if self.geometry == "cylinder":
-                h_f = 4.1 * wind**0.618 / length**0.382
-            else:
-                h_f = 3.84 * np.sqrt(wind / length)
+            c_nat = self.shape.rough_natural_c
+            h_f = self.shape.rough_forced_h_w_m2k(wind, length)
             h_f3 = h_f**3
         x = 0.5 * (fluid + air)
         r_fixed = cases["film_r"] + cases["wall_r"]
@@ -497,7 +480,7 @@ def _span(values) -> str:
     return f"{lo:.1f} °C" if abs(hi - lo) < 0.05 else f"{lo:.1f} to {hi:.1f} °C"
 
 
-def _warnings(layers, fits, temps, layer_s, h_total, radii, flat) -> list[str]:
+def _warnings(layers, fits, temps, h_total, outer_radius, shape) -> list[str]:
     """Warnings that travel with the result: service limits, critical radius."""
     out = []
     for j, layer in enumerate(layers):
@@ -513,11 +496,11 @@ def _warnings(layers, fits, temps, layer_s, h_total, radii, flat) -> list[str]:
         if np.any(under):
             out.append(f"{name}: falls to {_span(cold[under])}, below its usable limit of "
                        f"{mat.min_temp_c:g} °C")
-    if layers and not flat:
+    if layers and outer_radius is not None:
         outer_fit, outer_layer = fits[-1], layers[-1]
         k_mean = outer_fit.conductivity(0.5 * (temps[-1] + temps[-2]))
-        r_c = conduction.critical_radius_m(k_mean, h_total)
-        below = radii[-1] < r_c
+        r_c = shape.critical_radius_m(k_mean, h_total)
+        below = outer_radius < r_c
         if np.any(below):
             out.append(f"outer radius below the critical radius ({1000 * float(np.max(r_c[below])):.1f} mm) "
                        f"for {outer_layer.material.name}: more of it raises the heat flow at first")
