@@ -23,7 +23,6 @@ import contextlib
 import errno
 import os
 import re
-import secrets
 import signal
 import stat
 import sys
@@ -239,7 +238,7 @@ def _pid_alive(pid: int) -> bool:
 
 
 def _temp_name(target_name: str, kind: str = "tmp") -> str:
-    return f".pipeins-{target_name[:_NAME_KEPT]}-{os.getpid()}-{secrets.token_hex(6)}.{kind}"
+    return f".pipeins-{target_name[:_NAME_KEPT]}-{os.getpid()}-{os.urandom(6).hex()}.{kind}"
 
 
 def clean_stale(folder: str) -> None:

@@ -158,7 +158,7 @@ def test_brine_and_oil_spellings(spelling, canonical):
 _PROBE = """
 import sys, json
 from pipeins.cli import main
-heavy = lambda: sorted({m.split('.')[0] for m in sys.modules} & {'CoolProp', 'scipy', 'matplotlib'})
+heavy = lambda: sorted({m.split('.')[0] for m in sys.modules} & {'CoolProp', 'scipy', 'matplotlib', 'openpyxl'})
 seen = {'import pipeins.cli': heavy()}
 for args in json.loads(sys.argv[1]):
     try:
@@ -179,6 +179,11 @@ def test_common_commands_import_no_coolprop_scipy_or_matplotlib():
         ["check", "--pipe", "DN80", "--fluid", "CaCl2 25%", "--fluid-temp", "-20C", "--velocity", "1m/s",
          "--layer", "flexible elastomeric foam:32mm", "--format", "json"],
         ["schedule", str(ROOT / "examples" / "food_factory_chilled.toml"), "--format", "json"],
+        # sizing: one line, and a table with three criteria (touch, cap, code minimum)
+        ["size", "--pipe", "NPS 4", "--fluid-temp", "5C", "--ambient-temp", "30C", "--rh", "70",
+         "--material", "flexible elastomeric foam", "--format", "json"],
+        ["table", "--sizes", "DN10..DN600", "--fluid-temp", "180C", "--ambient-temp", "25C",
+         "--material", "mineral wool", "--max-heat-flow", "150W/m", "--code", "ashrae-90.1-2019"],
     ]
     out = subprocess.run([sys.executable, "-c", _PROBE, json.dumps(runs)], cwd=ROOT, capture_output=True,
                          text=True, check=True).stdout
