@@ -197,6 +197,10 @@ CLI_ONLY = {
     "--soil-k": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
     "--soil": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
     "--ground-temp": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
+    "--ageing-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
+    "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
+    "--joints-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
+    "--materials": "a user's materials file for one checked line (pipeins.user_materials); not yet a project-file input",
 }
 #: Project-file keys with no command-line option, and why.
 FILE_ONLY = {

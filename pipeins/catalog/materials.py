@@ -204,6 +204,16 @@ def lookup_material(spec: str, option: str = "layers") -> InsulationMaterial:
     """
     if isinstance(spec, InsulationMaterial):  # already looked up (e.g. a scaled copy, pipeins.sweep)
         return spec
+    if _HOOK is not None:  # a user's materials file or design factors (pipeins.user_materials)
+        return _HOOK(str(spec), option)
+    return _lookup(spec, option)
+
+
+#: Set by :func:`pipeins.user_materials.materials_in_use` while a user's materials are in use.
+_HOOK = None
+
+
+def _lookup(spec, option: str = "layers") -> InsulationMaterial:
     spec = str(spec)
     if re.match(r"\s*k\s*=", spec, re.I):
         return _constant_k(spec, option)

@@ -33,7 +33,7 @@ def check(fmt, units, output, **opts):
     from ..reports.check import check_report
     from ..runs import run_extras
 
-    field = pop_field_options(opts)
+    field = pop_field_options(opts, units)
     spec = field_line(spec_from_options(opts, units), field, units)
     result = spec.solve()
     rows, data, warnings = run_extras(spec, result, units)

@@ -28,13 +28,20 @@ FIELD_OPTIONS = [
     click.option("--soil", help='Buried line: soil type instead of --soil-k, e.g. "moist sand" '
                                 "(tables/soils.csv)."),
     click.option("--ground-temp", help="Buried line: ground surface temperature, e.g. 8C."),
+    click.option("--materials", type=click.Path(), help="A CSV of your own insulation materials (declared "
+                 "conductivity against mean temperature, the columns of tables/insulation_materials.csv); "
+                 "their names are found before the catalogue's."),
+    click.option("--ageing-factor", help="Design conductivity: allowance for ageing, percent, e.g. 10 %."),
+    click.option("--moisture-factor", help="Design conductivity: allowance for moisture in service, percent."),
+    click.option("--joints-factor", help="Design conductivity: allowance for joints and gaps, percent."),
 ]
 #: click destinations of the options above.
 FIELD_FLAGS = ("maintain_temp", "min_ambient", "safety_factor", "tracer_output", "buried", "soil_k", "soil",
-               "ground_temp")
+               "ground_temp", "materials", "ageing_factor", "moisture_factor", "joints_factor")
 _WORDS = {"maintain_temp_c": "--maintain-temp", "safety_factor_percent": "--safety-factor",
           "tracer_output_w_per_m": "--tracer-output", "depth_m": "--buried", "soil_k_w_mk": "--soil-k",
-          "soil": "--soil", "outer_h_w_m2k": "--outer-h"}
+          "soil": "--soil", "outer_h_w_m2k": "--outer-h", "ageing_percent": "--ageing-factor",
+          "moisture_percent": "--moisture-factor", "joints_percent": "--joints-factor"}
 
 
 def field_options(func):
@@ -43,9 +50,27 @@ def field_options(func):
     return func
 
 
-def pop_field_options(opts: dict) -> dict:
-    """The field options' text (None where not given), removed from *opts*."""
-    return {name: opts.pop(name, None) for name in FIELD_FLAGS}
+def pop_field_options(opts: dict, units: str = "si") -> dict:
+    """The field options' text (None where not given), removed from *opts*.  A materials file
+    and design factors are put in use for the rest of the command (the click context)."""
+    field = {name: opts.pop(name, None) for name in FIELD_FLAGS}
+    names = ("ageing_factor", "moisture_factor", "joints_factor")
+    if field["materials"] is None and all(field[n] is None for n in names):
+        return field
+    from ..errors import InputError
+    from ..user_materials import DesignFactors, materials_in_use, read_materials_file
+
+    q = _reader(field, units)
+    try:
+        factors = DesignFactors(*(q(n, "percent") or 0.0 for n in names))
+    except InputError as exc:
+        raise _in_words(exc) from None
+    materials, warnings = read_materials_file(field["materials"]) if field["materials"] is not None else ({}, [])
+    given = any(field[n] is not None for n in names)
+    click.get_current_context().with_resource(materials_in_use(materials, factors if given else None))
+    field["_materials"] = dict(file=field["materials"], names=sorted(materials), warnings=warnings,
+                               factors=factors if given else None)
+    return field
 
 
 def _flag(name: str) -> str:
@@ -117,6 +142,15 @@ def add_field_sections(report, spec, field: dict, units: str) -> None:
         data["casing_temp_c"] = float(report.data["surface_temp_c"])
         report.tables.append(buried_table(data, units))
         report.data["buried"] = data
+    if field.get("_materials") is not None:
+        from ..reports.field import materials_table
+
+        info = field["_materials"]
+        table, data = materials_table(report, info, units)
+        report.tables.append(table)
+        report.data["materials"] = data
+        report.warnings.extend(w for w in info["warnings"] if w not in report.warnings)
+        report.data["warnings"] = report.warnings
 
     maintain = q("maintain_temp", "temperature")
     others = [n for n in ("min_ambient", "safety_factor", "tracer_output") if field.get(n) is not None]

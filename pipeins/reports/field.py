@@ -6,7 +6,7 @@ from __future__ import annotations
 
 from . import Column, Table
 
-__all__ = ["tracing_table", "buried_table"]
+__all__ = ["tracing_table", "buried_table", "materials_table"]
 
 
 def _rows_table(title: str, rows, note: str = "") -> Table:
@@ -65,3 +65,42 @@ def buried_table(data: dict, units: str) -> Table:
             "twin pipes and neighbouring lines are not modelled. Soil conductivity varies with moisture: use a "
             "site survey where the heat flow matters.")
     return _rows_table("Buried line", rows, note)
+
+
+def materials_table(report, info: dict, units: str):
+    """The insulation-conductivity section: per layer of the solved line, its mean
+    temperature and the declared and design conductivity there; and its JSON dict."""
+    from ..physics.conduction import conductivity_of
+    from ..user_materials import DESIGN_FACTOR_BASIS
+    from ..units import format_quantity as fq
+
+    factors = info["factors"]
+    factor = 1.0 if factors is None else factors.factor
+    temps = report.data["interface_temps_c"]
+    layers = report.data["line"]["layers"]
+    from ..catalog import materials as catalogue
+
+    rows, out = [], []
+    for j, layer in enumerate(layers):
+        mean = 0.5 * (float(temps[j + 1]) + float(temps[j + 2]))
+        name = layer["material"].removesuffix(" (design)")
+        declared = design_k = None
+        if not name.startswith("constant conductivity"):
+            # looked up as solved (the design material); the declared value is that over the factor
+            design_k = float(conductivity_of(catalogue.lookup_material(name)).conductivity(mean))
+            declared = design_k / factor
+        rows.append([f"layer {j + 1}: {name}", fq(mean, "temperature", units),
+                     "–" if declared is None else fq(declared, "conductivity", units),
+                     "–" if design_k is None else fq(design_k, "conductivity", units)])
+        out.append({"material": name, "mean_temp_c": mean, "declared_conductivity_w_mk": declared,
+                    "design_conductivity_w_mk": design_k})
+    data = {"file": info["file"], "materials": info["names"], "layers": out,
+            "design_factors": None if factors is None else factors.to_dict()}
+    note = (DESIGN_FACTOR_BASIS + (f"; factor used {factor:.4g}" if factors is not None else
+                                   "; no design factors given: design = declared"))
+    if info["file"]:
+        note = f"materials from {info['file']} are found before the catalogue's. " + note
+    table = Table("Insulation conductivity, declared and design", [Column("layer"), Column("mean temperature"),
+                                                                   Column("declared k"), Column("design k")],
+                  rows, note=note)
+    return table, data
