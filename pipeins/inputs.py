@@ -515,7 +515,7 @@ def line_spec(raw: dict, units: str = "si", items: list | None = None):
             values["pressure_pa"] = float(pressure)
     spec = None
     if len(own) == start:
-        spec = collect(own, "pipe", LineSpec, **values)
+        spec = collect(own, "pipe", LineSpec, rh_as_written=True, **values)
         if spec is not None:
             # surface and surroundings checks of the model, named by their parameter
             collect(own, "pipe", spec.build_surroundings)

@@ -167,6 +167,9 @@ class LineSpec:
     outer_h_w_m2k: Any = None
     touch_limit_c: Any = DEFAULT_TOUCH_LIMIT_C
     length_m: Any = None
+    #: True when a front end has already read the RH by the percent rule (a value at or below
+    #: 1 % was written with its % sign): the fraction guard below then stands aside.
+    rh_as_written: bool = False
 
     def __post_init__(self):
         for name, (unit, example, upper) in NUMERIC_FIELDS.items():
@@ -182,7 +185,7 @@ class LineSpec:
             names = np.asarray(self.pipe, dtype=object)
             if names.size == 0 or not all(isinstance(x, str) for x in names.ravel()):
                 raise InputError("pipe", "give a catalogue size or an array of them, e.g. [\"NPS 1\", \"NPS 2\"]")
-        if self.rh_percent is not None and np.any(np.asarray(self.rh_percent) <= 1):
+        if self.rh_percent is not None and not self.rh_as_written and np.any(np.asarray(self.rh_percent) <= 1):
             low = float(np.min(self.rh_percent))
             if low > 0:
                 raise InputError("rh_percent", f"{low:g} looks like a fraction; relative humidity is in percent "

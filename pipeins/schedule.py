@@ -193,7 +193,7 @@ def _spec(service, condition, length_m=None, with_rh=True):
         kw["touch_limit_c"] = service.requirements.touch_limit_c
     kw.update(condition.spec_kw)   # orientation, height, fixed outer coefficient
     kw.update(service.spec_kw)     # emittance, pipe material, velocity, inner film
-    return LineSpec(**kw)
+    return LineSpec(rh_as_written=True, **kw)
 
 
 def _basis(service, with_cost: bool):

@@ -349,3 +349,18 @@ def test_nul_in_a_path_is_one_error_line(run):
     line = error_line(run, *COST, "--cost-table", "a\x00b")
     assert line == ("Error: Invalid value for '--cost-table': a file name cannot hold a NUL character "
                     "(see pipeins cost --help)")
+
+
+def test_rh_with_its_percent_sign_is_taken_as_written(run):
+    """Issue 8 §6: with the % sign a value is taken as written (0.5 % is 0.5 %), on the CLI as
+    through the library; dew point against psychrolib (ASHRAE Handbook psychrometrics)."""
+    import json
+
+    import psychrolib
+
+    psychrolib.SetUnitSystem(psychrolib.SI)
+    code, out, err = run("check", "--pipe", "DN80", "--fluid-temp", "6C", "--ambient-temp", "30C",
+                         "--rh", "0.5 %", "--layer", "k=0.035:19mm", "--format", "json")
+    assert (code, err) == (0, "")
+    expected = psychrolib.GetTDewPointFromRelHum(30.0, 0.005)
+    assert json.loads(out)["dew_point_c"] == pytest.approx(expected, abs=0.05)
