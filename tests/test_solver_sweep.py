@@ -32,7 +32,7 @@ from hypothesis import strategies as st
 from pipeins.catalog.materials import lookup_material
 from pipeins.model import Fluid, Layer, Pipe, Surface, Surroundings, pressure_at_altitude_pa
 from pipeins.physics import outer, radiation
-from pipeins.solve import solve
+from pipeins.solve import NO_FLOW_SPAN_K, solve
 
 RTOL = 1e-6
 FLOOR_K = 1e-10
@@ -84,7 +84,9 @@ def _check_balance(r, pipe, layers, fluid, surroundings, surface):
     h_r = radiation.radiation_coefficient_w_m2k(ts, rad, surface.emittance)
     area = 2 * math.pi * radii[-1]
     q_out = area * (h_c * (ts - air) + h_r * (ts - rad))
-    close(q_out, q, FLOOR_K * area * (h_c + h_r))
+    # Temperatures within NO_FLOW_SPAN_K of each other are the exact no-flow case (q = 0), so
+    # the outer side may carry what that span drives across the film.
+    close(q_out, q, (FLOOR_K + NO_FLOW_SPAN_K) * area * (h_c + h_r))
 
 
 temperature_near = st.one_of(st.just(0.0), st.floats(-1e-6, 1e-6))
