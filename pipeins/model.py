@@ -130,6 +130,15 @@ class Layer:
             raise InputError("thickness_m", f"thickness of {self.material.name} must be greater than zero")
 
 
+class BareLayer(Layer):
+    """A layer at zero thickness: the build-up of a patch left bare inside an insulated
+    section (a tank floor), so that every patch has the same interfaces."""
+
+    def __init__(self, material):
+        object.__setattr__(self, "material", material)
+        object.__setattr__(self, "thickness_m", 0.0)
+
+
 @dataclass(frozen=True)
 class Fluid:
     """The fluid inside: its temperature [°C] and the inner film coefficient [W/(m²·K)].

@@ -7,7 +7,7 @@ from typing import Any
 
 import numpy as np
 
-__all__ = ["Result", "film_warnings", "HEAT_FLOW_KEYS"]
+__all__ = ["Result", "PatchResult", "section_result", "film_warnings", "HEAT_FLOW_KEYS"]
 
 #: JSON key of the heat flow by the shape's basis (its unit).
 HEAT_FLOW_KEYS = {"W/m": "heat_flow_w_per_m", "W/m²": "heat_flow_w_per_m2", "W": "heat_flow_w"}
@@ -52,6 +52,10 @@ class Result:
     inputs: dict[str, Any] = field(default_factory=dict, repr=False)
     #: Unit of the heat flow q: "W/m" (pipe run), "W/m²" (flat face) or "W" (sphere).
     basis: str = "W/m"
+    #: Per-patch results of a section with patches (a duct's faces, a vessel's parts), or None.
+    patches: list | None = None
+    #: What the section is ("pipe", "round duct", "rectangular duct", "face", "sphere", "vessel").
+    kind: str = "pipe"
 
     def __post_init__(self):
         # The films' validity notes travel with every result, once each.
@@ -94,6 +98,8 @@ class Result:
         temperatures (an energy-balance check: each equals ``heat_flow_w_per_m``)."""
         from .physics import conduction
 
+        if self.patches is not None:
+            return sum(np.asarray(p.weight) * p.result.layer_heat_flows_w_per_m() for p in self.patches)
         pipe, layers = self.inputs["pipe"], self.inputs["layers"]
         temps = self.interface_temps_c
         net = _network_of(self.inputs)
@@ -122,7 +128,90 @@ class Result:
             "iterations": self.iterations,
             "residual_w_per_m": self.residual_w_per_m,
             "warnings": list(self.warnings),
+            **({} if self.patches is None else {"kind": self.kind, "patches": [p.to_dict(self.basis)
+                                                                                for p in self.patches]}),
         }
+
+
+@dataclass
+class PatchResult:
+    """One patch of a solved section: its name, its share and its own result.
+
+    ``weight`` turns the patch's heat flow (in ``result.basis``) into the section's basis;
+    ``area_m2`` is its outer area per section unit [m² per m, per m² or per item];
+    ``exposed`` is False for a patch against a stated boundary (a tank floor), which
+    never governs touch or condensation.
+    """
+
+    name: str
+    weight: Any
+    area_m2: Any
+    result: Result
+    exposed: bool = True
+    note: str = ""
+
+    @property
+    def heat_flow(self):
+        """The patch's heat flow in the section's basis."""
+        return np.asarray(self.weight) * self.result.heat_flow_w_per_m
+
+    def to_dict(self, basis: str) -> dict[str, Any]:
+        area_key = "area_m2" if basis == "W" else "area_m2_per_unit"
+        out = {"name": self.name, area_key: _plain(self.area_m2),
+               "surface_temp_c": _plain(self.result.surface_temp_c),
+               HEAT_FLOW_KEYS[basis]: _plain(self.heat_flow),
+               "heat_flux_w_m2": _plain(self.result.outer_heat_flux_w_m2),
+               "h_conv_w_m2k": _plain(self.result.h_conv_w_m2k),
+               "h_rad_w_m2k": _plain(self.result.h_rad_w_m2k)}
+        if not self.exposed:
+            out["boundary"] = self.note
+        return out
+
+
+def section_result(section, patches, results, inputs, kind, basis, touch_limit_c, dew_point) -> Result:
+    """The whole of a section from its solved patches.
+
+    Heat flow: the weighted sum of the patches.  Surface temperature: that of the patch
+    that governs, the hottest exposed patch of a section losing heat and the coldest of
+    one gaining it (its interface temperatures come with it).  Film coefficients: the
+    area-weighted means of the exposed patches.
+    """
+    total_t = sum(np.asarray(layer.thickness_m, dtype=float) for layer in inputs["layers"]) \
+        if inputs["layers"] else 0.0
+    shape = results[0].shape
+    parts = []
+    for patch, res in zip(patches, results):
+        weight = np.broadcast_to(np.asarray(patch.weight_for(total_t), dtype=float), shape)
+        parts.append(PatchResult(patch.name, weight, _outer_area(res, weight), res,
+                                 patch.boundary is None, patch.boundary.note if patch.boundary else ""))
+    q = sum(p.heat_flow for p in parts)
+    exposed = [p for p in parts if p.exposed] or parts
+    ts = np.stack([p.result.surface_temp_c for p in exposed])
+    pick = np.where(q >= 0, np.argmax(ts, axis=0), np.argmin(ts, axis=0))
+    surface = np.take_along_axis(ts, pick[None], axis=0)[0]
+    interfaces = np.stack([p.result.interface_temps_c for p in exposed])  # (P, I, *shape)
+    governing = np.take_along_axis(interfaces, pick[None, None], axis=0)[0]
+    areas = np.stack([p.area_m2 for p in exposed])
+    total_exposed = np.sum(areas, axis=0)
+
+    def mean(name):
+        return np.sum(areas * np.stack([getattr(p.result, name) for p in exposed]), axis=0) / total_exposed
+
+    area_all = np.sum(np.stack([p.area_m2 for p in parts]), axis=0)
+    warnings = list(dict.fromkeys(w for p in parts for w in p.result.warnings))
+    return Result(
+        heat_flow_w_per_m=q, outer_heat_flux_w_m2=q / area_all, surface_temp_c=surface,
+        interface_temps_c=governing, h_conv_w_m2k=mean("h_conv_w_m2k"), h_rad_w_m2k=mean("h_rad_w_m2k"),
+        outer_diameter_m=None, residual_w_per_m=max(p.result.residual_w_per_m for p in parts),
+        iterations=results[0].iterations, dew_point_c=dew_point, touch_limit_c=touch_limit_c,
+        geometry=kind, warnings=warnings, inputs={**inputs, "patches": tuple(patches)}, basis=basis,
+        patches=parts, kind=kind)
+
+
+def _outer_area(res: Result, weight):
+    """Outer area of a patch per section unit: the weight times its shape's outer area per patch unit."""
+    net = _network_of(res.inputs)
+    return weight * np.broadcast_to(np.asarray(net.outer_area, dtype=float), np.shape(weight))
 
 
 def film_warnings(result: "Result") -> list[str]:
@@ -136,6 +225,8 @@ def film_warnings(result: "Result") -> list[str]:
     """
     inputs = result.inputs
     if not inputs:
+        return []
+    if "patches" in inputs:  # a section: each patch carries its own film notes
         return []
     out = list(getattr(inputs["fluid"], "film_notes", ()) or ())
     surface, surroundings, pipe = inputs["surface"], inputs["surroundings"], inputs["pipe"]

@@ -43,7 +43,7 @@ from .errors import InputError
 from .geometry import shape_of
 from .model import FlatWall, Layer, Pipe, Surface, Surroundings, Fluid
 from .physics import conduction, outer, radiation
-from .results import Result
+from .results import Result, section_result
 
 __all__ = ["solve", "SolverError", "RELATIVE_TOLERANCE", "MAX_ITERATIONS", "NO_FLOW_SPAN_K"]
 
@@ -90,10 +90,11 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
 
 
 def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_iterations):
-    shape = shape_of(pipe, surroundings)
+    patches = patches_of(pipe, surroundings)
     radiant_c = surroundings.radiant_temp_c
     fixed_h = surface.fixed_coefficient_w_m2k
-    raw = {
+    sun = _absorbed_sun(surroundings, surface)
+    common = {
         "fluid": fluid.temp_c,
         "hi": np.nan if fluid.film_coefficient_w_m2k is None else fluid.film_coefficient_w_m2k,
         "wall": pipe.wall_m,
@@ -104,75 +105,136 @@ def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_
         "p": surroundings.pressure_pa,
         "eps": surface.emittance,
         "hfix": np.nan if fixed_h is None else fixed_h,
-        **shape.columns(),
     }
-    for j, layer in enumerate(layers):
-        raw[f"t{j}"] = layer.thickness_m
-    arrays = {k: np.asarray(v, dtype=float) for k, v in raw.items()}
-    shape_of_cases = np.broadcast_shapes(*(a.shape for a in arrays.values()))
-    c = {k: np.broadcast_to(a, shape_of_cases).ravel() for k, a in arrays.items()}
-    n = c["fluid"].size
-
+    raws = []
+    for patch in patches:
+        raw = {**common, **patch.shape.columns(), "sun": sun * patch.sun_factor}
+        if patch.boundary is not None:
+            raw.update(air=patch.boundary.temp_c, rad=patch.boundary.temp_c, hfix=patch.boundary.coefficient_w_m2k,
+                       wind=0.0, sun=0.0)
+        for j, layer in enumerate(layers):
+            raw[f"t{j}"] = layer.thickness_m if patch.insulated else 0.0
+        raws.append({k: np.asarray(v, dtype=float) for k, v in raw.items()})
+    shape_of_cases = np.broadcast_shapes(*(a.shape for raw in raws for a in raw.values()))
+    flat = [{k: np.broadcast_to(a, shape_of_cases).ravel() for k, a in raw.items()} for raw in raws]
+    m = flat[0]["fluid"].size  # cases per patch
     fits = [conduction.conductivity_of(layer.material) for layer in layers]
-    has_film = np.isfinite(c["hi"])
 
-    # Geometry (the shape's protocol): per-layer conduction factors S (q = ΔΘ / S), the
-    # outer area per unit and the outer film's lengths.
-    net = shape.network(c, [c[f"t{j}"] for j in range(len(layers))])
-    film_r = np.where(has_film, net.inner_film_factor / np.where(has_film, c["hi"], 1.0), 0.0)
-    layer_s = net.layer_factors
-    area = np.broadcast_to(net.outer_area, (n,))
-    wall_r = net.wall_factor / c["kw"]
-    _check_network(film_r, wall_r, layer_s, area, layers)
-    height = net.film_height_m
-
-    network = _Network(fits, film_r, wall_r, layer_s)
-    cases = {"fluid": c["fluid"], "air": c["air"], "rad": c["rad"], "wind": c["wind"], "p": c["p"],
-             "eps": c["eps"], "hfix": c["hfix"], "area": area, "len": net.film_length_m, **network.columns}
-    if height is not None:
-        cases["height"] = np.broadcast_to(height, (n,))
-    outer_side = _OuterSide(fixed_h is not None, shape, height is not None)
+    # Geometry (each patch's shape protocol): per-layer conduction factors S (q = ΔΘ / S),
+    # the outer area per unit and the outer film's lengths; the patches stacked on one case axis.
+    keys, parts, nets = [], [], []
+    for patch, c in zip(patches, flat):
+        shape = patch.shape
+        fixed = patch.boundary is not None or fixed_h is not None
+        key = (shape.correlation_key, fixed)
+        if key not in keys:
+            keys.append(key)
+        net = shape.network(c, [c[f"t{j}"] for j in range(len(layers))])
+        nets.append(net)
+        has_film = np.isfinite(c["hi"])
+        film_r = np.where(has_film, net.inner_film_factor / np.where(has_film, c["hi"], 1.0), 0.0)
+        wall_r = net.wall_factor / c["kw"]
+        area = np.broadcast_to(net.outer_area, (m,))
+        _check_network(film_r, wall_r, net.layer_factors, area, layers)
+        natural_len = net.film_length_m if net.film_height_m is None else net.film_height_m
+        part = {"fluid": c["fluid"], "air": c["air"], "rad": c["rad"], "wind": c["wind"], "p": c["p"],
+                "eps": c["eps"], "hfix": c["hfix"], "sun": c["sun"], "area": area,
+                "len": np.broadcast_to(net.film_length_m, (m,)),
+                "height": np.broadcast_to(natural_len, (m,)),
+                "c_nat": np.full(m, shape.rough_natural_c),
+                "h_f": np.broadcast_to(shape.rough_forced_h_w_m2k(c["wind"], net.film_length_m), (m,)),
+                "key": np.full(m, keys.index(key)),
+                "film_r": np.broadcast_to(film_r, (m,)), "wall_r": np.broadcast_to(wall_r, (m,))}
+        for j, s_j in enumerate(net.layer_factors):
+            part[f"s{j}"] = np.broadcast_to(s_j, (m,))
+        parts.append(part)
+    cases = parts[0] if len(parts) == 1 else {k: np.concatenate([p[k] for p in parts]) for k in parts[0]}
+    network = _Network(fits, cases["film_r"], cases["wall_r"], [cases[f"s{j}"] for j in range(len(layers))])
+    cases.update(network.columns)
+    outer_side = _OuterSide(keys, cases)
     cases.update(outer_side.columns(cases))
 
     q, x, h_c, h_r, q_slope, iterations = _newton_in_bracket(cases, network, outer_side, rtol, max_iterations)
-    no_flow = _no_flow(c)
+    no_flow = _no_flow(cases)
     q = np.where(no_flow, 0.0, q)
-    temps = network.temperatures(q, c["fluid"])
+    temps = network.temperatures(q, cases["fluid"])
     ts = temps[-1]
     if not (np.all(np.isfinite(q)) and np.all(np.isfinite(ts)) and np.all(np.isfinite(h_c + h_r))):
         raise SolverError("heat flow is not finite: report this case as a bug")
     residual = np.where(no_flow, 0.0, q_slope * np.abs(x - ts))
 
-    def shaped(x):
-        return np.asarray(x).reshape(shape_of_cases)
+    def shaped(x, p=0):
+        return np.asarray(x)[p * m:(p + 1) * m].reshape(shape_of_cases)
 
-    warnings = _warnings(layers, fits, temps, h_c + h_r, net.outer_radius_m, shape)
     dew_point = None
     if surroundings.relative_humidity_percent is not None:
         from .props.humid import dew_point_c
 
-        dew_point = shaped(np.broadcast_to(dew_point_c(surroundings.air_temp_c,
+        dew_point = np.asarray(np.broadcast_to(dew_point_c(surroundings.air_temp_c,
                                                        surroundings.relative_humidity_percent,
                                                        surroundings.pressure_pa), shape_of_cases))
-    round_shape = net.outer_radius_m is not None
-    return Result(
-        heat_flow_w_per_m=shaped(q),
-        outer_heat_flux_w_m2=shaped(q / area),
-        surface_temp_c=shaped(ts),
-        interface_temps_c=np.stack([shaped(t) for t in temps]),
-        h_conv_w_m2k=shaped(h_c),
-        h_rad_w_m2k=shaped(h_r),
-        outer_diameter_m=shaped(2 * net.outer_radius_m) if round_shape else None,
-        residual_w_per_m=float(np.max(residual)) if n else 0.0,
-        iterations=iterations,
-        dew_point_c=dew_point,
-        touch_limit_c=touch_limit_c,
-        geometry=shape.kind,
-        warnings=warnings,
-        inputs={"pipe": pipe, "layers": tuple(layers), "fluid": fluid,
-                "surroundings": surroundings, "surface": surface, "shape": shape},
-        basis=shape.basis,
-    )
+    inputs = {"pipe": pipe, "layers": tuple(layers), "fluid": fluid, "surroundings": surroundings, "surface": surface}
+    kind = getattr(pipe, "kind", patches[0].shape.kind)
+    basis = getattr(pipe, "basis", patches[0].shape.basis)
+    results = []
+    for p, (patch, net) in enumerate(zip(patches, nets)):
+        sl = slice(p * m, (p + 1) * m)
+        patch_temps = [t[sl] for t in temps]
+        warnings = _warnings(layers if patch.insulated else [], fits, patch_temps, (h_c + h_r)[sl],
+                             net.outer_radius_m, patch.shape)
+        round_shape = net.outer_radius_m is not None
+        patch_surface = surface
+        if patch.boundary is not None:
+            patch_surface = Surface(surface.emittance, surface.name, surface.surface_kind,
+                                    fixed_coefficient_w_m2k=patch.boundary.coefficient_w_m2k)
+        results.append(Result(
+            heat_flow_w_per_m=shaped(q, p),
+            outer_heat_flux_w_m2=shaped(q[sl] / cases["area"][sl]),
+            surface_temp_c=shaped(ts, p),
+            interface_temps_c=np.stack([shaped(t, p) for t in temps]),
+            h_conv_w_m2k=shaped(h_c, p),
+            h_rad_w_m2k=shaped(h_r, p),
+            outer_diameter_m=shaped(2 * np.broadcast_to(net.outer_radius_m, (m,))) if round_shape else None,
+            residual_w_per_m=float(np.max(residual[sl])) if m else 0.0,
+            iterations=iterations,
+            dew_point_c=dew_point,
+            touch_limit_c=touch_limit_c,
+            geometry=patch.shape.kind,
+            warnings=warnings,
+            inputs={**inputs, "layers": tuple(layers) if patch.insulated else tuple(_bare_layers(layers)),
+                    "surface": patch_surface, "shape": patch.shape},
+            basis=patch.shape.basis if len(patches) > 1 else basis,
+        ))
+    if len(patches) == 1 and not hasattr(pipe, "kind"):
+        return results[0]
+    return section_result(pipe, patches, results, inputs, kind, basis, touch_limit_c, dew_point)
+
+
+def patches_of(section, surroundings) -> list:
+    """The surface patches of *section* in *surroundings* (a single shape is one patch)."""
+    if hasattr(section, "patches"):
+        return list(section.patches(surroundings))
+    from .geometry.section import single_patch
+
+    return single_patch("surface", shape_of(section, surroundings))
+
+
+def _absorbed_sun(surroundings, surface):
+    """Solar flux absorbed per m² of a surface normal to the sun [W/m²]: absorptance × irradiance."""
+    irradiance = getattr(surroundings, "solar_irradiance_w_m2", None)
+    if irradiance is None:
+        return 0.0
+    absorptance = getattr(surface, "solar_absorptance", None)
+    if absorptance is None:
+        raise InputError("--absorptance", "solar irradiance needs the surface's solar absorptance (0 to 1)")
+    return np.asarray(absorptance, dtype=float) * np.asarray(irradiance, dtype=float)
+
+
+def _bare_layers(layers):
+    """The layers at zero thickness: a patch left bare inside an insulated section."""
+    from .model import BareLayer
+
+    return [BareLayer(layer.material) for layer in layers]
 
 
 def _check_network(film_r, wall_r, layer_s, area, layers):
@@ -192,7 +254,7 @@ def _check_network(film_r, wall_r, layer_s, area, layers):
 def _no_flow(c):
     t_min = np.minimum(np.minimum(c["fluid"], c["air"]), c["rad"])
     t_max = np.maximum(np.maximum(c["fluid"], c["air"]), c["rad"])
-    return t_max - t_min < NO_FLOW_SPAN_K
+    return (t_max - t_min < NO_FLOW_SPAN_K) & (c["sun"] == 0.0)
 
 
 class _Network:
@@ -252,20 +314,55 @@ class _Network:
 class _OuterSide:
     """The outer side: q_out(Ts) with its film coefficients, and dq_out/dTs.
 
+    *keys* lists the distinct ((shape, orientation), fixed) pairs of the patches; the
+    case column ``key`` indexes it, so patches of different shapes and facings share one
+    iteration and each case takes its own correlation.  A fixed outer coefficient (the
+    user's, or a patch's stated boundary) replaces convection and radiation.  Absorbed
+    sun (column ``sun``, W per m² of outer surface) is taken off the outgoing flow.
+
     Radiation is evaluated here with the formula of
     :func:`pipeins.physics.radiation.radiation_coefficient_w_m2k` (same operations, so the
     same values), without re-checking its inputs on every iteration.
     """
 
-    def __init__(self, fixed, shape, vertical):
-        self.fixed, self.shape, self.vertical = fixed, shape, vertical
-        self.geometry, self.orientation = shape.correlation_key
+    def __init__(self, keys, cases):
+        self.keys = keys
+        self.fixed = all(fixed for _, fixed in keys)
+        self.some_fixed = any(fixed for _, fixed in keys) and not self.fixed
+        self.sunny = bool(np.any(cases["sun"] != 0.0))
 
     def columns(self, c):
         """Per-case constants of the outer side (added to the solver's case arrays)."""
         rad_k = c["rad"] - radiation.ABSOLUTE_ZERO_C
         eps_sigma = c["eps"] * radiation.STEFAN_BOLTZMANN
-        return {"rad_k": rad_k, "rad_k2": rad_k**2, "eps_sigma": eps_sigma, "eps_sigma4": 4.0 * eps_sigma}
+        cols = {"rad_k": rad_k, "rad_k2": rad_k**2, "eps_sigma": eps_sigma, "eps_sigma4": 4.0 * eps_sigma}
+        if self.some_fixed:
+            cols["fixed"] = np.isin(c["key"], [i for i, (_, fixed) in enumerate(self.keys) if fixed])
+        return cols
+
+    def _convection(self, cases, ts):
+        air = cases["air"]
+        films = [(i, key) for i, (key, fixed) in enumerate(self.keys) if not fixed]
+        if len(films) == 1 and len(self.keys) == 1:
+            (geometry, orientation), = [key for _, key in films]
+            return self._film(ts, air, cases, geometry, orientation)
+        h_c = cases["hfix"].copy()
+        for i, (geometry, orientation) in films:
+            at = cases["key"] == i
+            if np.any(at):
+                sub = {k: cases[k][at] for k in ("len", "wind", "height", "p")}
+                h_c[at] = self._film(ts[at], air[at], sub, geometry, orientation)
+        return h_c
+
+    @staticmethod
+    def _film(ts, air, cases, geometry, orientation):
+        height = cases["height"] if orientation == "vertical" else None
+        h_c = outer.outer_convection_coefficient(ts, air, cases["len"], cases["wind"], orientation, height,
+                                                 cases["p"], geometry)
+        if not np.all(np.isfinite(h_c)):
+            raise InputError("outer film", "the convection coefficient overflows for these inputs (a height, "
+                             "size, wind speed or air pressure far beyond any real line)")
+        return h_c
 
     def __call__(self, cases, ts):
         """(q_out, h_c, h_r, dq_out/dTs without the convection-slope term)."""
@@ -273,18 +370,35 @@ class _OuterSide:
         if self.fixed:
             h_c = cases["hfix"]
             h_r = np.zeros_like(h_c)
-            return area * (h_c * (ts - air) + h_r * (ts - rad)), h_c, h_r, area * h_c
-        h_c = outer.outer_convection_coefficient(ts, air, cases["len"], cases["wind"], self.orientation,
-                                                 cases["height"] if self.vertical else None, cases["p"],
-                                                 self.geometry)
-        if not np.all(np.isfinite(h_c)):
-            raise InputError("outer film", "the convection coefficient overflows for these inputs (a height, "
-                             "size, wind speed or air pressure far beyond any real line)")
+            q = area * (h_c * (ts - air) + h_r * (ts - rad))
+            if self.sunny:
+                q = q - area * cases["sun"]
+            return q, h_c, h_r, area * h_c
+        h_c = self._convection(cases, ts)
         ts_k = ts - radiation.ABSOLUTE_ZERO_C
         ts_k2 = ts_k**2
         h_r = cases["eps_sigma"] * (ts_k + cases["rad_k"]) * (ts_k2 + cases["rad_k2"])
+        slope_r = cases["eps_sigma4"] * (ts_k2 * ts_k)
+        if self.some_fixed:
+            h_r = np.where(cases["fixed"], 0.0, h_r)
+            slope_r = np.where(cases["fixed"], 0.0, slope_r)
         q = area * (h_c * (ts - air) + h_r * (ts - rad))
-        return q, h_c, h_r, area * (h_c + cases["eps_sigma4"] * (ts_k2 * ts_k))
+        if self.sunny:
+            q = q - area * cases["sun"]
+        return q, h_c, h_r, area * (h_c + slope_r)
+
+    def upper_rise(self, cases):
+        """How far absorbed sun can lift the surface above the highest of fluid, air and
+        radiant temperatures [K]: q_out ≥ A·(h_lin·(Ts − T_r) − sun) with h_lin = 4εσT_r³
+        (εσ(Ts⁴ − T_r⁴) ≥ 4εσT_r³(Ts − T_r)) or the fixed coefficient, so the root lies below."""
+        if not self.sunny:
+            return 0.0
+        linear = cases["eps_sigma4"] * cases["rad_k"] ** 3
+        if self.fixed:
+            linear = cases["hfix"]
+        elif self.some_fixed:
+            linear = np.where(cases["fixed"], cases["hfix"], linear)
+        return np.where(cases["sun"] > 0.0, cases["sun"] / linear, 0.0)
 
     def first_guess(self, cases, network):
         """Linearised surface temperature and the first step's (Ts − Ta)·dh_c/dTs.
@@ -302,10 +416,9 @@ class _OuterSide:
             h_c = cases["hfix"]
         else:
             h_c = np.full(fluid.shape, 4.0)
-            wind, length = cases["wind"], cases["len"]
-            natural_len = cases["height"] if self.vertical else length
-            c_nat = self.shape.rough_natural_c
-            h_f = self.shape.rough_forced_h_w_m2k(wind, length)
+            natural_len = cases["height"]
+            c_nat = cases["c_nat"]
+            h_f = cases["h_f"]
             h_f3 = h_f**3
         x = 0.5 * (fluid + air)
         r_fixed = cases["film_r"] + cases["wall_r"]
@@ -322,17 +435,26 @@ class _OuterSide:
             else:
                 x_k = x - radiation.ABSOLUTE_ZERO_C
                 h_r = cases["eps_sigma"] * (x_k + cases["rad_k"]) * (x_k**2 + cases["rad_k2"])
+                if self.some_fixed:
+                    h_r = np.where(cases["fixed"], 0.0, h_r)
             h = h_c + h_r
             ambient = (h_c * air + h_r * rad) / h
+            if self.sunny:
+                ambient = ambient + cases["sun"] / h
             r_out = 1.0 / (area * h)
             x = ambient + (fluid - ambient) * (r_out / (r_in + r_out))
             if not self.fixed:
                 h_n = c_nat * np.sqrt(np.sqrt(np.abs(x - air) / natural_len))
                 h_n3 = h_n**3
                 h_c = np.cbrt(h_f3 + h_n3)
+                if self.some_fixed:
+                    h_c = np.where(cases["fixed"], cases["hfix"], h_c)
         if self.fixed:
             return x, np.zeros(fluid.shape)
-        return x, _FIRST_CONVECTION_EXPONENT * h_n3 / np.where(h_c > 0, h_f3 + h_n3, 1.0)
+        exponent = _FIRST_CONVECTION_EXPONENT * h_n3 / np.where(h_c > 0, h_f3 + h_n3, 1.0)
+        if self.some_fixed:
+            exponent = np.where(cases["fixed"], 0.0, exponent)
+        return x, exponent
 
 
 def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
@@ -354,7 +476,7 @@ def _newton_in_bracket(cases, network, outer_side, rtol, max_iterations):
     n = cases["fluid"].size
     fluid, air, rad = cases["fluid"], cases["air"], cases["rad"]
     t_min = np.minimum(np.minimum(fluid, air), rad)
-    t_max = np.maximum(np.maximum(fluid, air), rad)
+    t_max = np.maximum(np.maximum(fluid, air), rad) + outer_side.upper_rise(cases)
     out = {k: np.zeros(n) for k in ("q", "x", "h_c", "h_r", "slope")}
     if n == 0:
         return out["q"], out["x"], out["h_c"], out["h_r"], out["slope"], 0
