@@ -277,8 +277,9 @@ def compute_schedule(project: Project) -> Schedule:
     rows = _bands(project, chosen, groups)
     totals = _totals(results)
     if totals.lines_left_out:
+        left_out = set(totals.lines_left_out)
         notes = [f'"{r.tag}" ({r.installed_cost_note or _unpriced_reason(r)})'
-                 for r in results if r.tag in totals.lines_left_out]
+                 for r in results if r.tag in left_out]
         warnings.append(f"installed cost, cost saving and payback cover {len(totals.payback_lines)} of "
                         f"{len(results)} lines; left out: " + "; ".join(notes))
     cautions = _cautions(project, groups)
@@ -432,9 +433,10 @@ def _totals(results: list[LineResult]) -> Totals:
     t = Totals(heat_loss, heat_gain, heating, cooling, None, None, None,
                unpriced_lines=[r.tag for r in results if not r.priced])
     if has_table:
-        covered = [r for r in results if r.installed_cost is not None and r.cost_saving() is not None]
+        is_covered = [r.installed_cost is not None and r.cost_saving() is not None for r in results]
+        covered = [r for r, c in zip(results, is_covered) if c]
         t.payback_lines = [r.tag for r in covered]
-        t.lines_left_out = [r.tag for r in results if r not in covered]
+        t.lines_left_out = [r.tag for r, c in zip(results, is_covered) if not c]
         if covered:
             t.installed_cost = float(sum(r.installed_cost for r in covered))
             t.cost_saving = float(sum(r.cost_saving() for r in covered))
