@@ -128,3 +128,38 @@ def test_sheet_materials():
     with pytest.raises(InputError, match='unknown duct sheet material "brass"'):
         ducts.lookup_sheet("brass")
     assert math.isnan(ducts.parse_duct_size("600x400mm").diameter_m)
+
+
+def test_wrap_compression_default_is_25_percent_common_practice():
+    # common practice: duct wrap is rated at 25 % compression (2 in nominal -> 1.5 in installed)
+    wrap = ducts.installed_wrap(2 * INCH, 0.040)
+    assert ducts.WRAP_COMPRESSION_PERCENT == 25.0
+    assert float(wrap.installed_thickness_m) == pytest.approx(1.5 * INCH)
+    # R = t/k of a flat layer (ASTM C680 / any heat-transfer text), nominal beside installed
+    assert float(wrap.nominal_r_m2k_w) == pytest.approx(2 * INCH / 0.040)
+    assert float(wrap.installed_r_m2k_w) == pytest.approx(1.5 * INCH / 0.040)
+
+
+def test_wrap_compression_override_and_inverse():
+    import numpy as np
+
+    wrap = ducts.installed_wrap(np.array([0.025, 0.05]), compression_percent=0)
+    assert np.array_equal(wrap.installed_thickness_m, wrap.nominal_thickness_m) and wrap.installed_r_m2k_w is None
+    installed = ducts.installed_wrap(0.05, compression_percent=15).installed_thickness_m
+    assert float(installed) == pytest.approx(0.0425)
+    assert float(ducts.nominal_wrap_thickness_m(installed, 15)) == pytest.approx(0.05)
+
+
+@pytest.mark.parametrize("percent", [-1, 100, 150, float("nan")])
+def test_wrap_compression_out_of_range(percent):
+    with pytest.raises(InputError) as exc:
+        ducts.installed_wrap(0.05, compression_percent=percent)
+    assert exc.value.name == "wrap_compression_percent"
+    assert "outside 0 to below 100 %" in exc.value.message
+
+
+def test_wrap_bad_thickness_or_conductivity():
+    with pytest.raises(InputError, match="thickness"):
+        ducts.installed_wrap(0.0)
+    with pytest.raises(InputError, match="conductivity"):
+        ducts.installed_wrap(0.05, -0.04)

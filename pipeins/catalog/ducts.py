@@ -5,6 +5,8 @@
   (round or rectangular, sides in metres).
 * :func:`round_duct_sizes` lists the commonly made round-duct diameters of
   ``tables/duct_round_sizes.csv`` (our own list; common practice, from memory).
+* :func:`installed_wrap` gives the installed thickness and R-value of a blanket duct wrap
+  from its nominal thickness (25 % compression, common practice; the user may say otherwise).
 * :func:`lookup_sheet` gives a sheet-metal wall material of ``tables/duct_sheet.csv``
   (galvanised steel, aluminium, stainless steel) and :func:`gauge_thickness_m` the
   nominal thickness of a galvanised sheet gauge (from memory).
@@ -33,7 +35,8 @@ from pipeins.errors import InputError, near_hint
 from pipeins.tables import read_table
 
 __all__ = ["DuctSize", "SheetMaterial", "MAX_ASPECT_RATIO", "parse_duct_size", "round_duct_sizes",
-           "lookup_sheet", "gauge_thickness_m", "list_gauges", "DEFAULT_SHEET"]
+           "lookup_sheet", "gauge_thickness_m", "list_gauges", "DEFAULT_SHEET",
+           "WRAP_COMPRESSION_PERCENT", "WrapThickness", "installed_wrap", "nominal_wrap_thickness_m"]
 
 #: Largest long-side / short-side ratio of a rectangular duct the per-face model takes
 #: (see the module notes: corner conduction neglected, laminar inner-film values tabulated to 1:8).
@@ -346,3 +349,103 @@ def list_gauges() -> tuple[tuple[int, float], ...]:
     30
     """
     return tuple(sorted(_gauges().items(), key=lambda item: item[1]))
+
+
+# --------------------------------------------------------------------------- duct wrap
+
+#: Compression assumed for a blanket duct wrap as installed [%]: the trade rates duct wrap at
+#: its thickness compressed by 25 % (at the corners and overall, by the banding and the sag
+#: of the blanket), and labels the installed R-value at that compression (common practice).
+WRAP_COMPRESSION_PERCENT = 25.0
+
+
+@dataclass(frozen=True)
+class WrapThickness:
+    """A blanket duct wrap, nominal and as installed.
+
+    Attributes
+    ----------
+    nominal_thickness_m, installed_thickness_m : numpy.ndarray
+        Thickness as sold and as installed [m].
+    compression_percent : float
+        The compression allowed for [%].
+    nominal_r_m2k_w, installed_r_m2k_w : numpy.ndarray or None
+        Thermal resistance of a flat layer of each thickness, t/k [m²·K/W]; None when no
+        conductivity was given.
+    """
+
+    nominal_thickness_m: object
+    installed_thickness_m: object
+    compression_percent: float
+    nominal_r_m2k_w: object = None
+    installed_r_m2k_w: object = None
+
+
+def installed_wrap(nominal_thickness_m, conductivity_w_mk=None,
+                   compression_percent: float = WRAP_COMPRESSION_PERCENT) -> WrapThickness:
+    """Installed thickness and R-value of a blanket duct wrap, from its nominal thickness.
+
+    t_installed = t_nominal · (1 − c/100); R = t/k for a flat layer, both beside each other.
+    The conductivity is held at the uncompressed value: compressing a light glass-fibre
+    blanket lowers its k a little, so the installed R given here is on the low (safe) side.
+    Boards and rigid liners are not compressed (pass ``compression_percent=0``).
+
+    Parameters
+    ----------
+    nominal_thickness_m : float or array_like
+        Thickness as sold [m], greater than 0.
+    conductivity_w_mk : float or array_like, optional
+        Conductivity of the blanket at the mean temperature [W/(m·K)], for the R-values.
+    compression_percent : float
+        Compression allowed for [%], 0 to below 100; default
+        :data:`WRAP_COMPRESSION_PERCENT` = 25 % (common practice).
+
+    Returns
+    -------
+    WrapThickness
+
+    Raises
+    ------
+    InputError
+        ``wrap_compression_percent`` outside 0 to below 100 %; ``thickness_m`` or
+        ``conductivity_w_mk`` not greater than 0.
+
+    Examples
+    --------
+    A 2 in (50.8 mm) wrap with k = 0.040 W/(m·K): 38.1 mm installed, R 1.27 → 0.952 m²·K/W.
+
+    >>> wrap = installed_wrap(0.0508, 0.040)
+    >>> round(float(wrap.installed_thickness_m) * 1000, 1), round(float(wrap.nominal_r_m2k_w), 2), round(float(wrap.installed_r_m2k_w), 3)
+    (38.1, 1.27, 0.952)
+    """
+    import numpy as np
+
+    percent = float(compression_percent)
+    if not (math.isfinite(percent) and 0.0 <= percent < 100.0):
+        raise InputError("wrap_compression_percent",
+                         f"{percent:g} % is outside 0 to below 100 %; the trade commonly allows "
+                         f"{WRAP_COMPRESSION_PERCENT:g} % for blanket wrap, 0 for board")
+    nominal = np.asarray(nominal_thickness_m, dtype=float)
+    if not np.all(np.isfinite(nominal) & (nominal > 0)):
+        raise InputError("thickness_m", "the wrap thickness must be greater than zero")
+    installed = nominal * (1.0 - percent / 100.0)
+    if conductivity_w_mk is None:
+        return WrapThickness(nominal, installed, percent)
+    k = np.asarray(conductivity_w_mk, dtype=float)
+    if not np.all(np.isfinite(k) & (k > 0)):
+        raise InputError("conductivity_w_mk", "the wrap conductivity must be greater than zero")
+    return WrapThickness(nominal, installed, percent, nominal / k, installed / k)
+
+
+def nominal_wrap_thickness_m(installed_thickness_m, compression_percent: float = WRAP_COMPRESSION_PERCENT):
+    """Nominal wrap thickness [m] that gives *installed_thickness_m* [m] after compression [%].
+
+    The inverse of :func:`installed_wrap`: t_nominal = t_installed / (1 − c/100).
+
+    >>> round(float(nominal_wrap_thickness_m(0.0381)) * 1000, 1)
+    50.8
+    """
+    import numpy as np
+
+    installed_wrap(1.0, compression_percent=compression_percent)  # checks the percentage
+    return np.asarray(installed_thickness_m, dtype=float) / (1.0 - float(compression_percent) / 100.0)
