@@ -138,3 +138,16 @@ def test_bad_vessel_input(call, message):
     with pytest.raises(InputError) as err:
         call()
     assert str(err.value).startswith(message)
+
+
+@pytest.mark.parametrize("heads", ["flat", "2:1", "hemispherical", "torispherical"])
+@pytest.mark.parametrize("orientation", ["vertical", "horizontal"])
+def test_thicker_insulation_never_raises_the_loss_of_any_patch(heads, orientation):
+    # vessels are far past the critical radius (2k/h): every patch loses less as T grows
+    t = np.array([0.01, 0.03, 0.06, 0.1, 0.2, 0.4])
+    r = solve(_Vessel(tuple(vessel_patches(2.2, 4.0, orientation, heads))), [Layer(lookup_material("k=0.04"), t)],
+              Fluid(150.0), Surroundings(10.0), Surface(fixed_coefficient_w_m2k=8.0))
+    assert np.all(np.diff(r.heat_flow_w_per_m) < 0)
+    for part in r.patches:
+        assert np.all(np.diff(part.heat_flow) < 0), part.name
+    assert float(np.sum([p.heat_flow for p in r.patches], axis=0)[0]) == pytest.approx(float(r.heat_flow_w_per_m[0]))
