@@ -141,12 +141,12 @@ def temperature_after_c(time_s, capacity_j_k, ua_w_k, start_temp_c, ambient_temp
 
 def _check_target(start, target, ambient, name):
     """The target must lie between the start and the ambient (the ambient is never reached)."""
-    gap0, gap = start - ambient, target - ambient
+    gap0, gap = np.broadcast_arrays(start - ambient, target - ambient)
     if np.any(gap0 == 0):
         raise InputError("--fluid-temp", "the contents start at the ambient temperature: they do not change")
     never = (gap * gap0 <= 0) | (np.abs(gap) > np.abs(gap0))
     if np.any(never):
-        bad = float(np.asarray(target + 0 * start)[np.broadcast_to(never, np.shape(target + 0 * start))].ravel()[0])
+        bad = float(np.broadcast_to(target, never.shape)[never].ravel()[0])
         way = "cool" if np.all(gap0 > 0) else "warm"
         raise InputError(name, f"the contents never reach {bad:g} °C: they {way} from {float(np.max(start)):g} °C "
                                f"towards the ambient {float(np.max(ambient)):g} °C and reach it only after "
