@@ -95,3 +95,44 @@ def test_bad_hold_input(call, message):
     with pytest.raises(InputError) as err:
         call()
     assert str(err.value).startswith(message)
+
+
+def test_cool_down_of_a_solved_vessel_with_real_films():
+    # An invented site's horizontal 2.4 m × 6 m hot-water vessel with flat heads: heat flows solved
+    # for a grid of contents temperatures in ONE solver call (natural convection and radiation),
+    # their UA table, and the hours to cool; the quadrature and the march agree.
+    from dataclasses import dataclass
+
+    from pipeins.catalog.materials import lookup_material
+    from pipeins.geometry.vessel import vessel_patches, vessel_volume_m3
+    from pipeins.model import Fluid, Layer, Surface, Surroundings
+    from pipeins.solve import solve
+
+    @dataclass(frozen=True)
+    class Vessel:
+        wall_m: float = 0.01
+        wall_conductivity_w_mk: float = 50.0
+        kind: str = "vessel"
+        basis: str = "W"
+
+        def patches(self, surroundings):
+            return [p.to_patch() for p in vessel_patches(2.4, 6.0, "horizontal", "flat", wall_m=self.wall_m)]
+
+    temps = np.linspace(20.0, 90.0, 15)
+    r = solve(Vessel(), [Layer(lookup_material("mineral wool"), 0.08)], Fluid(temps), Surroundings(10.0),
+              Surface(0.3))
+    table = ua_table_from_heat_flow(temps, r.heat_flow_w_per_m, 10.0)
+    assert np.all(table[1] > 0)
+    capacity = contents_heat_capacity_j_k(contents_mass_kg(vessel_volume_m3(2.38, 6.0, "flat"), "water", 85.0),
+                                          "water", 40.0, 85.0)
+    t = float(time_to_temperature_s(capacity, table, 85.0, 40.0, 10.0, points=48))
+    assert 24 * 3600 < t < 60 * 86400  # days, not minutes or years, for a well insulated vessel
+    assert march_temperature_c([0.0, t], capacity, table, 85.0, 10.0, 400)[-1] == pytest.approx(40.0, abs=2e-3)
+
+
+def test_scalar_and_array_inputs_agree():
+    starts = np.array([60.0, 70.0, 80.0])
+    t_arr = time_to_temperature_s(C, UA, starts, 30.0, TA)
+    for s, t in zip(starts, t_arr):
+        assert float(time_to_temperature_s(C, UA, s, 30.0, TA)) == pytest.approx(t, rel=1e-14)
+    assert freeze_hold_s([1000.0, 2000.0], UA, 10.0, -5.0).shape == (2,)
