@@ -10,18 +10,15 @@ numbers or lengths) raise :class:`pipeins.errors.InputError`.  Inputs that are m
 outside a correlation's validity are evaluated anyway (every form here extrapolates
 smoothly); the callers in ``outer`` and ``inner`` report them as warning strings.
 
-The registries :data:`NATURAL`, :data:`FORCED` and :data:`INTERNAL` map short names to
-the functions; :func:`get_correlation` looks one up by kind and name.
+Which correlation applies to which shape, over which range and from which source is
+recorded in :mod:`pipeins.physics.correlations` (the registry the films look up).
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-from typing import Callable
-
 import numpy as np
 
-from pipeins.errors import InputError, closest_names
+from pipeins.errors import InputError
 
 __all__ = [
     "nusselt_horizontal_cylinder_churchill_chu",
@@ -37,14 +34,6 @@ __all__ = [
     "nusselt_pipe_laminar",
     "nusselt_pipe_internal",
     "vertical_cylinder_is_thin",
-    "NATURAL",
-    "FORCED",
-    "INTERNAL",
-    "get_correlation",
-    "Validity",
-    "VALIDITY",
-    "validity",
-    "group_text",
     "LAMINAR_NUSSELT_CONSTANT_WALL_TEMPERATURE",
     "LAMINAR_NUSSELT_CONSTANT_HEAT_FLUX",
     "REYNOLDS_LAMINAR_LIMIT",
@@ -717,153 +706,3 @@ def nusselt_pipe_internal(reynolds, prandtl):
     )
     blended = (1.0 - gamma) * laminar + gamma * turbulent
     return np.where(reynolds >= REYNOLDS_TURBULENT_LIMIT, turbulent, blended)
-
-
-# --------------------------------------------------------------------------- registries
-
-#: Natural-convection correlations by geometry name.
-NATURAL = {
-    "horizontal_cylinder": nusselt_horizontal_cylinder_churchill_chu,
-    "vertical_cylinder": nusselt_vertical_cylinder_popiel_churchill,
-    "vertical_plate": nusselt_vertical_plate_churchill_chu,
-    "horizontal_plate_up": nusselt_horizontal_plate_up_mcadams,
-    "horizontal_plate_down": nusselt_horizontal_plate_down_mcadams,
-}
-#: Forced-convection (external) correlations by geometry name.
-FORCED = {
-    "cylinder_crossflow": nusselt_cylinder_crossflow_churchill_bernstein,
-    "flat_plate": nusselt_flat_plate_pohlhausen_colburn,
-}
-#: In-tube correlations by name.
-INTERNAL = {
-    "pipe": nusselt_pipe_internal,
-    "pipe_turbulent": nusselt_pipe_gnielinski,
-    "pipe_laminar": nusselt_pipe_laminar,
-}
-
-_REGISTRIES = {"natural": NATURAL, "forced": FORCED, "internal": INTERNAL}
-
-
-@dataclass(frozen=True)
-class Validity:
-    """Where a registered correlation holds, as data: the warnings come from it.
-
-    ``ranges`` maps a dimensionless group (``"Ra"``, ``"Re"``, ``"RePr"``, ``"Pr"``,
-    ``"H/D"``, ``"Gr/Re2"``) to its (low, high) bounds, ``None`` for an open end.
-    """
-
-    kind: str
-    name: str
-    function: Callable
-    geometry: str
-    orientations: tuple[str, ...]
-    ranges: dict
-    source: str
-
-    def bound(self, group: str, end: int) -> float:
-        """The lower (*end* 0) or upper (*end* 1) bound of *group*."""
-        return self.ranges[group][end]
-
-
-#: Validity of every correlation the films use, by (kind, name); the ranges are those of the
-#: original papers as quoted in Incropera et al., 6th ed. (from memory).
-VALIDITY = {
-    ("natural", "horizontal_cylinder"): Validity(
-        "natural", "horizontal_cylinder", nusselt_horizontal_cylinder_churchill_chu, "cylinder", ("horizontal",),
-        {"Ra": (None, 1.0e12)}, "Churchill & Chu (1975); Incropera et al. Eq. 9.34"),
-    ("natural", "vertical_plate"): Validity(
-        "natural", "vertical_plate", nusselt_vertical_plate_churchill_chu, "flat", ("vertical",),
-        {"Ra": (None, 1.0e12)}, "Churchill & Chu (1975); Incropera et al. Eq. 9.26"),
-    ("natural", "vertical_cylinder"): Validity(
-        "natural", "vertical_cylinder", nusselt_vertical_cylinder_popiel_churchill, "cylinder", ("vertical",),
-        {"Ra": (1.0e4, 1.0e9), "H/D": (None, 60.0)},
-        "Popiel, Wojtkowiak & Bober (2007) curvature correction on Churchill & Chu's plate"),
-    ("natural", "horizontal_plate_up"): Validity(
-        "natural", "horizontal_plate_up", nusselt_horizontal_plate_up_mcadams, "flat", ("top", "bottom"),
-        {"Ra": (1.0e4, 1.0e11)}, "McAdams (1954); Incropera et al. Eqs. 9.30-9.31 (enhanced case)"),
-    ("natural", "horizontal_plate_down"): Validity(
-        "natural", "horizontal_plate_down", nusselt_horizontal_plate_down_mcadams, "flat", ("top", "bottom"),
-        {"Ra": (1.0e5, 1.0e10)}, "McAdams (1954); Incropera et al. Eq. 9.32 (reduced case)"),
-    ("forced", "cylinder_crossflow"): Validity(
-        "forced", "cylinder_crossflow", nusselt_cylinder_crossflow_churchill_bernstein, "cylinder",
-        ("horizontal", "vertical"), {"RePr": (0.2, None), "Re": (None, 1.0e7)},
-        "Churchill & Bernstein (1977); Incropera et al. Eq. 7.54"),
-    ("forced", "flat_plate"): Validity(
-        "forced", "flat_plate", nusselt_flat_plate_pohlhausen_colburn, "flat", ("vertical", "top", "bottom"),
-        {"Re": (None, 1.0e8)}, "Pohlhausen laminar and Colburn turbulent plate, mixed boundary layer; "
-                               "Incropera et al. Eq. 7.38"),
-    ("mixed", "churchill"): Validity(
-        "mixed", "churchill", nusselt_mixed_churchill, "any", ("horizontal", "vertical", "top", "bottom"),
-        {"Gr/Re2": (0.1, 10.0)}, "Churchill (1977) Nu³ = Nu_F³ + Nu_N³; mixed regime where Gr/Re² is "
-                                 "about 1 (Incropera et al. sec. 9.9)"),
-    ("internal", "pipe"): Validity(
-        "internal", "pipe", nusselt_pipe_internal, "pipe", ("any",),
-        {"Re": (REYNOLDS_TURBULENT_LIMIT, 5.0e6), "Pr": (0.5, 2000.0)},
-        "Gnielinski (1976); laminar 48/11 below Re 2300, interpolated to 1e4 (Gnielinski 1995)"),
-}
-
-
-def validity(kind: str, name: str) -> Validity:
-    """The :class:`Validity` record of a registered correlation.
-
-    >>> validity("natural", "horizontal_cylinder").bound("Ra", 1)
-    1000000000000.0
-    """
-    try:
-        return VALIDITY[(kind, name)]
-    except KeyError:
-        raise InputError("correlation", f'no validity record for {kind} correlation "{name}"') from None
-
-
-def group_text(value: float) -> str:
-    """A bound as the warnings write it: ``1e12``, ``1e4``, ``0.2``, ``60``.
-
-    >>> group_text(1.0e12), group_text(1.0e4), group_text(0.2), group_text(60.0)
-    ('1e12', '1e4', '0.2', '60')
-    """
-    if value >= 1.0e4:
-        mantissa, exponent = f"{value:.0e}".split("e")
-        return f"{mantissa}e{int(exponent)}"
-    return f"{value:g}"
-
-
-def get_correlation(kind, name):
-    """Look up a correlation function by kind and name.
-
-    Parameters
-    ----------
-    kind : {"natural", "forced", "internal"}
-        Which registry to search.
-    name : str
-        Key in that registry, e.g. ``"horizontal_cylinder"``.
-
-    Returns
-    -------
-    callable
-        The correlation function.
-
-    Raises
-    ------
-    InputError
-        For an unknown kind or name; the message lists the valid names.
-
-    Examples
-    --------
-    >>> get_correlation("natural", "horizontal_cylinder").__name__
-    'nusselt_horizontal_cylinder_churchill_chu'
-    >>> get_correlation("forced", "cylinder")
-    Traceback (most recent call last):
-    ...
-    pipeins.errors.InputError: correlation: unknown forced correlation "cylinder"; valid names: cylinder_crossflow, flat_plate (did you mean "cylinder_crossflow"?)
-    """
-    if kind not in _REGISTRIES:
-        raise InputError("correlation", f'unknown kind "{kind}"; valid kinds: {", ".join(_REGISTRIES)}')
-    registry = _REGISTRIES[kind]
-    if name not in registry:
-        hint = closest_names(name, registry)
-        valid = ", ".join(registry)
-        message = f'unknown {kind} correlation "{name}"; valid names: {valid}'
-        if hint.startswith("did you mean"):
-            message += f" ({hint})"
-        raise InputError("correlation", message)
-    return registry[name]

@@ -168,9 +168,9 @@ def inner_film_warnings(
     prandtl = prandtl_number(viscosity_pa_s, heat_capacity_j_kgk, conductivity_w_mk)
     reynolds, prandtl = np.broadcast_arrays(reynolds, prandtl)
     total = reynolds.size
-    from pipeins.physics.convection import validity
+    from pipeins.physics.correlations import lookup
 
-    record = validity("internal", "pipe")
+    record = lookup("pipe", "any", "internal")
     re_turbulent, re_high = record.ranges["Re"]
     pr_low, pr_high = record.ranges["Pr"]
     found = []

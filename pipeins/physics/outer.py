@@ -32,10 +32,12 @@ natural value is used alone.
 
 from __future__ import annotations
 
+from functools import lru_cache
+
 import numpy as np
 
 from pipeins.errors import InputError
-from pipeins.physics import convection as cv
+from pipeins.physics import correlations as registry
 
 __all__ = [
     "STANDARD_GRAVITY_M_S2",
@@ -46,10 +48,22 @@ __all__ = [
 
 #: Standard acceleration of gravity [m/s²] (CGPM 1901, exact).
 STANDARD_GRAVITY_M_S2 = 9.80665
-#: Valid orientations for each geometry.
-GEOMETRIES = {"cylinder": ("horizontal", "vertical"), "flat": ("vertical", "top", "bottom")}
+#: Valid orientations for each geometry (from the correlation registry).
+GEOMETRIES = registry.geometries("natural")
 
 _LOW_RA_MIN_DELTA_K = 1.0  # low-Rayleigh warnings only where |Ts - Ta| exceeds this
+
+
+@lru_cache(maxsize=None)
+def _rules(geometry, orientation):
+    """(hot-side natural, cold-side natural, forced, mixing) records of a geometry/orientation."""
+    return tuple(registry.lookup(geometry, orientation, kind, side)
+                 for kind, side in (("natural", "hot"), ("natural", "cold"), ("forced", "any"), ("mixing", "any")))
+
+
+def _choices(names):
+    quoted = [f'"{x}"' for x in names]
+    return quoted[0] if len(quoted) == 1 else ", ".join(quoted[:-1]) + " or " + quoted[-1]
 
 
 def _outer_film(
@@ -66,11 +80,12 @@ def _outer_film(
     from pipeins.props.air import TEMP_RANGE_C, air_properties
 
     if geometry not in GEOMETRIES:
-        raise InputError("--geometry", f'unknown geometry "{geometry}"; use "cylinder" or "flat"')
+        raise InputError("--geometry", f'unknown geometry "{geometry}"; use {_choices(GEOMETRIES)}')
     allowed = GEOMETRIES[geometry]
     if orientation not in allowed:
         names = ", ".join(f'"{x}"' for x in allowed)
         raise InputError("--orientation", f'"{orientation}" is not an orientation of a {geometry}; use {names}')
+    hot_rule, cold_rule, forced_rule, mixing_rule = _rules(geometry, orientation)
 
     surface_temp_c, air_temp_c, length_m, wind_m_s, pressure_pa = np.broadcast_arrays(
         *(np.asarray(x, dtype=float) for x in (surface_temp_c, air_temp_c, characteristic_length_m, wind_speed_m_s, pressure_pa))
@@ -86,8 +101,8 @@ def _outer_film(
     if not np.all(surface_temp_c > -273.15):
         raise InputError("surface_temp_c", "must be above -273.15 °C")
 
-    vertical = orientation == "vertical"
-    if vertical:
+    on_height = hot_rule.length == "height"
+    if on_height:
         if height_m is None:
             raise InputError("--height", "a vertical run needs its height in m (greater than 0)")
         height_m = np.asarray(height_m, dtype=float)
@@ -106,103 +121,43 @@ def _outer_film(
     # g * beta * dT / (nu * alpha), beta = 1 / T_film (ideal gas); times L^3 gives Ra_L
     buoyancy_per_m3 = STANDARD_GRAVITY_M_S2 * delta_k / (film_temp_k * nu * alpha)
 
-    notes = []  # (mask, what, consequence) for the warnings, bounds from the correlations' records
-    g = cv.group_text
+    notes = []  # (mask, what, consequence) for the warnings, from the records' ranges
 
-    natural_length_m = height_m if vertical else length_m
+    natural_length_m = height_m if on_height else length_m
     rayleigh = buoyancy_per_m3 * natural_length_m**3
-    if geometry == "cylinder" and not vertical:
-        nusselt_natural = cv.nusselt_horizontal_cylinder_churchill_chu(rayleigh, pr)
-        if collect_warnings:
-            top = cv.validity("natural", "horizontal_cylinder").bound("Ra", 1)
-            notes.append((rayleigh > top, f"Rayleigh number above {g(top)}",
-                          "beyond the Churchill & Chu (1975) horizontal-cylinder range; extrapolated"))
-    elif geometry == "cylinder":
-        # Correction applied everywhere (it tends to 1 for thick cylinders): the heat flow
-        # must be continuous in the surface temperature for the solver's bracket to close.
-        nusselt_natural = cv.nusselt_vertical_cylinder_popiel_churchill(rayleigh, pr, height_m, length_m,
-                                                                        plate_when_thick=False)
-        if collect_warnings:
-            thin = cv.vertical_cylinder_is_thin(rayleigh, pr, height_m, length_m)
-            plate_top = cv.validity("natural", "vertical_plate").bound("Ra", 1)
-            popiel = cv.validity("natural", "vertical_cylinder")
-            low, high = popiel.ranges["Ra"]
-            tallest = popiel.bound("H/D", 1)
-            notes += [
-                (~thin & (rayleigh > plate_top), f"Rayleigh number on the height above {g(plate_top)}",
-                 "beyond the Churchill & Chu (1975) vertical-plate range; extrapolated"),
-                (thin & (rayleigh > high), f"slender vertical cylinder with Rayleigh number on the height above {g(high)}",
-                 "beyond the Popiel (2007) curvature-correction range; extrapolated"),
-                (thin & (rayleigh < low) & (delta_k > _LOW_RA_MIN_DELTA_K),
-                 f"slender vertical cylinder with Rayleigh number on the height below {g(low)}",
-                 f"Popiel (2007) correction held at its Ra = {g(low)} value"),
-                (thin & (height_m / length_m > tallest), f"vertical cylinder taller than {g(tallest)} diameters",
-                 "beyond the Popiel (2007) curvature-correction range; extrapolated"),
-            ]
-    elif vertical:
-        nusselt_natural = cv.nusselt_vertical_plate_churchill_chu(rayleigh, pr)
-        if collect_warnings:
-            top = cv.validity("natural", "vertical_plate").bound("Ra", 1)
-            notes.append((rayleigh > top, f"Rayleigh number on the height above {g(top)}",
-                          "beyond the Churchill & Chu (1975) vertical-plate range; extrapolated"))
+    groups = {"Ra": rayleigh, "Pr": pr, "H": height_m, "D": length_m}
+    if hot_rule is cold_rule:
+        sides = ((hot_rule, True),)
+        nusselt_natural = hot_rule.evaluate(groups)
     else:
         hot = surface_temp_c > air_temp_c
-        enhanced = hot if orientation == "top" else ~hot
-        nusselt_natural = np.where(
-            enhanced, cv.nusselt_horizontal_plate_up_mcadams(rayleigh), cv.nusselt_horizontal_plate_down_mcadams(rayleigh)
-        )
-        if collect_warnings:
-            big = delta_k > _LOW_RA_MIN_DELTA_K
-            up_low, up_high = cv.validity("natural", "horizontal_plate_up").ranges["Ra"]
-            down_low, down_high = cv.validity("natural", "horizontal_plate_down").ranges["Ra"]
-            notes += [
-                (enhanced & (rayleigh > up_high),
-                 f"Rayleigh number above {g(up_high)} on a horizontal face (enhanced case)",
-                 "beyond the McAdams range; extrapolated"),
-                (enhanced & (rayleigh < up_low) & big,
-                 f"Rayleigh number below {g(up_low)} on a horizontal face (enhanced case)",
-                 "below the McAdams range; extrapolated"),
-                (~enhanced & (rayleigh > down_high),
-                 f"Rayleigh number above {g(down_high)} on a horizontal face (reduced case)",
-                 "beyond the McAdams range; extrapolated"),
-                (~enhanced & (rayleigh < down_low) & big,
-                 f"Rayleigh number below {g(down_low)} on a horizontal face (reduced case)",
-                 "below the McAdams range; extrapolated"),
-            ]
+        sides = ((hot_rule, hot), (cold_rule, ~hot))
+        nusselt_natural = np.where(hot, hot_rule.evaluate(groups), cold_rule.evaluate(groups))
+    if collect_warnings:
+        quiet = {"Ra": delta_k > _LOW_RA_MIN_DELTA_K}
+        for rule, where in sorted(sides, key=lambda pair: registry.CORRELATIONS.index(pair[0])):
+            values = {"Ra": rayleigh}
+            if "H/D" in rule.ranges:
+                values["H/D"] = height_m / length_m
+            own = rule.in_regime(groups)
+            if rule.base is not None:
+                notes += registry.by_key(rule.base).excursions(values, where & ~own, quiet)
+            notes += rule.excursions(values, where & own, quiet)
     h_natural = nusselt_natural * k / natural_length_m
 
     windy = wind_m_s > 0.0
     if np.any(windy):
         reynolds = wind_m_s * length_m / nu
-        if geometry == "cylinder":
-            nusselt_forced = cv.nusselt_cylinder_crossflow_churchill_bernstein(reynolds, pr)
-            if collect_warnings:
-                cross = cv.validity("forced", "cylinder_crossflow")
-                lowest, highest = cross.bound("RePr", 0), cross.bound("Re", 1)
-                notes += [
-                    (windy & (reynolds * pr < lowest), f"Re·Pr below {g(lowest)} in cross flow",
-                     "below the Churchill & Bernstein (1977) range; extrapolated"),
-                    (windy & (reynolds > highest), f"Reynolds number above {g(highest)} in cross flow",
-                     "beyond the Churchill & Bernstein (1977) range; extrapolated"),
-                ]
-        else:
-            nusselt_forced = cv.nusselt_flat_plate_pohlhausen_colburn(reynolds, pr)
-            if collect_warnings:
-                highest = cv.validity("forced", "flat_plate").bound("Re", 1)
-                notes.append((windy & (reynolds > highest), f"Reynolds number above {g(highest)} along a flat face",
-                              "beyond the flat-plate correlation range; extrapolated"))
-        nusselt_natural_on_length = h_natural * length_m / k
-        h_mixed = cv.nusselt_mixed_churchill(nusselt_forced, nusselt_natural_on_length) * k / length_m
+        nusselt_forced = forced_rule.evaluate({"Re": reynolds, "Pr": pr})
         if collect_warnings:
-            # Gr/Re² on the common length: natural and forced both matter between 0.1 and 10
-            # (common practice; Incropera et al., 6th ed., sec. 9.9, puts the mixed regime at Gr/Re² ≈ 1)
+            notes += forced_rule.excursions({"Re": reynolds, "RePr": reynolds * pr}, windy)
+        nusselt_natural_on_length = h_natural * length_m / k
+        h_mixed = mixing_rule.evaluate({"NuF": nusselt_forced, "NuN": nusselt_natural_on_length}) * k / length_m
+        if collect_warnings:
+            # Gr/Re² on the common length: natural and forced both matter between the record's bounds
             with np.errstate(divide="ignore", invalid="ignore"):
                 richardson = buoyancy_per_m3 * length_m**3 * alpha / nu / np.maximum(reynolds, 1e-300) ** 2
-            low, high = cv.validity("mixed", "churchill").ranges["Gr/Re2"]
-            notes.append((windy & (richardson > low) & (richardson < high) & (delta_k > _LOW_RA_MIN_DELTA_K),
-                          f"mixed convection (Gr/Re² between {g(low)} and {g(high)})",
-                          "natural and forced combined as Nu³ = Nu_F³ + Nu_N³ (Churchill 1977); "
-                          "less certain than either alone"))
+            notes += mixing_rule.notices({"Gr/Re2": richardson}, windy & (delta_k > _LOW_RA_MIN_DELTA_K))
         h = np.where(windy, h_mixed, h_natural)
     else:
         h = h_natural
