@@ -109,3 +109,15 @@ def test_solver_on_a_sphere_with_k_of_t_matches_the_radial_heat_equation():
     sol = solve_ivp(lambda rr, tt: -q / (4 * math.pi * rr**2 * fit.conductivity(tt)), (r1, r2), [t_bore],
                     rtol=1e-11, atol=1e-11)
     assert sol.y[0, -1] == pytest.approx(ts, abs=1e-5)
+
+
+def test_worked_example_liquid_nitrogen_sphere():
+    # Incropera, DeWitt et al., Fundamentals of Heat and Mass Transfer, 6th ed., Ch. 3: a thin
+    # metal sphere of 0.5 m holding liquid nitrogen at 77 K, 25 mm of evacuated reflective
+    # insulation (k = 0.0017 W/(m·K)), air at 300 K with h = 20 W/(m²·K): heat gain 13.06 W and
+    # a boil-off of about 5.6 kg/day at h_fg = 2e5 J/kg (values from memory).
+    r = solve(_SphereSection(0.5, 1e-4, 1e6), [Layer(lookup_material("k=0.0017"), 0.025)],
+              Fluid(77.0 - 273.15), Surroundings(300.0 - 273.15), Surface(fixed_coefficient_w_m2k=20.0))
+    q = float(r.heat_flow_w_per_m)
+    assert q == pytest.approx(-13.06, abs=0.005)  # negative: a heat gain
+    assert -q / 2e5 * 86400 == pytest.approx(5.64, abs=0.01)
