@@ -51,6 +51,7 @@ def test_hydraulic_diameter_is_4a_over_p():
     ("600x400parsecs", '--duct: "600x400parsecs": unknown length unit "parsecs"; write the sides in mm, cm, m, in or ft, '
                        'e.g. 600x400mm, 24x16in, 450mm or 18in'),
     ("600x400x300mm", '--duct: "600x400x300mm" has more than two sides; use e.g. 600x400mm, 24x16in, 450mm or 18in'),
+    ("1e400x1mm", '--duct: "1e400x1mm": every duct side must be a finite number; use e.g. 600x400mm, 24x16in, 450mm or 18in'),
     ("wide", '--duct: cannot read "wide" as a duct size; use e.g. 600x400mm, 24x16in, 450mm or 18in'),
     ("", "--duct: the duct size is missing; use e.g. 600x400mm, 24x16in, 450mm or 18in"),
     ("900x100mm", '--duct: "900x100mm" has sides 9:1; the per-face duct model takes at most 1:8 (corner conduction '

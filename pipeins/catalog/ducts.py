@@ -108,6 +108,8 @@ def _side(text: str, unit: str, units: str, shown: str) -> float:
     try:
         value = parse_quantity(text + unit, "diameter", _OPTION, units, what="a duct side")
     except InputError as exc:
+        if "not a finite" in exc.message:
+            raise InputError(_OPTION, f'"{shown}": every duct side must be a finite number; use e.g. {_EXAMPLES}') from None
         if "cannot read" not in exc.message:
             raise
         raise InputError(_OPTION, f'"{shown}": unknown length unit "{unit}"; write the sides in mm, cm, m, '
