@@ -54,8 +54,8 @@ def test_hydraulic_diameter_is_4a_over_p():
     ("1e400x1mm", '--duct: "1e400x1mm": every duct side must be a finite number; use e.g. 600x400mm, 24x16in, 450mm or 18in'),
     ("wide", '--duct: cannot read "wide" as a duct size; use e.g. 600x400mm, 24x16in, 450mm or 18in'),
     ("", "--duct: the duct size is missing; use e.g. 600x400mm, 24x16in, 450mm or 18in"),
-    ("900x100mm", '--duct: "900x100mm" has sides 9:1; the per-face duct model takes at most 1:8 (corner conduction '
-                  "is neglected and the laminar inner film is tabulated to 1:8); split the duct or model it as flat faces"),
+    ("900x100mm", '--duct: "900x100mm" has sides 9:1; the per-face duct model takes at most 1:8 (its laminar inner-film '
+                  "values are tabulated to 1:8; ducts are rarely made flatter than 1:4); model it as flat faces"),
 ])
 def test_bad_duct_sizes_are_one_line_errors(text, message):
     with pytest.raises(InputError) as exc:

@@ -13,15 +13,14 @@
 
 Aspect ratio
 ------------
-A rectangular duct is solved as four plane faces (top, two sides, bottom), each with its
-own outer film and the width of the face; the corners are not modelled (the two-dimensional
-conduction at a corner adds heat flow the plane faces do not see, and it grows as a face
-becomes narrow against the insulation thickness), and the laminar inner film uses the
-fully developed rectangular-duct values of Shah and London, which the usual tables give
-from a square to 1:8.  :data:`MAX_ASPECT_RATIO` = 8 (long side at most eight times the
-short side) is therefore the limit; SMACNA-style duct construction practice rarely goes
-beyond 4:1 for the same duct (common practice).  A flatter section is refused with that
-reason.
+A rectangular duct is solved as four faces (top, two sides, bottom), each with its own
+outer film and its width (the corners by the mean-width rule of the strip shape,
+:mod:`pipeins.geometry.strip`); the laminar inner film uses the fully developed
+rectangular-duct values of Shah and London, which the usual tables give from a square to
+1:8 (Incropera et al., 6th ed., Table 8.1).  :data:`MAX_ASPECT_RATIO` = 8 (long side at
+most eight times the short side) is therefore the limit of the duct model; duct
+construction practice rarely goes beyond 1:4 (common practice).  A flatter section is
+refused with that reason: model it as flat faces instead.
 """
 
 from __future__ import annotations
@@ -39,7 +38,7 @@ __all__ = ["DuctSize", "SheetMaterial", "MAX_ASPECT_RATIO", "parse_duct_size", "
            "WRAP_COMPRESSION_PERCENT", "WrapThickness", "installed_wrap", "nominal_wrap_thickness_m"]
 
 #: Largest long-side / short-side ratio of a rectangular duct the per-face model takes
-#: (see the module notes: corner conduction neglected, laminar inner-film values tabulated to 1:8).
+#: (see the module notes: the laminar inner-film values are tabulated to 1:8).
 MAX_ASPECT_RATIO = 8.0
 #: Sheet material assumed when none is given.
 DEFAULT_SHEET = "galvanised_steel"
@@ -160,7 +159,7 @@ def parse_duct_size(text, units: str = "si") -> DuctSize:
     >>> parse_duct_size("900x100mm")
     Traceback (most recent call last):
     ...
-    pipeins.errors.InputError: --duct: "900x100mm" has sides 9:1; the per-face duct model takes at most 1:8 (corner conduction is neglected and the laminar inner film is tabulated to 1:8); split the duct or model it as flat faces
+    pipeins.errors.InputError: --duct: "900x100mm" has sides 9:1; the per-face duct model takes at most 1:8 (its laminar inner-film values are tabulated to 1:8; ducts are rarely made flatter than 1:4); model it as flat faces
     """
     shown = "" if text is None else str(text).strip()
     if not shown:
@@ -186,8 +185,8 @@ def parse_duct_size(text, units: str = "si") -> DuctSize:
     if size.aspect_ratio > MAX_ASPECT_RATIO * (1 + 1e-12):
         ratio = f"{size.aspect_ratio:.3g}"
         raise InputError(_OPTION, f'"{shown_safe}" has sides {ratio}:1; the per-face duct model takes at most '
-                                  f"1:{MAX_ASPECT_RATIO:g} (corner conduction is neglected and the laminar inner "
-                                  f"film is tabulated to 1:{MAX_ASPECT_RATIO:g}); split the duct or model it as flat faces")
+                                  f"1:{MAX_ASPECT_RATIO:g} (its laminar inner-film values are tabulated to 1:{MAX_ASPECT_RATIO:g}; "
+                                  f"ducts are rarely made flatter than 1:4); model it as flat faces")
     return size
 
 
