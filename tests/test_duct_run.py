@@ -147,3 +147,38 @@ def test_leaving_air_lies_between_entry_and_surroundings(t0, ta, ua, mdot, lengt
     low, high = min(t0, ta), max(t0, ta)
     assert low - 1e-9 <= float(run.leaving_temp_c) <= high + 1e-9
     assert float(run.leaving_temp_c) == pytest.approx(closed_form_c(t0, ta, ua, length, mdot), abs=0.01)
+
+
+def test_round_duct_run_with_the_solver():
+    # A round duct is one cylinder patch: 450 mm galvanised duct (24 ga), 50 mm wrap at 25 %
+    # compression, supply air at 13 °C through a 32 °C plant space, inner film from the duct air.
+    # The march (RK4 of full solves) and the temperature quadrature of max_length_m are two
+    # independent integrations of the same q'(T); they must agree, and the energy must balance.
+    from pipeins.catalog import ducts
+    from pipeins.catalog.materials import lookup_material
+    from pipeins.model import Fluid, Layer, Pipe, Surroundings
+    from pipeins.physics.duct_inner import duct_inner_film
+    from pipeins.solve import solve
+
+    sheet = ducts.lookup_sheet("galvanised steel")
+    wall = ducts.gauge_thickness_m(24)
+    size = ducts.parse_duct_size("450mm")
+    duct = Pipe(size.diameter_m + 2 * wall, wall, sheet.conductivity_w_mk)
+    wrap = ducts.installed_wrap(0.050)
+    layers = [Layer(lookup_material("k=0.040"), float(wrap.installed_thickness_m))]
+    flow = parse_quantity("2500 m3/h", "flow")
+    mdot = float(duct_run.air_mass_flow_kg_s(flow, 13.0))
+    h_inner = float(duct_inner_film(size.diameter_m, None, 13.0, flow=flow).h_w_m2k)
+    around = Surroundings(32.0)
+
+    def q(temp_c):
+        return solve(duct, layers, Fluid(temp_c, h_inner), around).heat_flow_w_per_m
+
+    length = float(duct_run.max_length_m(q, 13.0, mdot, 0.5, 32.0))
+    run = duct_run.temperature_along_duct(q, 13.0, mdot, length, 32.0)
+    assert float(run.temp_change_k) == pytest.approx(0.5, abs=0.002)
+    cp = float(air_properties(13.25).heat_capacity_j_kgk)
+    assert float(run.heat_flow_w) == pytest.approx(-mdot * cp * 0.5, rel=2e-3)
+    # by hand: R' = ln(526.4/451.4)/(2π·0.040) + 1/(≈7.5·π·0.526) + 1/(h_i·π·0.45) ≈ 0.61 + 0.08 + 0.07
+    # m·K/W, so a gain of about 19 K / 0.76 = 25 W/m
+    assert float(run.heat_flow_w_per_m[0]) == pytest.approx(-25.0, rel=0.1)
