@@ -201,6 +201,9 @@ CLI_ONLY = {
     "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--joints-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--materials": "a user's materials file for one checked line (pipeins.user_materials); not yet a project-file input",
+    "--valve": "fittings as objects on one line (pipeins.fittings); a project line counts valves (equivalent lengths)",
+    "--flange": "fittings as objects on one line (pipeins.fittings); a project line counts flanges (equivalent lengths)",
+    "--cover": "removable covers of one line's fittings (pipeins.fittings); not yet a project-file input",
 }
 #: Project-file keys with no command-line option, and why.
 FILE_ONLY = {

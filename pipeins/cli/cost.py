@@ -5,6 +5,7 @@ from __future__ import annotations
 import click
 
 from .energy_options import basis_from_options, energy_options
+from .field_options import fitting_options
 from .options import emit, line_options, output_options, plot_option, spec_from_options
 
 
@@ -15,10 +16,11 @@ from .options import emit, line_options, output_options, plot_option, spec_from_
 @click.option("--strainers", default=0, type=click.IntRange(min=0, max=1_000_000), help="Bare strainers on the run (count).")
 @click.option("--profile", help='Operating profile instead of --fluid-temp/--hours: "TEMP:HOURS,…", '
                                  'e.g. "82C:3000h,70C:2500h,55C:1500h".')
+@fitting_options
 @energy_options
 @output_options
 @plot_option
-def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
+def cost(fmt, units, output, valves, flanges, strainers, profile, valve, flange, cover, **opts):
     """Annual energy, cost and CO2 of a line: bare against insulated, and the economic thickness.
 
     The line is solved bare (the pipe's own surface, no insulation) and with its --layer
@@ -30,7 +32,9 @@ def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
     cost curve of the outer layer's material over the thicknesses the table lists is
     printed too (installed cost, present value of energy over --years at
     --discount-rate, and total), so the flat bottom of the curve is visible. Bare valves,
-    flanges and strainers count as equivalent lengths of bare pipe.
+    flanges and strainers count as equivalent lengths of bare pipe. Fittings given as objects
+    (--valve KIND:SIZE[:CLASS], --flange SIZE[:CLASS], with --cover MATERIAL:THICKNESS) are
+    solved with their own film, as in check, and priced bare against covered apart from the pipe.
 
     \b
     Example:
@@ -68,5 +72,48 @@ def cost(fmt, units, output, valves, flanges, strainers, profile, **opts):
     basis = basis_from_options(opts, units, need_price=True)
     study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers}, conditions)
     report = cost_report(study, units)
+    if valve or flange or cover:
+        _add_fittings(report, spec, basis, conditions, dict(valve=valve, flange=flange, cover=cover), units)
     report.charts = cost_charts(study)
     emit(report, fmt, units, output)
+
+
+def _add_fittings(report, spec, basis, conditions, field, units):
+    """The fittings given as objects, bare against covered over the year (JSON ``fittings``,
+    ``fittings_year``)."""
+    from dataclasses import replace
+
+    import numpy as np
+
+    from ..annual import split_figures
+    from ..fittings import solve_fittings
+    from ..reports.field import fittings_cost_table, fittings_table
+    from .field_options import parse_fittings
+
+    fittings, cover = parse_fittings(field, units)
+    weights = None
+    if conditions:
+        hours = np.array([h for _, h in conditions])
+        spec = replace(spec, fluid_temp_c=np.array([t for t, _ in conditions]), steam_pressure_pa=None)
+        basis = replace(basis, hours_per_year=hours)
+        weights = hours / hours.sum()
+    fits = solve_fittings(spec, fittings, cover, weights)
+
+    def year(w):
+        if w is None:
+            return None
+        fig = split_figures(np.sum(w, axis=0), basis, weights)
+        return {k: ({d: (None if v is None else float(np.asarray(v))) for d, v in x.items()} if isinstance(x, dict)
+                    else float(np.asarray(x))) for k, x in fig.items()}
+
+    bare, covered = year(fits.bare_heat_flow_w), year(fits.covered_heat_flow_w)
+    currency = basis.price.currency if basis.price is not None else ""
+    report.tables += [fittings_table(fits, units), fittings_cost_table(fits, bare, covered, units, currency)]
+    data = fits.to_dict()
+    report.data["fittings"] = data["fittings"]
+    report.data["fittings_totals"] = data["totals"]
+    report.data["fittings_year"] = {"bare": bare, "covered": covered}
+    for text in fits.warnings:
+        if text not in report.warnings:
+            report.warnings.append(text)
+    report.data["warnings"] = report.warnings

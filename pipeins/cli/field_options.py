@@ -1,5 +1,5 @@
-"""Field-condition options of ``check``: heat tracing and buried lines (more to come:
-fittings, user materials).
+"""Field-condition options of ``check``: heat tracing, buried lines, fittings and user
+materials (:data:`FITTING_OPTIONS` also on ``cost``).
 
 :func:`field_options` adds the options; :func:`pop_field_options` takes their text out of
 the command's options before the line is built; :func:`field_line` turns the line into the
@@ -12,7 +12,22 @@ from __future__ import annotations
 
 import click
 
-__all__ = ["field_options", "pop_field_options", "field_line", "add_field_sections", "FIELD_FLAGS"]
+__all__ = ["field_options", "fitting_options", "pop_field_options", "field_line", "add_field_sections",
+           "parse_fittings", "FIELD_FLAGS", "FITTING_FLAGS"]
+
+FITTING_OPTIONS = [
+    click.option("--valve", "valve", multiple=True, metavar="KIND:SIZE[:CLASS]",
+                 help="A bare valve on the line, repeatable: KIND gate, globe, ball, butterfly, check or strainer; "
+                      'SIZE as the catalogue names it (DN50, "NPS 2"); CLASS PN16, PN40, 150 or 300 (default '
+                      "PN16 for DN, class 150 for NPS), e.g. gate:DN50:PN40 (tables/fitting_areas.csv)."),
+    click.option("--flange", "flange", multiple=True, metavar="SIZE[:CLASS]",
+                 help="A bare flanged joint (a pair of flanges) on the line, repeatable, e.g. DN100 or \"NPS 4:300\"."),
+    click.option("--cover", metavar="MATERIAL:THICKNESS",
+                 help='Insulated removable cover on every --valve and --flange, e.g. "mineral wool:50mm": '
+                      "the covered heat flow and the saving."),
+]
+#: click destinations of the fitting options.
+FITTING_FLAGS = ("valve", "flange", "cover")
 
 FIELD_OPTIONS = [
     click.option("--maintain-temp", help="Heat tracing: the temperature the tracer must hold, e.g. 5C; "
@@ -34,10 +49,10 @@ FIELD_OPTIONS = [
     click.option("--ageing-factor", help="Design conductivity: allowance for ageing, percent, e.g. 10 %."),
     click.option("--moisture-factor", help="Design conductivity: allowance for moisture in service, percent."),
     click.option("--joints-factor", help="Design conductivity: allowance for joints and gaps, percent."),
-]
+] + FITTING_OPTIONS
 #: click destinations of the options above.
 FIELD_FLAGS = ("maintain_temp", "min_ambient", "safety_factor", "tracer_output", "buried", "soil_k", "soil",
-               "ground_temp", "materials", "ageing_factor", "moisture_factor", "joints_factor")
+               "ground_temp", "materials", "ageing_factor", "moisture_factor", "joints_factor") + FITTING_FLAGS
 _WORDS = {"maintain_temp_c": "--maintain-temp", "safety_factor_percent": "--safety-factor",
           "tracer_output_w_per_m": "--tracer-output", "depth_m": "--buried", "soil_k_w_mk": "--soil-k",
           "soil": "--soil", "outer_h_w_m2k": "--outer-h", "ageing_percent": "--ageing-factor",
@@ -48,6 +63,54 @@ def field_options(func):
     for option in reversed(FIELD_OPTIONS):
         func = option(func)
     return func
+
+
+def fitting_options(func):
+    """Add ``--valve``, ``--flange`` and ``--cover`` (for commands without the other field options)."""
+    for option in reversed(FITTING_OPTIONS):
+        func = option(func)
+    return func
+
+
+def parse_fittings(field: dict, units: str):
+    """``(fittings, cover)`` of the fitting options' text in *field*: catalogue fittings in the
+    order given (``--valve`` first), and the cover ``(material, thickness_m)`` or None."""
+    from ..catalog.fittings import lookup_fitting
+    from ..errors import InputError
+
+    fittings = []
+    for text in field.get("valve") or ():
+        kind, sep, rest = str(text).partition(":")
+        if not sep or not rest.strip():
+            raise InputError("--valve", f'"{text}" needs KIND:SIZE[:CLASS], e.g. gate:DN50 or globe:"NPS 2":300')
+        size, _, cls = rest.partition(":")
+        from ..catalog.fittings import VALVE_KINDS
+
+        if kind.strip().lower() == "flange":
+            raise InputError("--valve", "a flanged joint is --flange SIZE[:CLASS]")
+        if kind.strip().lower() not in VALVE_KINDS + ("strainer",):
+            raise InputError("--valve", f'unknown fitting kind "{kind.strip()}"; known: '
+                                        f'{", ".join(VALVE_KINDS + ("strainer",))}')
+        fittings.append(lookup_fitting(kind, size, cls or None, "--valve"))
+    for text in field.get("flange") or ():
+        size, _, cls = str(text).partition(":")
+        if not size.strip():
+            raise InputError("--flange", f'"{text}" needs SIZE[:CLASS], e.g. DN100 or "NPS 4:300"')
+        fittings.append(lookup_fitting("flange", size, cls or None, "--flange"))
+    cover = None
+    if field.get("cover") is not None:
+        if not fittings:
+            raise InputError("--cover", "covers the fittings: give --valve or --flange too")
+        from ..inputs import parse_layer
+
+        cover = parse_layer(field["cover"], units, "--cover")
+        from ..catalog.materials import lookup_material
+
+        try:
+            lookup_material(cover[0])
+        except InputError as exc:
+            raise InputError("--cover", exc.message) from None
+    return fittings, cover
 
 
 def pop_field_options(opts: dict, units: str = "si") -> dict:
@@ -152,6 +215,16 @@ def add_field_sections(report, spec, field: dict, units: str) -> None:
         report.warnings.extend(w for w in info["warnings"] if w not in report.warnings)
         report.data["warnings"] = report.warnings
 
+    fittings, cover = parse_fittings(field, units)
+    if fittings:
+        if field.get("_buried") is not None:
+            raise InputError("--valve" if field.get("valve") else "--flange",
+                             "fittings are solved in air: a buried line's fittings (in a chamber) are not modelled")
+        from ..fittings import solve_fittings
+        from ..reports.field import add_fittings
+
+        add_fittings(report, spec, solve_fittings(spec, fittings, cover), units)
+
     maintain = q("maintain_temp", "temperature")
     others = [n for n in ("min_ambient", "safety_factor", "tracer_output") if field.get(n) is not None]
     if maintain is None:
@@ -163,9 +236,17 @@ def add_field_sections(report, spec, field: dict, units: str) -> None:
     sf = q("safety_factor", "percent")
     output = q("tracer_output", "heat_flow_per_length")
     words = _WORDS
+    fittings_w = None
+    if fittings:  # the fittings allowance: bare or covered as given, at the tracing conditions
+        from ..fittings import solve_fittings
+        from ..tracing import tracing_spec
+
+        at_design = solve_fittings(tracing_spec(spec, maintain, q("min_ambient", "temperature")), fittings, cover)
+        fittings_w = at_design.total_bare_w if cover is None else at_design.total_covered_w
     try:
         design = design_heat_loss(spec, maintain, DEFAULT_SAFETY_FACTOR_PERCENT if sf is None else sf,
-                                  min_ambient_c=q("min_ambient", "temperature"), tracer_output_w_per_m=output)
+                                  min_ambient_c=q("min_ambient", "temperature"), tracer_output_w_per_m=output,
+                                  fittings_heat_loss_w=fittings_w)
     except InputError as exc:
         if exc.name in words:
             raise InputError(words[exc.name], exc.message.replace("minimum design ambient",

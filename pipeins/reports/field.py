@@ -1,12 +1,15 @@
-"""Report sections of the field conditions on a checked line: heat tracing (and, as they
-land, buried lines, fittings and user materials).  Each returns a :class:`Table` of
+"""Report sections of the field conditions on a checked line: heat tracing, buried lines,
+fittings (bare and covered, apart from the pipe) and user materials.  Each returns a :class:`Table` of
 (item, value) rows in the chosen unit system."""
 
 from __future__ import annotations
 
+import numpy as np
+
 from . import Column, Table
 
-__all__ = ["tracing_table", "buried_table", "materials_table"]
+__all__ = ["tracing_table", "buried_table", "materials_table", "fittings_table", "add_fittings",
+           "fittings_cost_table"]
 
 
 def _rows_table(title: str, rows, note: str = "") -> Table:
@@ -104,3 +107,103 @@ def materials_table(report, info: dict, units: str):
                                                                    Column("declared k"), Column("design k")],
                   rows, note=note)
     return table, data
+
+
+#: Area shown per unit system: (label, m² of one display unit).
+_AREA = {"si": ("m²", 1.0), "us": ("ft²", 0.3048**2)}
+
+
+def fittings_table(fits, units: str, pipe_note: str = "") -> Table:
+    """The fittings of a line (a :class:`pipeins.fittings.FittingsResult`): each bare and,
+    with a cover, covered and the saving; a total row.  Apart from the pipe's results."""
+    label, per = _AREA[units]
+    covered = fits.covered_heat_flow_w is not None
+    gain = fits.total_bare_w < 0
+    word = "heat gain" if gain else "heat loss"
+    sign = -1.0 if gain else 1.0
+    cols = [Column("fitting"), Column("bare area", digits=3 if units == "si" else 2, unit=label),
+            Column(f"bare {word}", "power"), Column("bare surface", "temperature")]
+    if covered:
+        cols += [Column(f"covered {word}", "power"), Column("cover surface", "temperature"),
+                 Column("saving", "power"), Column("saving", digits=0, unit="%")]
+    rows = []
+    for item in fits.items:
+        f = item.fitting
+        row = [f.label, f.area_m2 / per, sign * item.heat_flow_w, item.surface_temp_c]
+        if covered:
+            saving = item.saving_w
+            row += [sign * item.covered_heat_flow_w, item.covered_surface_temp_c, sign * saving,
+                    100.0 * saving / item.heat_flow_w if item.heat_flow_w else None]
+        rows.append(row)
+    if len(fits.items) > 1:
+        total = ["total", sum(i.fitting.area_m2 for i in fits.items) / per, sign * fits.total_bare_w, None]
+        if covered:
+            saving = fits.total_bare_w - fits.total_covered_w
+            total += [sign * fits.total_covered_w, None, sign * saving,
+                      100.0 * saving / fits.total_bare_w if fits.total_bare_w else None]
+        rows.append(total)
+    note = f"Method: {fits.method}. Bare surface: {fits.bare_surface}."
+    if covered:
+        from ..units import format_quantity as fq
+
+        note += (f" Cover: {fits.cover_material}, {fq(fits.cover_thickness_m, 'thickness', units)}, "
+                 f"outer face {fits.cover_surface}; saving = bare − covered.")
+    note += (" Areas from tables/fitting_areas.csv (dimensions from memory: check the maker's drawing). "
+             "The fittings are not in the pipe's heat flow above." + (f" {pipe_note}" if pipe_note else ""))
+    return Table("Fittings, bare and covered" if covered else "Fittings, bare", cols, rows, note=note)
+
+
+def add_fittings(report, spec, fits, units: str) -> None:
+    """Add the fittings table, the JSON keys ``fittings`` (list) and ``fittings_totals``, and
+    the touch warnings of hot bare fittings to a check *report*; its CSV carries the fittings."""
+    from ..units import format_quantity as fq
+
+    q = report.data.get("heat_flow_w_per_m")
+    pipe_note = "" if q is None else (f"Pipe: {fq(float(q), 'heat_flow_per_length', units)}, surface "
+                                      f"{fq(float(report.data['surface_temp_c']), 'temperature', units)}.")
+    report.tables.append(fittings_table(fits, units, pipe_note))
+    report.csv_table = len(report.tables) - 1
+    data = fits.to_dict()
+    report.data["fittings"] = data["fittings"]
+    report.data["fittings_totals"] = data["totals"]
+    limit = spec.touch_limit_c
+    if limit is not None and np.ndim(limit) == 0:
+        for item in fits.items:
+            for what, t in (("bare", item.surface_temp_c), ("covered", item.covered_surface_temp_c)):
+                if t is not None and t > float(limit):
+                    text = (f"{what} {item.fitting.label}: surface {fq(t, 'temperature', units)} is above the touch "
+                            f"limit of {fq(float(limit), 'temperature', units)}: guard or cover it")
+                    if text not in report.warnings:
+                        report.warnings.append(text)
+    for text in fits.warnings:
+        if text not in report.warnings:
+            report.warnings.append(text)
+    report.data["warnings"] = report.warnings
+
+
+def fittings_cost_table(fits, bare_fig: dict, covered_fig: dict | None, units: str, currency: str = "") -> Table:
+    """Energy and cost per year of the fittings bare and covered (figures of
+    :func:`pipeins.annual.split_figures`), heat loss and heat gain apart."""
+    from ..units import to_display, unit_label
+
+    rows = []
+    for duty, key in (("heating", "heat_loss_w"), ("cooling", "heat_gain_w")):
+        figs = [("bare", bare_fig)] + ([("covered", covered_fig)] if covered_fig is not None else [])
+        if not any(float(f[key]) > 0 for _, f in figs):
+            continue
+        values = []
+        for what, f in figs:
+            d = f[duty]
+            values.append([f"{what} ({'heat loss' if duty == 'heating' else 'heat gain'})", float(f[key]),
+                           float(to_display(d["energy_j"], "energy", units)),
+                           None if d["cost"] is None else round(float(d["cost"]), 2)])
+        if len(values) == 2:
+            b, c = values
+            values.append(["saving", b[1] - c[1], b[2] - c[2], None if b[3] is None else round(b[3] - c[3], 2)])
+        rows += values
+    cols = [Column("fittings"), Column("heat flow", "power"),
+            Column("energy per year", digits=0 if units == "si" else 2, unit=unit_label("energy", units),
+                   grouped=True),
+            Column("cost per year", digits=2, unit=currency or "currency", grouped=True)]
+    return Table("Fittings over the year", cols, rows,
+                 note="Fittings solved as objects (check --valve/--flange): " + fits.method + ".")
