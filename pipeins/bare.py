@@ -49,10 +49,18 @@ def bare_surface(pipe: Pipe | str, surface: Surface | None = None) -> Surface:
     from .catalog.finishes import lookup_finish
     from .catalog.materials import lookup_wall_material
 
+    if getattr(pipe, "bare_finish", None):  # a duct, face or vessel: its sheet's bare finish
+        finish = lookup_finish(pipe.bare_finish)
+        out = Surface(finish.emittance, f"bare {pipe.wall_material}", finish.surface_kind,
+                      solar_absorptance=finish.solar_absorptance)
+        if surface is not None and surface.fixed_coefficient_w_m2k is not None:
+            out = replace(out, fixed_coefficient_w_m2k=surface.fixed_coefficient_w_m2k, name="fixed outer coefficient")
+        return out
     name = pipe.wall_material if isinstance(pipe, Pipe) else pipe
     wall = lookup_wall_material(name)
     finish = lookup_finish(wall.bare_finish)
-    out = Surface(finish.emittance, f"bare {wall.name} pipe", wall.surface_kind)
+    out = Surface(finish.emittance, f"bare {wall.name} pipe", wall.surface_kind,
+                  solar_absorptance=finish.solar_absorptance)
     if surface is not None and surface.fixed_coefficient_w_m2k is not None:
         out = replace(out, fixed_coefficient_w_m2k=surface.fixed_coefficient_w_m2k, name="fixed outer coefficient")
     return out

@@ -79,6 +79,22 @@ PARAMS: tuple[Param, ...] = (
     Param("pipe_material", "--pipe-material", "pipe_material", _SL, "text", "pipe wall material",
           "by pipe kind (carbon steel, copper)"),
     Param("length_m", "--length", "length", _L, "length", "run length [m]", "(required in the file)", 0.0, None, True),
+    # -- sections other than a pipe -------------------------------------------------------
+    Param("duct", "--duct", None, (), "text", 'duct size: rectangular "600x400mm", "24x16in"; round "450mm"', ""),
+    Param("sheet", "--sheet", None, (), "text", "sheet metal of a duct, face or vessel wall: galvanised steel, "
+          "aluminium, stainless steel", "galvanised steel"),
+    Param("face", "--face", None, (), "choice", "a flat face by its outward normal: vertical (a wall), up (a top), "
+          "down (an underside); film length --height (vertical) or --length (up, down)", "",
+          choices=("vertical", "up", "down")),
+    Param("sphere_diameter_m", "--sphere", None, (), "diameter", "outside diameter of a spherical vessel [m]", "",
+          0.0, 100.0, True),
+    Param("vessel", "--vessel", None, (), "choice", "a cylindrical vessel by its axis, with --diameter, --length "
+          "and --heads", "", choices=("vertical", "horizontal")),
+    Param("vessel_diameter_m", "--diameter", None, (), "diameter", "outside diameter of a vessel shell [m]", "",
+          0.0, 100.0, True),
+    Param("heads", "--heads", None, (), "choice", "vessel heads", "flat", choices=("flat", "2:1", "hemispherical")),
+    Param("floor", "--floor", None, (), "text", 'a vertical tank\'s floor: "air" (a head in the air, the default), '
+          '"ground:TEMP" (on a foundation to the ground at TEMP)', "air"),
     # -- the fluid -----------------------------------------------------------------------
     Param("fluid_temp_c", "--fluid-temp", "temperature", _S, "temperature", "fluid temperature [°C]",
           "(this or steam_pressure)"),
@@ -107,6 +123,10 @@ PARAMS: tuple[Param, ...] = (
           0.0, None, True),
     Param("altitude_m", "--altitude", "altitude", _C, "length", "site altitude instead of air_pressure "
           "(standard atmosphere) [m]", "0 m", -500.0, 11_000.0),
+    Param("solar_w_m2", "--solar", None, (), "heat_flux", "solar irradiance on a surface normal to the sun "
+          "[W/m²] (absorbed on the projected area; not at night)", "none", 0.0, 1400.0),
+    Param("absorptance", "--absorptance", None, (), "number", "solar absorptance of the outer surface (0 to 1)",
+          "the finish's", 0.0, 1.0),
     Param("outer_h_w_m2k", "--outer-h", "outer_h", _C, "heat_transfer_coefficient",
           "fixed combined outer coefficient, replaces convection and radiation [W/(m²·K)]", "", 0.1, 1e4),
     # -- the build-up --------------------------------------------------------------------
@@ -200,6 +220,16 @@ CLI_ONLY = {
     "--ageing-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--joints-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
+    "--duct": "a duct checked, sized or tabulated on the command line; the schedule lists pipes",
+    "--sheet": "the sheet-metal wall of a duct, face or vessel on the command line; the schedule lists pipes",
+    "--face": "a flat face checked or sized on the command line; the schedule lists pipes",
+    "--sphere": "a spherical vessel checked or sized on the command line; the schedule lists pipes",
+    "--vessel": "a cylindrical vessel checked or sized on the command line; the schedule lists pipes",
+    "--diameter": "a cylindrical vessel's diameter on the command line; the schedule lists pipes",
+    "--heads": "a cylindrical vessel's heads on the command line; the schedule lists pipes",
+    "--floor": "a vertical tank's floor on the command line; the schedule lists pipes",
+    "--solar": "sun on one checked or sized line or section; not yet a project-file input",
+    "--absorptance": "sun on one checked or sized line or section; not yet a project-file input",
     "--materials": "a user's materials file for one checked line (pipeins.user_materials); not yet a project-file input",
     "--valve": "fittings as objects on one line (pipeins.fittings); a project line counts valves (equivalent lengths)",
     "--flange": "fittings as objects on one line (pipeins.fittings); a project line counts flanges (equivalent lengths)",
@@ -436,10 +466,46 @@ def check_line(given: dict) -> list[tuple[str, str]]:
                 out.append(("outer_h_w_m2k", "a fixed outer coefficient replaces convection and radiation; "
                                              f"drop {other}"))
                 break
+    kinds = [n for n in ("pipe", "outer_diameter_m", "duct", "face", "sphere_diameter_m", "vessel") if has(n)]
+    if len(kinds) > 1 and kinds[:2] != ["pipe", "outer_diameter_m"]:
+        out.append((kinds[1], f"give one section: {kinds[0]} or {kinds[1]}, not both"))
+    if has("vessel") and not has("vessel_diameter_m"):
+        out.append(("vessel_diameter_m", "a vessel needs its diameter"))
+    if has("vessel") and not has("length_m"):
+        out.append(("length_m", "a vessel needs its length (the shell's, tangent to tangent)"))
+    for n in ("vessel_diameter_m", "heads", "floor"):
+        if has(n) and not has("vessel"):
+            out.append((n, f"{n} belongs to a vessel; add {{vessel}} vertical or horizontal"))
+    if has("floor") and given.get("vessel") == "horizontal":
+        out.append(("floor", "a horizontal vessel has two heads, no floor; drop {floor}"))
+    if has("absorptance") and not has("solar_w_m2"):
+        out.append(("absorptance", "the absorptance applies with sun; add solar_w_m2"))
+    if has("face"):
+        if given["face"] == "vertical" and not has("height_m"):
+            out.append(("height_m", "a vertical face needs its height (the film length)"))
+        if given["face"] in ("up", "down") and not has("length_m"):
+            out.append(("length_m", "a horizontal face needs its length along the film (area/perimeter, or the "
+                                    "short side)"))
+        if given["face"] in ("up", "down") and has("height_m"):
+            out.append(("height_m", "the height applies to a vertical face; a horizontal one takes length_m"))
+        if (given.get("orientation") or "horizontal") == "vertical":
+            out.append(("orientation", "a face has its own facing ({face}); drop {orientation}"))
+        return out + [x for x in _common_rules(given, has)]
+    if has("vessel"):
+        if has("orientation") and given.get("orientation") not in (None, "horizontal"):
+            out.append(("orientation", "a vessel has its own axis ({vessel}); drop {orientation}"))
+        return out + [x for x in _common_rules(given, has)]
+    if has("sphere_diameter_m"):
+        return out + [x for x in _common_rules(given, has)]
     if has("height_m") and (given.get("orientation") or "horizontal") != "vertical":
         out.append(("height_m", "the height applies to a vertical run; add {orientation} vertical"))
     if (given.get("orientation") == "vertical") and not has("height_m"):
         out.append(("height_m", "a vertical run needs its height"))
+    return out + _common_rules(given, has)
+
+
+def _common_rules(given, has) -> list:
+    out = []
     if has("pressure_pa") and has("altitude_m"):
         out.append(("altitude_m", "give pressure_pa or altitude_m, not both"))
     if has("fluid_temp_c") and has("steam_pressure_pa"):
@@ -454,7 +520,9 @@ def check_line(given: dict) -> list[tuple[str, str]]:
 LINE_PARAMS = ("pipe", "schedule", "outer_diameter_m", "wall_m", "pipe_material", "layers", "fluid_temp_c",
                "steam_pressure_pa", "fluid", "velocity_m_s", "flow", "inner_h_w_m2k", "air_temp_c",
                "surroundings_temp_c", "rh_percent", "wind_m_s", "orientation", "height_m", "pressure_pa",
-               "altitude_m", "finish", "emittance", "outer_h_w_m2k", "touch_limit_c", "length_m")
+               "altitude_m", "finish", "emittance", "outer_h_w_m2k", "touch_limit_c", "length_m",
+               "duct", "sheet", "face", "sphere_diameter_m", "vessel", "vessel_diameter_m", "heads", "floor",
+               "solar_w_m2", "absorptance")
 #: Parameters of the sizing requirements (:class:`pipeins.criteria.Requirements`).
 REQUIREMENT_PARAMS = ("touch", "touch_limit_c", "contact_time_s", "dew_margin_k", "max_heat_flow_w_per_m",
                       "min_reduction", "max_temp_change_k", "hold_time_s", "ice_fraction",

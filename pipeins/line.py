@@ -64,7 +64,15 @@ NUMERIC_FIELDS = {
     "outer_h_w_m2k": ("W/(m²·K)", 10.0, None),
     "touch_limit_c": ("°C", 60.0, None),
     "length_m": ("m", 120.0, None),
+    "sphere_diameter_m": ("m", 2.5, 100.0),
+    "vessel_diameter_m": ("m", 3.0, 100.0),
+    "solar_w_m2": ("W/m²", 800.0, None),
+    "absorptance": ("(0 to 1)", 0.6, None),
 }
+#: Section kinds by the field that gives them.
+SECTION_FIELDS = {"duct": "duct", "face": "face", "sphere_diameter_m": "sphere", "vessel": "vessel"}
+#: Face words (the outward normal) → the flat face's facing.
+FACE_WORDS = {"vertical": "vertical", "up": "top", "down": "bottom"}
 #: The largest layer thickness, outside diameter or wall [m] taken as meant: more is
 #: almost always a number in millimetres given as metres.
 MAX_THICKNESS_M = 2.0
@@ -167,6 +175,19 @@ class LineSpec:
     outer_h_w_m2k: Any = None
     touch_limit_c: Any = DEFAULT_TOUCH_LIMIT_C
     length_m: Any = None
+    #: Sections other than a pipe: a duct size text, a face's outward normal, a sphere's
+    #: diameter [m], a cylindrical vessel's axis with its diameter [m], heads and floor.
+    duct: str | None = None
+    sheet: str | None = None
+    face: str | None = None
+    sphere_diameter_m: Any = None
+    vessel: str | None = None
+    vessel_diameter_m: Any = None
+    heads: str | None = None
+    floor: str | None = None
+    #: Solar irradiance [W/m²] on a surface normal to the sun, and the surface's absorptance.
+    solar_w_m2: Any = None
+    absorptance: Any = None
     #: True when a front end has already read the RH by the percent rule (a value at or below
     #: 1 % was written with its % sign): the fraction guard below then stands aside.
     rh_as_written: bool = False
@@ -207,6 +228,46 @@ class LineSpec:
             raise InputError("shape", f"the arrays do not broadcast together: {described}") from None
 
     # -- the pieces -------------------------------------------------------------------
+    @property
+    def section_kind(self) -> str:
+        """"pipe", "duct", "face", "sphere" or "vessel"."""
+        for name, kind in SECTION_FIELDS.items():
+            if getattr(self, name) is not None:
+                return kind
+        return "pipe"
+
+    def _sheet(self):
+        from .catalog.ducts import DEFAULT_SHEET, lookup_sheet
+
+        return lookup_sheet(self.sheet or DEFAULT_SHEET)
+
+    def build_section(self):
+        """The duct, face, sphere or vessel of this spec (sheet-metal wall from ``sheet``)."""
+        from . import model
+
+        sheet = self._sheet()
+        wall = self.wall_m if self.wall_m is not None else None
+        common = dict(wall_conductivity_w_mk=sheet.conductivity_w_mk, wall_material=f"{sheet.name} sheet",
+                      bare_finish=sheet.bare_finish)
+        kind = self.section_kind
+        if kind == "duct":
+            from .catalog.ducts import parse_duct_size
+
+            size = parse_duct_size(self.duct)
+            wall = 0.0008 if wall is None else wall
+            if size.kind == "round":
+                return model.RoundDuct(size.diameter_m, wall, label=f"round duct {self.duct}", **common)
+            return model.RectangularDuct(size.width_m, size.height_m, wall, label=f"rectangular duct {self.duct}",
+                                         **common)
+        if kind == "face":
+            facing = FACE_WORDS[self.face]
+            length = self.height_m if facing == "vertical" else self.length_m
+            return model.FlatWall(0.002 if wall is None else wall, length_m=length, face=facing,
+                                  label=f"{self.face} face", **common)
+        from .sections import build_vessel  # sphere and cylindrical vessels
+
+        return build_vessel(self, sheet, 0.006 if wall is None else wall)
+
     def pipe_size(self):
         """The catalogue :class:`PipeSize` (or a custom one from the dimensions); for an
         array of sizes, the first."""
@@ -235,6 +296,8 @@ class LineSpec:
         An array of sizes in ``pipe`` keeps its own shape."""
         from .catalog.materials import default_wall_material, lookup_wall_material
 
+        if sizes is None and self.section_kind != "pipe":
+            return self.build_section()
         if sizes is None:
             sizes = self.pipe_sizes()
             if isinstance(self.pipe, str) or self.pipe is None:
@@ -297,10 +360,23 @@ class LineSpec:
         return Fluid(temp, h, self.fluid_name() or "", notes)
 
     def build_surroundings(self) -> Surroundings:
+        kind = self.section_kind
+        orientation, height = self.orientation, self.height_m
+        if kind in ("face", "sphere"):
+            orientation, height = "horizontal", None  # a face has its own facing and film length
+        elif kind == "vessel":
+            orientation = self.vessel
+            height = self.length_m if self.vessel == "vertical" else None
         return Surroundings(self.air_temp_c, self.surroundings_temp_c, self.wind_m_s, self.rh_percent,
-                            self.pressure_pa, self.orientation, self.height_m)
+                            self.pressure_pa, orientation, height, self.solar_w_m2)
 
     def build_surface(self, insulated: bool | None = None) -> Surface:
+        surface = self._build_surface(insulated)
+        if self.absorptance is not None:
+            surface = replace(surface, solar_absorptance=self.absorptance)
+        return surface
+
+    def _build_surface(self, insulated: bool | None = None) -> Surface:
         """The outer surface: the finish, the emittance, or a fixed coefficient.  Without
         either, a bare pipe (no layers, unless *insulated*) is its own material
         (:func:`pipeins.bare.bare_surface`) and an

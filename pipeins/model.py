@@ -14,10 +14,13 @@ import numpy as np
 
 from .errors import InputError
 
-__all__ = ["Pipe", "FlatWall", "Layer", "Fluid", "Surroundings", "Surface",
+__all__ = ["Pipe", "FlatWall", "RoundDuct", "RectangularDuct", "Layer", "BareLayer", "Fluid", "Surroundings", "Surface",
            "pressure_at_altitude_pa", "STANDARD_PRESSURE_PA"]
 
 STANDARD_PRESSURE_PA = 101_325.0
+#: Largest solar irradiance taken [W/m²]: above the solar constant (about 1361 W/m²,
+#: Kopp & Lean 2011) with a margin; clear-sky irradiance at the ground is near 1000 W/m².
+MAX_SOLAR_W_M2 = 1400.0
 ORIENTATIONS = ("horizontal", "vertical")
 FACES = ("vertical", "top", "bottom")
 
@@ -102,6 +105,8 @@ class FlatWall:
     face: str = "vertical"
     label: str = "flat face"
     wall_material: str = "galvanised steel sheet"
+    #: Finish key of the bare sheet (tables/finishes.csv), for the bare line.
+    bare_finish: str = "galvanised_new"
 
     def __post_init__(self):
         _positive("wall_m", self.wall_m, "wall thickness")
@@ -109,11 +114,132 @@ class FlatWall:
         if self.face not in FACES:
             raise InputError("face", f'unknown face "{self.face}"; use {", ".join(FACES)}')
 
+    kind = "face"
+    basis = "W/m²"
+
     def shape(self, surroundings):
         """The :class:`~pipeins.geometry.Plane` of this face (its own length and facing)."""
         from .geometry.plane import Plane
 
         return Plane(self.length_m, self.face)
+
+    def patches(self, surroundings):
+        """One patch: the face, taken as facing the sun (absorbing on its whole area)."""
+        from .geometry.section import single_patch
+
+        return single_patch("face", self.shape(surroundings), sun_factor=1.0)
+
+
+@dataclass(frozen=True)
+class RoundDuct:
+    """A round sheet-metal duct: outside diameter and sheet thickness [m], sheet conductivity.
+
+    One cylinder patch, heat flow per metre of run (W/m); the sun is absorbed on the
+    projected area (1/π of the surface).
+    """
+
+    outer_diameter_m: Any
+    wall_m: Any = 0.0008
+    wall_conductivity_w_mk: Any = 50.0
+    label: str = "round duct"
+    wall_material: str = "galvanised steel sheet"
+    bare_finish: str = "galvanised_new"
+
+    kind = "round duct"
+    basis = "W/m"
+
+    def __post_init__(self):
+        od = _positive("outer_diameter_m", self.outer_diameter_m, "duct diameter")
+        wall = _positive("wall_m", self.wall_m, "sheet thickness")
+        if np.any(wall >= od / 2):
+            raise InputError("wall_m", "sheet thickness must be less than half the duct diameter")
+        _positive("wall_material", self.wall_conductivity_w_mk, "sheet conductivity")
+
+    @property
+    def inner_diameter_m(self):
+        return np.asarray(self.outer_diameter_m, float) - 2 * np.asarray(self.wall_m, float)
+
+    @property
+    def hydraulic_diameter_m(self):
+        return self.inner_diameter_m
+
+    def shape(self, surroundings):
+        from .geometry.cylinder import Cylinder
+
+        return Cylinder(self.outer_diameter_m, self.wall_m, surroundings.orientation, surroundings.height_m)
+
+    def patches(self, surroundings):
+        from .geometry.section import single_patch
+
+        return single_patch("duct", self.shape(surroundings), sun_factor=1.0 / np.pi)
+
+
+#: Largest side ratio of a rectangular duct the per-face model takes (common practice:
+#: rectangular ducts are made up to about 1:8; flatter ones behave as two plates).
+MAX_DUCT_ASPECT = 8.0
+
+
+@dataclass(frozen=True)
+class RectangularDuct:
+    """A rectangular sheet-metal duct: outside width and height [m], sheet thickness [m].
+
+    Four patches, heat flow per metre of run (W/m).  A horizontal run has a top (facing
+    up), two sides (vertical, film height = the duct height) and a bottom (facing down);
+    the horizontal faces' film length is half their width (area/perimeter of a long
+    strip, McAdams 1954) and the wind's flow length is each face's own width.  A vertical
+    run has four vertical faces on the run height.  Each face is a
+    :class:`~pipeins.geometry.strip.Strip` whose layers widen at the corners (ISO 12241
+    mean perimeter).  The sun is taken overhead on a horizontal run (the top absorbs it,
+    sides and bottom none) and normal to one wide side of a vertical run.
+    """
+
+    width_m: Any
+    height_m: Any
+    wall_m: Any = 0.0008
+    wall_conductivity_w_mk: Any = 50.0
+    label: str = "rectangular duct"
+    wall_material: str = "galvanised steel sheet"
+    bare_finish: str = "galvanised_new"
+
+    kind = "rectangular duct"
+    basis = "W/m"
+
+    def __post_init__(self):
+        w = _positive("width_m", self.width_m, "duct width")
+        h = _positive("height_m", self.height_m, "duct height")
+        _positive("wall_m", self.wall_m, "sheet thickness")
+        _positive("wall_material", self.wall_conductivity_w_mk, "sheet conductivity")
+        ratio = np.maximum(w, h) / np.minimum(w, h)
+        if np.any(ratio > MAX_DUCT_ASPECT):
+            raise InputError("duct", f"side ratio {float(np.max(ratio)):.3g}:1 is beyond the 8:1 the per-face "
+                             "model takes (common practice); solve a flatter duct as two faces")
+
+    @property
+    def hydraulic_diameter_m(self):
+        w = np.asarray(self.width_m, float) - 2 * np.asarray(self.wall_m, float)
+        h = np.asarray(self.height_m, float) - 2 * np.asarray(self.wall_m, float)
+        return 2 * w * h / (w + h)
+
+    @property
+    def perimeter_m(self):
+        return 2 * (np.asarray(self.width_m, float) + np.asarray(self.height_m, float))
+
+    def patches(self, surroundings):
+        from .geometry.section import Patch
+        from .geometry.strip import Strip
+
+        w, h = self.width_m, self.height_m
+        if surroundings.orientation == "vertical":
+            run = surroundings.height_m
+            wide_first = np.all(np.asarray(w) >= np.asarray(h))
+            return [Patch("wide side", Strip(w, w, "vertical", run), 1.0, 1.0 if wide_first else 0.0),
+                    Patch("wide side (back)", Strip(w, w, "vertical", run), 1.0, 0.0),
+                    Patch("narrow sides", Strip(h, h, "vertical", run), 1.0, 0.0 if wide_first else 1.0),
+                    Patch("narrow side (back)", Strip(h, h, "vertical", run), 1.0, 0.0)]
+        half = np.asarray(w, dtype=float) / 2
+        return [Patch("top", Strip(w, half, "top"), 1.0, 1.0),
+                Patch("sides", Strip(h, h, "vertical", h), 1.0, 0.0, count=2),
+                Patch("bottom", Strip(w, half, "bottom"), 1.0, 0.0)]
 
 
 @dataclass(frozen=True)
@@ -177,9 +303,16 @@ class Surroundings:
     pressure_pa: Any = STANDARD_PRESSURE_PA
     orientation: str = "horizontal"
     height_m: Any = None
+    #: Solar irradiance on a surface normal to the sun [W/m²] (None: no sun).
+    solar_irradiance_w_m2: Any = None
 
     def __post_init__(self):
         _temperature("air_temp_c", self.air_temp_c)
+        if self.solar_irradiance_w_m2 is not None:
+            g = _positive("solar_w_m2", self.solar_irradiance_w_m2, "solar irradiance", allow_zero=True)
+            if np.any(g > MAX_SOLAR_W_M2):
+                raise InputError("solar_w_m2", f"solar irradiance must be at most {MAX_SOLAR_W_M2:g} W/m² "
+                                 "(the solar constant is about 1361 W/m²)")
         if self.surroundings_temp_c is not None:
             _temperature("surroundings_temp_c", self.surroundings_temp_c)
         _positive("wind_m_s", self.wind_speed_m_s, "wind speed", allow_zero=True)
@@ -199,6 +332,12 @@ class Surroundings:
     def radiant_temp_c(self):
         return self.air_temp_c if self.surroundings_temp_c is None else self.surroundings_temp_c
 
+    def without_sun(self) -> "Surroundings":
+        """The same surroundings at night (condensation is judged without sun)."""
+        from dataclasses import replace
+
+        return self if self.solar_irradiance_w_m2 is None else replace(self, solar_irradiance_w_m2=None)
+
 
 @dataclass(frozen=True)
 class Surface:
@@ -211,8 +350,14 @@ class Surface:
     surface_kind: str = "non_metallic"
     fixed_coefficient_w_m2k: Any = None
     extra: dict = field(default_factory=dict, compare=False)
+    #: Solar absorptance (0 to 1), used with the surroundings' solar irradiance.
+    solar_absorptance: Any = None
 
     def __post_init__(self):
+        if self.solar_absorptance is not None:
+            a = np.asarray(self.solar_absorptance, dtype=float)
+            if np.any(~np.isfinite(a) | (a < 0) | (a > 1)):
+                raise InputError("absorptance", "solar absorptance must be from 0 to 1")
         e = np.asarray(self.emittance, dtype=float)
         if np.any(~np.isfinite(e) | (e <= 0) | (e > 1)):
             raise InputError("emittance", "emittance must be above 0 and at most 1")
@@ -222,4 +367,4 @@ class Surface:
     @classmethod
     def from_finish(cls, finish) -> "Surface":
         """From a catalogue :class:`~pipeins.catalog.finishes.Finish`."""
-        return cls(finish.emittance, finish.name, finish.surface_kind)
+        return cls(finish.emittance, finish.name, finish.surface_kind, solar_absorptance=finish.solar_absorptance)

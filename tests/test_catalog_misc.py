@@ -24,7 +24,7 @@ ureg = pint.UnitRegistry()
 ALL_TABLES = ["pipes_steel", "pipes_copper", "pipes_metric", "wall_materials", "insulation_materials",
               "finishes", "thickness_series", "touch_limits", "fitting_lengths"]
 TEXT_COLUMNS = {"nps", "nominal", "type", "schedule", "key", "name", "family", "series", "unit",
-                "surface_kind", "fitting", "source", "condition", "aliases", "bare_finish"}
+                "surface_kind", "fitting", "source", "condition", "aliases", "bare_finish", "absorptance_source"}
 
 
 @pytest.mark.parametrize("table", ALL_TABLES)

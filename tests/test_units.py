@@ -450,6 +450,8 @@ DISPLAY_PINT = {
     "volume_flow": ("m**3/s", {"si": "m**3/hour", "us": "gallon/minute"}),
     "energy": ("J", {"si": "kWh", "us": "MMBtu_it"}),
     "power": ("W", {"si": "W", "us": "Btu_it/hour"}),
+    "area": ("m**2", {"si": "m**2", "us": "ft**2"}),
+    "area_per_length": ("m**2/m", {"si": "m**2/m", "us": "ft**2/ft"}),
 }
 ureg.define("MMBtu_it = 1e6 * Btu_it")
 

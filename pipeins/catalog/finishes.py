@@ -50,6 +50,8 @@ class Finish:
         (low, high) emittance the source gives [-].
     aliases : tuple of str
         Other spellings accepted by :func:`lookup_finish`.
+    solar_absorptance : float or None
+        Fraction of solar irradiance absorbed [-] (with ``absorptance_source``).
     """
 
     key: str
@@ -61,6 +63,9 @@ class Finish:
     condition: str = ""
     emittance_range: tuple[float, float] = (0.0, 1.0)
     aliases: tuple[str, ...] = ()
+    #: Solar absorptance [-] (0 to 1) and where it comes from.
+    solar_absorptance: float | None = None
+    absorptance_source: str = ""
 
 
 def _norm(text: str) -> str:
@@ -76,7 +81,8 @@ def _finishes() -> dict[str, Finish]:
         aliases = tuple(a.strip() for a in row["aliases"].split(";") if a.strip())
         out[row["key"]] = Finish(row["key"], row["name"], float(row["emittance"]), row["surface_kind"],
                                  row["source"], row["family"], row["condition"],
-                                 (float(row["emittance_low"]), float(row["emittance_high"])), aliases)
+                                 (float(row["emittance_low"]), float(row["emittance_high"])), aliases,
+                                 float(row["solar_absorptance"]), row["absorptance_source"])
     return out
 
 

@@ -36,6 +36,15 @@ def check(fmt, units, output, **opts):
     field = pop_field_options(opts, units)
     spec = field_line(spec_from_options(opts, units), field, units)
     result = spec.solve()
+    if spec.section_kind != "pipe":
+        from ..reports.section import section_report
+        from ..sections import section_extras
+
+        rows, data, warnings = section_extras(spec, result, units)
+        report = section_report(spec, result, units, rows, data, warnings)
+        add_field_sections(report, spec, field, units)
+        emit(report, fmt, units, output)
+        return
     rows, data, warnings = run_extras(spec, result, units)
     report = check_report(spec, result, units, rows, data, warnings)
     report.charts = check_charts(spec, result)

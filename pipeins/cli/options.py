@@ -52,7 +52,24 @@ LINE_OPTIONS = [
     _opt("--emittance", help="Outer surface emittance (0 to 1) instead of or over --finish."),
     _opt("--outer-h", help="Fixed combined outer coefficient, W/(m²·K): replaces convection and radiation."),
     _opt("--touch-limit", help="Surface temperature limit (default 60 °C, common practice)."),
-    _opt("--length", help="Run length, e.g. 120m (totals, temperature change)."),
+    _opt("--length", help="Run length, e.g. 120m (totals, temperature change); a vessel's shell length; "
+                          "a horizontal face's film length."),
+    _opt("--duct", help='A duct instead of a pipe: rectangular "600x400mm", "24x16in"; round "450mm", "18in".'),
+    _opt("--sheet", help="Sheet metal of a duct, face or vessel wall: galvanised steel (default), aluminium, "
+                         "stainless steel; thickness by --wall."),
+    _opt("--face", type=click.Choice(["vertical", "up", "down"]),
+         help="A flat face by its outward normal: vertical (a wall, with --height), up (a top) or down (an "
+              "underside), with --length; results per m²."),
+    _opt("--sphere", help="A spherical vessel by its outside diameter, e.g. 2.5m; results in W."),
+    _opt("--vessel", type=click.Choice(["vertical", "horizontal"]),
+         help="A cylindrical vessel by its axis, with --diameter, --length and --heads; results in W."),
+    _opt("--diameter", help="Outside diameter of a vessel shell, e.g. 3m."),
+    _opt("--heads", type=click.Choice(["flat", "2:1", "hemispherical"]), help="Vessel heads (default flat)."),
+    _opt("--floor", help='A vertical tank\'s floor: "air" (default, a head in the air) or "ground:TEMP" '
+                         '(on its foundation, to the ground at TEMP, e.g. ground:10C).'),
+    _opt("--solar", help="Solar irradiance on a surface normal to the sun, e.g. 800W/m2 (at most 1400); "
+                         "absorbed on the projected area."),
+    _opt("--absorptance", help="Solar absorptance of the outer surface, 0 to 1 (default: the finish's)."),
 ]
 
 

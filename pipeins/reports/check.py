@@ -22,8 +22,13 @@ def describe_line(spec, result, units: str) -> list[list[str]]:
     fluid, air, surface = result.inputs["fluid"], result.inputs["surroundings"], result.inputs["surface"]
     rows = []
     label = pipe.label or "custom pipe"
-    rows.append(["pipe", f"{label}: OD {fq(_f(pipe.outer_diameter_m), 'diameter', units)}, "
-                         f"wall {fq(_f(pipe.wall_m), 'diameter', units)}, {pipe.wall_material}"])
+    if hasattr(pipe, "kind"):  # a duct, face or vessel
+        from .section import section_text
+
+        rows.append([pipe.kind, section_text(pipe, units)])
+    else:
+        rows.append(["pipe", f"{label}: OD {fq(_f(pipe.outer_diameter_m), 'diameter', units)}, "
+                             f"wall {fq(_f(pipe.wall_m), 'diameter', units)}, {pipe.wall_material}"])
     if spec.steam_pressure_pa is not None:
         what = (f"saturated steam at {fq(spec.steam_pressure_pa, 'pressure', units)} abs, "
                 f"{fq(_f(fluid.temp_c), 'temperature', units)}")
@@ -36,7 +41,7 @@ def describe_line(spec, result, units: str) -> list[list[str]]:
         for j, layer in enumerate(layers, 1):
             rows.append([f"layer {j}", f"{layer.material.name}, {fq(_f(layer.thickness_m), 'thickness', units)}"])
     else:
-        rows.append(["layers", "none (bare pipe)"])
+        rows.append(["layers", "none (bare pipe)" if not hasattr(pipe, "kind") else f"none (bare {pipe.kind})"])
     if surface.fixed_coefficient_w_m2k is not None:
         rows.append(["outer surface", "fixed combined coefficient "
                      f"{fq(_f(surface.fixed_coefficient_w_m2k), 'heat_transfer_coefficient', units)}"])
@@ -46,7 +51,8 @@ def describe_line(spec, result, units: str) -> list[list[str]]:
     air_text = (f"air {fq(_f(air.air_temp_c), 'temperature', units)}, radiant "
                 f"{fq(_f(air.radiant_temp_c), 'temperature', units)}, "
                 + ("still air" if wind == 0 else f"wind {fq(wind, 'speed', units)}")
-                + f", {fq(_f(air.pressure_pa), 'pressure', units)}, {air.orientation}")
+                + f", {fq(_f(air.pressure_pa), 'pressure', units)}"
+                + ("" if getattr(pipe, "kind", "pipe") in ("face", "sphere", "vessel") else f", {air.orientation}"))
     if air.orientation == "vertical":
         air_text += f" over {fq(_f(air.height_m), 'length', units)}"
     if air.relative_humidity_percent is not None:
@@ -68,7 +74,7 @@ def spec_summary(spec, result) -> dict:
     pipe = result.inputs["pipe"]
     return {
         "pipe": pipe.label,
-        "outer_diameter_m": _f(pipe.outer_diameter_m),
+        "outer_diameter_m": _f(getattr(pipe, "outer_diameter_m", None)),
         "wall_m": _f(pipe.wall_m),
         "wall_material": pipe.wall_material,
         "layers": [{"material": l.material.name, "thickness_m": _f(l.thickness_m)}

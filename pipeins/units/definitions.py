@@ -217,6 +217,12 @@ _KINDS: dict[str, _Kind] = {
         {"si": ("W/(m·K)", 1.0),
          "us": ("Btu·in/(h·ft²·°F)",
                 _BTU_IT_J * _INCH_M / _HOUR_S / _FOOT_M**2 / _DEGF_DIFFERENCE_K)}),
+    "area": _Kind(
+        "area", "an", "12m2 or 130ft2", _dim_mul(_LENGTH, _LENGTH),
+        {"si": ("m²", 1.0), "us": ("ft²", _FOOT_M**2)}),
+    "area_per_length": _Kind(
+        "area per length", "an", "2.1m2/m or 6.9ft2/ft", _LENGTH,
+        {"si": ("m²/m", 1.0), "us": ("ft²/ft", _FOOT_M)}),
     "time": _Kind(
         "time", "a", "8760h, 30min or 2d", _TIME,
         {"si": ("h", _HOUR_S), "us": ("h", _HOUR_S)}),
@@ -264,6 +270,8 @@ RANGES: dict[str, tuple[float, float]] = {
     "heat_transfer_coefficient": (-1e9, 1e9),
     "conductivity": (-1e4, 1e4),
     "time": (-1e10, 1e10),
+    "area": (0.0, 1e7),
+    "area_per_length": (0.0, 1e4),
     "percent": (-1000.0, 1000.0),
     "efficiency": (0.01, 1.0),  # checked when read
     "flow": (-1e6, 1e6),
@@ -301,6 +309,8 @@ _DEFAULT_DIGITS = {
     ("heat_transfer_coefficient", "si"): 2, ("heat_transfer_coefficient", "us"): 3,
     ("conductivity", "si"): 4, ("conductivity", "us"): 3,
     ("time", "si"): 0, ("time", "us"): 0,
+    ("area", "si"): 2, ("area", "us"): 1,
+    ("area_per_length", "si"): 3, ("area_per_length", "us"): 2,
     ("percent", "si"): 1, ("percent", "us"): 1,
     ("mass_flow", "si"): 0, ("mass_flow", "us"): 0,
     ("volume_flow", "si"): 2, ("volume_flow", "us"): 1,
