@@ -233,8 +233,12 @@ def test_bad_orientation_and_geometry():
     with pytest.raises(InputError) as info:
         outer_convection_coefficient(60.0, 20.0, 0.1, orientation="horizontal", geometry="flat")
     assert str(info.value) == '--orientation: "horizontal" is not an orientation of a flat; use "vertical", "top", "bottom"'
-    with pytest.raises(InputError, match='--geometry: unknown geometry "sphere"'):
-        outer_convection_coefficient(60.0, 20.0, 0.1, geometry="sphere")
+    with pytest.raises(InputError) as info:
+        outer_convection_coefficient(60.0, 20.0, 0.1, geometry="cone")
+    assert str(info.value) == '--geometry: unknown geometry "cone"; use "cylinder", "flat" or "sphere"'
+    with pytest.raises(InputError) as info:
+        outer_convection_coefficient(60.0, 20.0, 0.1, geometry="sphere")  # the default orientation is a cylinder's
+    assert str(info.value) == '--orientation: "horizontal" is not an orientation of a sphere; use "any"'
 
 
 @pytest.mark.parametrize(

@@ -265,6 +265,14 @@ CORRELATIONS: tuple[Correlation, ...] = (
         source=Source("McAdams", 1954, f"Heat Transmission, 3rd ed., ch. 7, length A/P; {_INCROPERA} Eq. 9.32"),
         range_name="the McAdams range", scope=("", _HORIZONTAL_FACE.format("reduced")))
       for facing, orientation, side in (("up", "top", "cold"), ("down", "bottom", "hot"))),
+    Correlation(
+        # the full form, with Churchill's turbulent term: the laminar form (Incropera Eq. 9.35,
+        # Ra <= 1e11, Pr >= 0.7) is the same within 0.5 % only up to Ra of about 2.5e6
+        key="natural_sphere", function=cv.nusselt_sphere_churchill, geometry="sphere", orientations=("any",),
+        kind="natural", inputs=("Ra", "Pr"), length="diameter", ranges={"Ra": (None, 1.0e13)},
+        source=Source("Churchill", 1983, "Heat Exchanger Design Handbook sec. 2.5.7, laminar and turbulent "
+                                         f"terms (range as documented by ht); laminar form {_INCROPERA} Eq. 9.35"),
+        range_name="the Churchill (1983) sphere range", scope=("", " on a sphere")),
     # ------------------------------------------------------------------ forced
     Correlation(
         key="forced_cylinder_crossflow", function=cv.nusselt_cylinder_crossflow_churchill_bernstein,
@@ -279,6 +287,13 @@ CORRELATIONS: tuple[Correlation, ...] = (
         source=Source("Pohlhausen (1921) and Colburn", 1933, f"laminar and turbulent plate, mixed boundary layer; "
                                                                     f"{_INCROPERA} Eqs. 7.30 and 7.38"),
         range_name="the flat-plate correlation range", scope=("", " along a flat face")),
+    Correlation(
+        # film-temperature properties and a viscosity ratio of 1, as for every outer record
+        key="forced_sphere", function=cv.nusselt_sphere_whitaker, geometry="sphere", orientations=("any",),
+        kind="forced", inputs=("Re", "Pr"), length="diameter",
+        ranges={"Re": (3.5, 7.6e4), "Pr": (0.71, 380.0)},
+        source=Source("Whitaker", 1972, f"AIChE J. 18:361, viscosity ratio taken as 1; {_INCROPERA} Eq. 7.56"),
+        range_name="the Whitaker (1972) sphere range", scope=("", " over a sphere")),
     # ------------------------------------------------------------------ the mixing rule
     Correlation(
         key="mixing_churchill", function=cv.nusselt_mixed_churchill, geometry="any", orientations=("any",),
@@ -374,7 +389,7 @@ def geometries(kind: str = "natural") -> dict[str, tuple[str, ...]]:
     """Each geometry with a *kind* correlation and its orientations, in registry order.
 
     >>> geometries()
-    {'cylinder': ('horizontal', 'vertical'), 'flat': ('vertical', 'top', 'bottom')}
+    {'cylinder': ('horizontal', 'vertical'), 'flat': ('vertical', 'top', 'bottom'), 'sphere': ('any',)}
     """
     found: dict[str, list[str]] = {}
     for record in CORRELATIONS:

@@ -24,6 +24,13 @@ Geometry and length conventions
     bottom) gets the enhanced McAdams form, the other cases the reduced form.
     With wind, ``characteristic_length_m`` is also the flow length for the flat-plate
     forced correlation on every face.
+``geometry="sphere"`` (a spherical vessel or a dished head), ``orientation="any"``:
+    ``characteristic_length_m`` is the outer diameter D.  Natural convection by
+    Churchill (1983) on D (with its turbulent term), wind by Whitaker (1972) on D with
+    film-temperature properties and a viscosity ratio of 1.
+
+Which correlation serves which geometry and orientation, with its range and source, is
+looked up in :mod:`pipeins.physics.correlations`; the warnings come from the same records.
 
 Forced and natural contributions are combined as Nu³ = Nu_F³ + Nu_N³ on a common
 length (:func:`pipeins.physics.convection.nusselt_mixed_churchill`); with no wind the
@@ -206,20 +213,20 @@ def outer_convection_coefficient(
     air_temp_c : float or array_like
         Ambient air temperature [°C].
     characteristic_length_m : float or array_like
-        Outer diameter [m] for a cylinder; area/perimeter [m] for a top or bottom
-        face; flow length [m] for wind along any flat face.  Greater than 0.
+        Outer diameter [m] for a cylinder or a sphere; area/perimeter [m] for a top or
+        bottom face; flow length [m] for wind along any flat face.  Greater than 0.
     wind_speed_m_s : float or array_like, optional
         Wind speed [m/s], 0 or more (0 = still air).
     orientation : str, optional
         ``"horizontal"`` or ``"vertical"`` for a cylinder; ``"vertical"``, ``"top"``
-        or ``"bottom"`` for a flat face.
+        or ``"bottom"`` for a flat face; ``"any"`` for a sphere (:data:`GEOMETRIES`).
     height_m : float or array_like, optional
         Height of a vertical run or face [m]; required (> 0) when orientation is
         ``"vertical"``, ignored otherwise.
     pressure_pa : float or array_like, optional
         Air pressure [Pa] (site altitude), greater than 0.
-    geometry : {"cylinder", "flat"}, optional
-        Pipe (cylinder) or duct face (flat).
+    geometry : {"cylinder", "flat", "sphere"}, optional
+        Pipe or round duct (cylinder), face (flat), or sphere.
 
     Returns
     -------
@@ -235,8 +242,9 @@ def outer_convection_coefficient(
     References
     ----------
     Churchill & Chu (1975a, b); Popiel, Wojtkowiak & Bober (2007); McAdams (1954);
-    Churchill & Bernstein (1977); Churchill (1977).  See
-    :mod:`pipeins.physics.convection` for equations and ranges.
+    Churchill (1983); Churchill & Bernstein (1977); Whitaker (1972); Churchill (1977).
+    See :mod:`pipeins.physics.convection` for equations and
+    :mod:`pipeins.physics.correlations` for the ranges and sources.
 
     Examples
     --------
@@ -246,6 +254,11 @@ def outer_convection_coefficient(
     6.62
     >>> outer_convection_coefficient([40.0, 60.0], 20.0, 0.2, wind_speed_m_s=[0.0, 3.0]).round(2)
     array([ 4.17, 15.32])
+
+    A 2.5 m sphere at 60 °C in still air at 15 °C:
+
+    >>> round(float(outer_convection_coefficient(60.0, 15.0, 2.5, orientation="any", geometry="sphere")), 2)
+    4.43
     """
     h, _ = _outer_film(
         surface_temp_c, air_temp_c, characteristic_length_m, wind_speed_m_s, orientation, height_m, pressure_pa, geometry,
