@@ -93,8 +93,8 @@ PARAMS: tuple[Param, ...] = (
     Param("vessel_diameter_m", "--diameter", None, (), "diameter", "outside diameter of a vessel shell [m]", "",
           0.0, 100.0, True),
     Param("heads", "--heads", None, (), "choice", "vessel heads", "flat", choices=("flat", "2:1", "hemispherical")),
-    Param("floor", "--floor", None, (), "text", 'a vertical tank\'s floor: "air" (a head in the air, the default), '
-          '"ground:TEMP" (on a foundation to the ground at TEMP)', "air"),
+    Param("floor", "--floor", None, (), "text", 'a vertical tank\'s flat floor, bare: "air" (open beneath) or '
+          '"ground:TEMP" (on its foundation to the ground at TEMP)', "an insulated bottom head"),
     # -- the fluid -----------------------------------------------------------------------
     Param("fluid_temp_c", "--fluid-temp", "temperature", _S, "temperature", "fluid temperature [°C]",
           "(this or steam_pressure)"),

@@ -266,7 +266,7 @@ class LineSpec:
                                   label=f"{self.face} face", **common)
         from .sections import build_vessel  # sphere and cylindrical vessels
 
-        return build_vessel(self, sheet, 0.006 if wall is None else wall)
+        return build_vessel(self, sheet if self.sheet else None, wall)
 
     def pipe_size(self):
         """The catalogue :class:`PipeSize` (or a custom one from the dimensions); for an

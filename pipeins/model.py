@@ -14,7 +14,7 @@ import numpy as np
 
 from .errors import InputError
 
-__all__ = ["Pipe", "FlatWall", "RoundDuct", "RectangularDuct", "Layer", "BareLayer", "Fluid", "Surroundings", "Surface",
+__all__ = ["Pipe", "FlatWall", "RoundDuct", "RectangularDuct", "VesselSection", "Layer", "BareLayer", "Fluid", "Surroundings", "Surface",
            "pressure_at_altitude_pa", "STANDARD_PRESSURE_PA"]
 
 STANDARD_PRESSURE_PA = 101_325.0
@@ -240,6 +240,47 @@ class RectangularDuct:
         return [Patch("top", Strip(w, half, "top"), 1.0, 1.0),
                 Patch("sides", Strip(h, h, "vertical", h), 1.0, 0.0, count=2),
                 Patch("bottom", Strip(w, half, "bottom"), 1.0, 0.0)]
+
+
+@dataclass(frozen=True)
+class VesselSection:
+    """A sphere or a cylindrical vessel: its patches (see :mod:`pipeins.geometry.vessel`),
+    heat flow for the whole vessel (W).
+
+    ``kind`` is ``"sphere"`` or ``"vessel"``; ``orientation`` the axis of a cylindrical
+    vessel; ``length_m`` its straight shell length; ``heads`` its head shape; ``floor`` the
+    :class:`~pipeins.geometry.vessel.Floor` of a tank on a foundation (or None).
+    """
+
+    kind: str
+    diameter_m: float
+    wall_m: float
+    wall_conductivity_w_mk: float
+    patch_list: tuple
+    label: str = "vessel"
+    wall_material: str = "carbon steel"
+    bare_finish: str = "steel_oxidised"
+    orientation: str | None = None
+    length_m: float | None = None
+    heads: str | None = None
+    floor: Any = None
+
+    basis = "W"
+
+    def patches(self, surroundings):
+        return list(self.patch_list)
+
+    def describe(self, units: str) -> str:
+        from .units import format_quantity as fq
+
+        d = fq(self.diameter_m, "length", units, digits=2)
+        if self.kind == "sphere":
+            return f"sphere, outside diameter {d}"
+        text = (f"{self.orientation} cylindrical vessel, diameter {d}, shell length "
+                f"{fq(self.length_m, 'length', units, digits=2)}")
+        if self.floor is not None:
+            return text + ", flat roof, floor on its foundation"
+        return text + f", {self.heads} heads"
 
 
 @dataclass(frozen=True)

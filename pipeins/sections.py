@@ -17,9 +17,54 @@ def _one(x):
     return float(np.asarray(x).ravel()[0])
 
 
-def build_vessel(spec, sheet, wall_m):
-    """The sphere or cylindrical vessel of *spec* (see :mod:`pipeins.geometry.vessel`)."""
-    raise InputError("vessel", "spheres and vessels are not available yet")
+def parse_floor(text, units: str = "si"):
+    """``air`` or ``ground:TEMP`` → :class:`~pipeins.geometry.vessel.Floor` (None for None)."""
+    from .geometry.vessel import tank_floor
+
+    if text is None:
+        return None
+    kind, _, temp = str(text).partition(":")
+    kind = kind.strip().lower()
+    if kind == "ground":
+        if not temp.strip():
+            raise InputError("floor", 'a floor on the ground needs the ground temperature: "ground:10C"')
+        from .units import parse_quantity
+
+        return tank_floor("ground", parse_quantity(temp.strip(), "temperature", "floor", units))
+    if temp:
+        raise InputError("floor", f'"{text}" is not a floor; use air or ground:TEMP (e.g. ground:10C)')
+    return tank_floor(kind)
+
+
+def build_vessel(spec, sheet=None, wall_m=None, units: str = "si"):
+    """The sphere or cylindrical vessel of *spec* (see :mod:`pipeins.geometry.vessel`).
+
+    The wall is carbon steel unless *sheet* names a sheet material; its thickness
+    *wall_m* [m] or :data:`~pipeins.geometry.vessel.DEFAULT_WALL_M`.
+    """
+    from .geometry.vessel import DEFAULT_WALL_M, sphere_patches, vessel_patches
+    from .model import VesselSection
+
+    wall = DEFAULT_WALL_M if wall_m is None else wall_m
+    if sheet is None:
+        from .catalog.materials import lookup_wall_material
+
+        steel = lookup_wall_material("carbon steel")
+        k, material, finish = steel.conductivity_w_mk, "carbon steel", steel.bare_finish
+    else:
+        k, material, finish = sheet.conductivity_w_mk, f"{sheet.name}", sheet.bare_finish
+    if spec.section_kind == "sphere":
+        d = float(spec.sphere_diameter_m)
+        specs = sphere_patches(d, wall)
+        return VesselSection("sphere", d, wall, k, tuple(s.to_patch() for s in specs),
+                             f"sphere {d:g} m", material, finish)
+    d, length = float(spec.vessel_diameter_m), float(spec.length_m)
+    floor = parse_floor(spec.floor, units)
+    heads = spec.heads or "flat"
+    specs = vessel_patches(d, length, spec.vessel, heads, floor, wall)
+    return VesselSection("vessel", d, wall, k, tuple(s.to_patch() for s in specs),
+                         f"{spec.vessel} vessel {d:g} m × {length:g} m", material, finish,
+                         spec.vessel, length, heads, floor)
 
 
 def section_extras(spec, result, units: str):
@@ -33,4 +78,49 @@ def section_extras(spec, result, units: str):
         rows.append([f"heat {'loss' if heat >= 0 else 'gain'} over {fq(spec.length_m, 'length', units)}",
                      fq(abs(heat), "power", units)])
         data["heat_flow_w"] = heat
+    if spec.section_kind in ("sphere", "vessel"):
+        _contents_rows(spec, result, units, rows, data, warnings)
     return rows, data, warnings
+
+
+def _contents_rows(spec, result, units, rows, data, warnings):
+    """The stored contents: volume, mass, UA, time constant, initial rate, freeze hold (water)."""
+    from .geometry.vessel import vessel_volume_m3
+    from .units import format_quantity as fq
+    from .vessel_hold import contents_mass_kg, freeze_hold_s
+
+    section = result.inputs["pipe"]
+    inner_d = section.diameter_m - 2 * section.wall_m
+    if section.kind == "sphere":
+        volume = float(np.pi * inner_d**3 / 6)
+    else:
+        volume = float(vessel_volume_m3(inner_d, section.length_m, section.heads, section.floor))
+    fluid = spec.fluid or "water"
+    temp = _one(result.inputs["fluid"].temp_c)
+    air = _one(result.inputs["surroundings"].air_temp_c)
+    q = _one(result.heat_flow)
+    try:
+        mass = float(contents_mass_kg(volume, fluid, temp))
+    except InputError as exc:
+        warnings.append(f"contents hold not worked out: {exc.message}")
+        return
+    from .props.liquids import fluid_properties
+
+    cp = float(fluid_properties(fluid, temp).heat_capacity_j_kgk)
+    rows += [["contents volume (full)", f"{volume:.3g} m³" if units == "si" else f"{volume * 264.172:.4g} US gal"],
+             ["contents mass", f"{mass:,.0f} kg" if units == "si" else f"{mass / 0.45359237:,.0f} lb"]]
+    data.update(contents_volume_m3=volume, contents_mass_kg=mass)
+    if abs(temp - air) > 1e-9 and q != 0.0:
+        ua = q / (temp - air)
+        tau = mass * cp / ua
+        rate = q / (mass * cp) * 3600.0
+        rows += [["overall UA", f"{ua:.4g} W/K" if units == "si" else f"{ua * 3600 / 1055.05585 / 1.8:.4g} Btu/(h·°F)"],
+                 ["time constant m·cp/UA (lumped, UA fixed)", fq(tau, "time", units)],
+                 ["contents temperature change at the start", fq(-rate, "temperature_difference", units, digits=3) + "/h"]]
+        data.update(ua_w_k=ua, time_constant_s=tau, initial_rate_k_per_h=-rate)
+        if fluid == "water" and air < 0.0 < temp:
+            hold = float(freeze_hold_s(mass, ua, temp, air))
+            rows.append(["hours until water starts to freeze (lumped, UA fixed)", fq(hold, "time", units)])
+            data["freeze_start_h"] = hold / 3600.0
+            warnings.append("freeze hold is a lumped estimate for still, mixed contents; local codes and licensed "
+                            "practice govern freeze protection")

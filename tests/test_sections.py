@@ -170,3 +170,37 @@ def test_cli_bad_section_input_is_one_line(run, args, word):
     assert code == 2 and out == ""
     lines = [l for l in err.splitlines() if l.startswith("Error:")]
     assert lines and word in lines[0], err
+
+
+def test_cli_vessel_parts_add_up_and_floor_is_stated(run):
+    code, out, err = run("check", "--vessel", "vertical", "--diameter", "3m", "--length", "5m", "--floor", "ground:8C",
+                         "--fluid-temp", "60C", "--ambient-temp", "10C", "--layer", "mineral wool:75mm",
+                         "--format", "json")
+    assert code == 0, err
+    d = json.loads(out)
+    assert d["kind"] == "vessel" and "heat_flow_w" in d
+    assert [p["name"] for p in d["patches"]] == ["shell", "roof", "floor"]
+    assert all("area_m2" in p for p in d["patches"])
+    assert sum(p["heat_flow_w"] for p in d["patches"]) == pytest.approx(d["heat_flow_w"], abs=1e-6)
+    floor = d["patches"][2]
+    assert "ground at 8 °C" in floor["boundary"]
+    # the floor (against the ground) never governs: the hottest exposed part does
+    assert d["surface_temp_c"] == max(p["surface_temp_c"] for p in d["patches"][:2])
+    # lumped contents: UA = Q/(T − Ta), time constant m·cp/UA (hand check of the shown numbers)
+    assert d["ua_w_k"] == pytest.approx(d["heat_flow_w"] / 50.0, rel=1e-12)
+    assert d["time_constant_s"] * d["ua_w_k"] == pytest.approx(d["contents_mass_kg"] * 4185.0, rel=0.01)
+
+
+@pytest.mark.parametrize("args, word", [
+    (("--vessel", "horizontal", "--diameter", "3m", "--length", "5m", "--floor", "air"), "--floor"),
+    (("--vessel", "vertical", "--diameter", "3m"), "--length"),
+    (("--vessel", "vertical", "--length", "3m"), "--diameter"),
+    (("--heads", "2:1",), "--heads"),
+    (("--vessel", "vertical", "--diameter", "3m", "--length", "4m", "--floor", "ground"), "--floor"),
+    (("--vessel", "vertical", "--diameter", "3m", "--length", "4m", "--floor", "mud"), "--floor"),
+])
+def test_cli_bad_vessel_input_is_one_line(run, args, word):
+    code, out, err = run("check", *args, "--fluid-temp", "40C", "--layer", "k=0.040:25mm")
+    assert code == 2 and out == ""
+    lines = [l for l in err.splitlines() if l.startswith("Error:")]
+    assert lines and word in lines[0], err

@@ -65,8 +65,9 @@ LINE_OPTIONS = [
          help="A cylindrical vessel by its axis, with --diameter, --length and --heads; results in W."),
     _opt("--diameter", help="Outside diameter of a vessel shell, e.g. 3m."),
     _opt("--heads", type=click.Choice(["flat", "2:1", "hemispherical"]), help="Vessel heads (default flat)."),
-    _opt("--floor", help='A vertical tank\'s floor: "air" (default, a head in the air) or "ground:TEMP" '
-                         '(on its foundation, to the ground at TEMP, e.g. ground:10C).'),
+    _opt("--floor", help='A vertical tank standing on a flat floor: "air" (bare, open beneath) or "ground:TEMP" '
+                         '(bare, on its foundation to the ground at TEMP, e.g. ground:10C); without it the '
+                         'bottom head is insulated like the rest.'),
     _opt("--solar", help="Solar irradiance on a surface normal to the sun, e.g. 800W/m2 (at most 1400); "
                          "absorbed on the projected area."),
     _opt("--absorptance", help="Solar absorptance of the outer surface, 0 to 1 (default: the finish's)."),
