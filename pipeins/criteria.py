@@ -145,7 +145,7 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
     if req.tracer_output_w_per_m is not None:
         from .tracing import tracer_criterion
 
-        criteria.append(tracer_criterion(req, fluid_cold, float(np.max(air))))
+        criteria.append(tracer_criterion(req, fluid_cold, float(np.max(air)), units))
     return criteria, notes
 
 

@@ -41,9 +41,17 @@ import numpy as np
 
 from .errors import InputError
 from .model import Fluid, Layer
-from .sizing import Criterion
+from .sizing import Criterion, _in
 
-__all__ = ["FreezeResult", "freeze_times", "FreezeHold"]
+__all__ = ["FreezeResult", "freeze_times", "FreezeHold", "TracedAlternative", "traced_alternatives",
+           "PRACTICAL_FREEZE_THICKNESS_M", "FREEZE_MAINTAIN_TEMP_C"]
+
+#: Thickness above which insulation alone is taken as an impractical freeze protection [m]:
+#: common practice (pipe sections and covers beyond about 100 mm are rare, heavy and costly on
+#: small lines; heat tracing is then the usual answer).
+PRACTICAL_FREEZE_THICKNESS_M = 0.100
+#: Maintain temperature of freeze-protection tracing [°C]: common practice (5 °C / 40 °F), from memory.
+FREEZE_MAINTAIN_TEMP_C = 5.0
 
 
 @dataclass
@@ -196,8 +204,11 @@ class FreezeHold(Criterion):
         if not 0 <= self.ice_fraction <= 1:
             raise InputError("--ice-fraction", "the ice fraction must be from 0 (first ice) to 1 (frozen solid)")
 
-    def _what(self) -> str:
-        return "reaches 0 °C" if self.ice_fraction == 0 else f"is {100 * self.ice_fraction:g} % ice"
+    def _what(self, units: str | None = None) -> str:
+        from .units import format_quantity
+
+        zero = format_quantity(0.0, "temperature", units or self.units, 0)
+        return f"reaches {zero}" if self.ice_fraction == 0 else f"is {100 * self.ice_fraction:g} % ice"
 
     def margin(self, problem, result, thickness_m):
         t = np.asarray(thickness_m, dtype=float)
@@ -209,13 +220,75 @@ class FreezeHold(Criterion):
         return (times.time_to_ice_fraction_s - self.hold_time_s) / self.hold_time_s
 
     def describe(self, units="si"):
-        return f"still water holds {_hours(self.hold_time_s)} before it {self._what()}"
+        return f"still water holds {_hours(self.hold_time_s)} before it {self._what(units)}"
 
     def state_text(self, margin):
         return f"holds {_hours(self.hold_time_s * (1 + margin))} before it {self._what()}"
 
     def miss(self, margin, thickness_m):
         reached = self.hold_time_s * (1 + margin)
-        return (f"freeze protection cannot be met: with {thickness_m * 1000:.0f} mm still water "
+        thick = _in(self.units, thickness_m, "thickness", f"{thickness_m * 1000:.0f} mm")
+        return (f"freeze protection cannot be met: with {thick} still water "
                 f"{self._what()} after {_hours(reached)}, {_hours(self.hold_time_s - reached)} short of "
                 f"the {_hours(self.hold_time_s)} hold time")
+
+
+@dataclass(frozen=True)
+class TracedAlternative:
+    """Heat tracing offered where the freeze hold needs an impractical thickness (SI).
+
+    ``code`` names the note; ``required_m`` is the thickness the hold time needs (inf where no
+    thickness holds it), above ``practical_limit_m``.  The design heat loss is that of
+    :func:`pipeins.tracing.design_heat_loss` for the line insulated with ``thickness_m`` of
+    ``material`` (the practical limit) held at ``maintain_temp_c`` against its own air.
+    """
+
+    size: str
+    required_m: float
+    practical_limit_m: float
+    material: str
+    thickness_m: float
+    maintain_temp_c: float
+    min_ambient_c: float
+    safety_factor_percent: float
+    design_heat_loss_w_per_m: float
+    code: str = "freeze_traced_alternative"
+
+    def to_dict(self) -> dict:
+        out = dict(self.__dict__)
+        out["required_m"] = None if not np.isfinite(self.required_m) else self.required_m
+        return out
+
+
+def traced_alternatives(selection, practical_limit_m: float = PRACTICAL_FREEZE_THICKNESS_M,
+                        maintain_temp_c: float = FREEZE_MAINTAIN_TEMP_C) -> list[TracedAlternative]:
+    """The traced alternative for every size of a :class:`pipeins.selection.Selection` whose
+    freeze hold needs more than *practical_limit_m* [m] (empty without a freeze criterion)."""
+    from dataclasses import replace
+
+    from .tracing import DEFAULT_SAFETY_FACTOR_PERCENT, design_heat_loss
+
+    freeze = next((c for c in selection.outcome.criteria if c.key == "freeze"), None)
+    if freeze is None:
+        return []
+    spec, material = selection.spec, selection.material
+    out = []
+    for i, size in enumerate(selection.sizes):
+        required = float(np.ravel(freeze.required_m)[i])
+        if not required > practical_limit_m:
+            continue
+        if size.kind in ("steel", "copper", "metric"):
+            where = dict(pipe=size.label, schedule=size.schedule if size.kind == "steel" else None,
+                         outer_diameter_m=None, wall_m=None)
+        else:
+            where = dict(pipe=None, schedule=None, outer_diameter_m=size.outer_diameter_m, wall_m=size.wall_m)
+        line = replace(spec, **where, layers=tuple(spec.layers) + ((material.key, practical_limit_m),),
+                       length_m=None)
+        air = float(np.max(line.air_temp_c))
+        if not maintain_temp_c > air:
+            continue
+        design = design_heat_loss(line, maintain_temp_c, DEFAULT_SAFETY_FACTOR_PERCENT)
+        out.append(TracedAlternative(size.label, required, practical_limit_m, material.name, practical_limit_m,
+                                     maintain_temp_c, design.min_ambient_c, design.safety_factor_percent,
+                                     design.design_heat_loss_w_per_m))
+    return out

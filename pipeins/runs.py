@@ -382,10 +382,20 @@ class TempChange(Criterion):
                 f"over {fq(self.length_m, 'length', units)}")
 
     def state_text(self, margin):
-        return f"changes by {self.max_change_k - margin:.2f} K over {self.length_m:g} m (limit {self.max_change_k:g} K)"
+        from .sizing import _in
+
+        u, change, dk = self.units, self.max_change_k - margin, "temperature_difference"
+        return (f"changes by {_in(u, change, dk, f'{change:.2f} K')} over "
+                f"{_in(u, self.length_m, 'length', f'{self.length_m:g} m')} "
+                f"(limit {_in(u, self.max_change_k, dk, f'{self.max_change_k:g} K')})")
 
     def miss(self, margin, thickness_m):
-        change = self.max_change_k - margin
-        return (f"temperature change cannot be met: with {thickness_m * 1000:.0f} mm the fluid still "
-                f"changes by {change:.1f} K over {self.length_m:g} m, {-margin:.1f} K more than the "
-                f"{self.max_change_k:g} K limit")
+        from .sizing import _in
+
+        u, change, dk = self.units, self.max_change_k - margin, "temperature_difference"
+        return (f"temperature change cannot be met: with "
+                f"{_in(u, thickness_m, 'thickness', f'{thickness_m * 1000:.0f} mm')} the fluid still "
+                f"changes by {_in(u, change, dk, f'{change:.1f} K')} over "
+                f"{_in(u, self.length_m, 'length', f'{self.length_m:g} m')}, "
+                f"{_in(u, -margin, dk, f'{-margin:.1f} K')} more than the "
+                f"{_in(u, self.max_change_k, dk, f'{self.max_change_k:g} K')} limit")

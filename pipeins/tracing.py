@@ -47,11 +47,23 @@ def check_safety_factor(percent: float) -> float:
     return float(percent)
 
 
-def check_tracer_output(w_per_m: float) -> float:
-    """*w_per_m* if it is a positive tracer output [W/m], else an InputError."""
+_SI_WORDS = {"temperature": "°C", "heat_flow_per_length": "W/m"}
+
+
+def _shown(value: float, kind: str, units: str) -> str:
+    """*value* (SI) as a message in *units* says it: ``-30 °C`` (SI, as given), ``40.0 °F``."""
+    from .units import format_quantity
+
+    if units == "si" or not np.isfinite(value):
+        return f"{value:g} {_SI_WORDS[kind]}"
+    return format_quantity(value, kind, units)
+
+
+def check_tracer_output(w_per_m: float, units: str = "si") -> float:
+    """*w_per_m* if it is a positive tracer output [W/m], else an InputError (the value said in *units*)."""
     if not (np.isfinite(w_per_m) and w_per_m > 0):
         raise InputError("tracer_output_w_per_m", f"the tracer output must be greater than zero "
-                                                  f"(got {w_per_m:g} W/m)")
+                                                  f"(got {_shown(w_per_m, 'heat_flow_per_length', units)})")
     return float(w_per_m)
 
 
@@ -121,7 +133,7 @@ def tracing_spec(spec, maintain_temp_c: float, min_ambient_c: float | None = Non
 def design_heat_loss(spec, maintain_temp_c: float, safety_factor_percent: float = DEFAULT_SAFETY_FACTOR_PERCENT,
                      *, min_ambient_c: float | None = None, wind_m_s: float | None = None,
                      tracer_output_w_per_m: float | None = None,
-                     fittings_heat_loss_w: float | None = None) -> TracingDesign:
+                     fittings_heat_loss_w: float | None = None, units: str = "si") -> TracingDesign:
     """The design heat loss of the traced line *spec* (a :class:`~pipeins.line.LineSpec`).
 
     Parameters
@@ -137,13 +149,16 @@ def design_heat_loss(spec, maintain_temp_c: float, safety_factor_percent: float 
     fittings_heat_loss_w : float, optional
         Heat loss of the line's bare or covered fittings at the design conditions [W]; the
         safety factor is applied to it too (the fittings allowance).
+    units : {"si", "us"}
+        Unit system of the error messages.
     """
     sf = check_safety_factor(float(safety_factor_percent))
     traced = tracing_spec(spec, maintain_temp_c, min_ambient_c, wind_m_s)
     air = float(np.max(traced.air_temp_c))
     if not maintain_temp_c > air:
-        raise InputError("maintain_temp_c", f"the maintain temperature {maintain_temp_c:g} °C must be above the "
-                                            f"minimum design ambient {air:g} °C (no tracer is needed otherwise)")
+        raise InputError("maintain_temp_c", f"the maintain temperature {_shown(maintain_temp_c, 'temperature', units)} "
+                                            f"must be above the minimum design ambient "
+                                            f"{_shown(air, 'temperature', units)} (no tracer is needed otherwise)")
     result = traced.solve()
     q = float(np.ravel(result.heat_flow_w_per_m)[0])
     design = q * (1 + sf / 100.0)
@@ -152,7 +167,7 @@ def design_heat_loss(spec, maintain_temp_c: float, safety_factor_percent: float 
                design_heat_loss_w_per_m=design, surface_temp_c=float(np.ravel(result.surface_temp_c)[0]),
                warnings=tuple(result.warnings))
     if tracer_output_w_per_m is not None:
-        output = check_tracer_output(float(tracer_output_w_per_m))
+        output = check_tracer_output(float(tracer_output_w_per_m), units)
         out.update(tracer_output_w_per_m=output, margin_w_per_m=output - design,
                    margin_percent=100.0 * (output - design) / design, sufficient=bool(output >= design))
     if fittings_heat_loss_w is not None:
@@ -218,14 +233,15 @@ class TracerOutput(Criterion):
                 f"is still {-100 * margin:.1f} % of the output above it")
 
 
-def tracer_criterion(req, fluid_cold_c: float, air_warm_c: float) -> TracerOutput:
+def tracer_criterion(req, fluid_cold_c: float, air_warm_c: float, units: str = "si") -> TracerOutput:
     """The :class:`TracerOutput` criterion of the sizing requirements *req* (a
-    :class:`pipeins.criteria.Requirements`); the line must be warmer than its air."""
+    :class:`pipeins.criteria.Requirements`); the line must be warmer than its air (messages in *units*)."""
     if req.safety_factor_percent is not None and req.tracer_output_w_per_m is None:
         raise InputError("safety_factor_percent", "is a heat-tracing input: give tracer_output_w_per_m too")
     if not fluid_cold_c > air_warm_c:
         raise InputError("tracer_output_w_per_m", f"a tracer makes up a heat loss: the fluid (the maintain "
-                                                  f"temperature, {fluid_cold_c:g} °C) must be above the air "
-                                                  f"({air_warm_c:g} °C)")
+                                                  f"temperature, {_shown(fluid_cold_c, 'temperature', units)}) must "
+                                                  f"be above the air ({_shown(air_warm_c, 'temperature', units)})")
+    check_tracer_output(float(req.tracer_output_w_per_m), units)
     sf = DEFAULT_SAFETY_FACTOR_PERCENT if req.safety_factor_percent is None else req.safety_factor_percent
     return TracerOutput(float(req.tracer_output_w_per_m), float(sf))

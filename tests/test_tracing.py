@@ -142,3 +142,80 @@ def test_bad_tracer_criterion(capsys, extra, message):
     code, out, err = _run(capsys, "size", "--pipe", "NPS 2", "--fluid-temp", "5C", "--ambient-temp", "-20C",
                           "--material", "mineral wool", *extra)
     assert code == 2 and out == "" and message in err and err.count("\n") == 1, err
+
+
+# -- freeze protection: the traced alternative beyond a practical thickness ---------------------
+
+def test_freeze_hold_beyond_practical_thickness_offers_tracing_with_hand_design_loss(capsys):
+    # hand: q = (5 − (−12)) / (ln(ro/ri)/(2π kw) + ln((ro+0.1)/ro)/(2π·0.030) + 1/(25·2π(ro+0.1))) × 1.20
+    from pipeins.freezing import FREEZE_MAINTAIN_TEMP_C, PRACTICAL_FREEZE_THICKNESS_M
+
+    assert PRACTICAL_FREEZE_THICKNESS_M == 0.100 and FREEZE_MAINTAIN_TEMP_C == 5.0  # common practice
+    data = json.loads(_ok(capsys, "size", "--pipe", "NPS 1", "--fluid-temp", "10C", "--ambient-temp", "-12C",
+                          "--outer-h", "25", "--material", "k=0.030", "--hold-time", "8h", "--no-touch-check",
+                          "--format", "json"))
+    freeze = next(c for c in data["criteria"] if c["key"] == "freeze")
+    assert freeze["required_mm"] > 100
+    (alt,) = data["traced_alternative"]
+    assert alt["code"] == "freeze_traced_alternative" and alt["thickness_m"] == 0.1
+    assert alt["required_m"] == pytest.approx(freeze["required_mm"] / 1000, abs=1e-4)
+    od, wall = 0.0334, 0.00338  # NPS 1 schedule 40, ASME B36.10M
+    k_wall = float(LineSpec(pipe="NPS 1", fluid_temp_c=5.0).build_pipe().wall_conductivity_w_mk)
+    ro, ri, r2 = od / 2, od / 2 - wall, od / 2 + 0.1
+    resistance = (math.log(ro / ri) / (2 * math.pi * k_wall) + math.log(r2 / ro) / (2 * math.pi * 0.030)
+                  + 1 / (25.0 * 2 * math.pi * r2))
+    assert alt["design_heat_loss_w_per_m"] == pytest.approx(17.0 / resistance * 1.20, rel=1e-6)
+    assert any("heat tracing is the usual alternative" in w for w in data["warnings"])
+
+
+def test_no_traced_alternative_within_the_practical_thickness(capsys):
+    data = json.loads(_ok(capsys, "size", "--pipe", "NPS 2", "--fluid-temp", "10C", "--ambient-temp", "-5C",
+                          "--material", "mineral wool", "--hold-time", "2h", "--no-touch-check", "--format", "json"))
+    assert next(c for c in data["criteria"] if c["key"] == "freeze")["required_mm"] < 100
+    assert "traced_alternative" not in data
+
+
+def test_traced_alternative_and_freeze_sentences_follow_units_us(capsys):
+    out = _ok(capsys, "size", "--pipe", "NPS 1", "--fluid-temp", "50F", "--ambient-temp", "10F", "--outer-h", "4",
+              "--material", "k=0.2", "--hold-time", "8h", "--no-touch-check", "--units", "us", "--format", "json")
+    data = json.loads(out)
+    assert next(c for c in data["criteria"] if c["key"] == "freeze")["requirement"] == \
+        "still water holds 8.0 h before it reaches 32 °F"
+    text = next(w for w in data["warnings"] if "heat tracing" in w)
+    assert "3.94 in" in text and "41.0 °F" in text and "Btu/(h·ft)" in text
+    assert " mm" not in text and "°C" not in text and "W/m" not in text
+
+
+def test_freeze_and_run_criterion_sentences_in_us_units():
+    from pipeins.freezing import FreezeHold
+    from pipeins.runs import TempChange
+
+    crit = FreezeHold(3600.0)
+    crit.units = "us"
+    assert crit.miss(-0.5, 0.0508) == ("freeze protection cannot be met: with 2.00 in still water reaches 32 °F "
+                                       "after 0.5 h, 0.5 h short of the 1.0 h hold time")
+    run = TempChange(max_change_k=2.0, fluid_name="water", flow=1.0, length_m=30.48)
+    run.units = "us"
+    text = run.miss(-1.0, 0.0508)
+    assert text.startswith("temperature change cannot be met: with 2.00 in the fluid still changes by 5.4 °F over "
+                           "100.0 ft")
+    assert " K" not in text and " mm" not in text
+    assert "°F" in run.state_text(0.5) and " K" not in run.state_text(0.5)
+
+
+@pytest.mark.parametrize("command, args, line", [
+    ("check", ("--layer", "mineral wool:1in", "--maintain-temp", "40F", "--min-ambient", "50F"),
+     "Error: --maintain-temp: the maintain temperature 40.0 °F must be above the minimum design ambient "
+     "(--min-ambient) 50.0 °F (no tracer is needed otherwise)"),
+    ("check", ("--layer", "mineral wool:1in", "--maintain-temp", "40F", "--tracer-output", "-3"),
+     "Error: --tracer-output: the tracer output must be greater than zero (got -3.0 Btu/(h·ft))"),
+    ("size", ("--material", "mineral wool", "--tracer-output", "3", "--no-touch-check", "--ambient-temp", "50F"),
+     "Error: --tracer-output: a tracer makes up a heat loss: the fluid (the maintain temperature, 40.0 °F) must be "
+     "above the air (50.0 °F)"),
+])
+def test_tracing_messages_follow_units_us(capsys, command, args, line):
+    base = ("--pipe", "NPS 2", "--fluid-temp", "40F", "--units", "us")
+    if "--ambient-temp" not in args:
+        base += ("--ambient-temp", "0F")
+    code, out, err = _run(capsys, command, *base, *args)
+    assert code == 2 and out == "" and err.strip() == line

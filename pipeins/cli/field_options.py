@@ -246,7 +246,7 @@ def add_field_sections(report, spec, field: dict, units: str) -> None:
     try:
         design = design_heat_loss(spec, maintain, DEFAULT_SAFETY_FACTOR_PERCENT if sf is None else sf,
                                   min_ambient_c=q("min_ambient", "temperature"), tracer_output_w_per_m=output,
-                                  fittings_heat_loss_w=fittings_w)
+                                  fittings_heat_loss_w=fittings_w, units=units)
     except InputError as exc:
         if exc.name in words:
             raise InputError(words[exc.name], exc.message.replace("minimum design ambient",

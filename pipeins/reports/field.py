@@ -9,7 +9,7 @@ import numpy as np
 from . import Column, Table
 
 __all__ = ["tracing_table", "buried_table", "materials_table", "fittings_table", "add_fittings",
-           "fittings_cost_table"]
+           "fittings_cost_table", "add_traced_alternative", "traced_alternative_text"]
 
 
 def _rows_table(title: str, rows, note: str = "") -> Table:
@@ -207,3 +207,34 @@ def fittings_cost_table(fits, bare_fig: dict, covered_fig: dict | None, units: s
             Column("cost per year", digits=2, unit=currency or "currency", grouped=True)]
     return Table("Fittings over the year", cols, rows,
                  note="Fittings solved as objects (check --valve/--flange): " + fits.method + ".")
+
+
+def traced_alternative_text(alt, units: str) -> str:
+    """The sentence offering heat tracing (a :class:`pipeins.freezing.TracedAlternative`)."""
+    from ..units import format_quantity as fq
+
+    need = ("no thickness holds it" if not np.isfinite(alt.required_m) else
+            f"it needs {fq(alt.required_m, 'thickness', units)}")
+    return (f"{alt.size}: the freeze hold is impractical by insulation alone ({need}, more than the "
+            f"practical {fq(alt.practical_limit_m, 'thickness', units)}, common practice); heat tracing is "
+            f"the usual alternative: with {fq(alt.thickness_m, 'thickness', units)} of {alt.material}, a tracer "
+            f"holding {fq(alt.maintain_temp_c, 'temperature', units)} at "
+            f"{fq(alt.min_ambient_c, 'temperature', units)} must make up "
+            f"{fq(alt.design_heat_loss_w_per_m, 'heat_flow_per_length', units)} (design heat loss with a "
+            f"{alt.safety_factor_percent:g} % safety factor; check --maintain-temp and --tracer-output)")
+
+
+def add_traced_alternative(report, selection, units: str):
+    """*report* with the traced alternative of every size whose freeze hold needs more than the
+    practical thickness: a warning line each and the JSON list ``traced_alternative``."""
+    from ..freezing import traced_alternatives
+
+    alts = traced_alternatives(selection)
+    if alts:
+        report.data["traced_alternative"] = [a.to_dict() for a in alts]
+        for alt in alts:
+            text = traced_alternative_text(alt, units)
+            if text not in report.warnings:
+                report.warnings.append(text)
+        report.data["warnings"] = report.warnings
+    return report

@@ -25,6 +25,12 @@ ALL_KEYS = ("surface_temp", "condensation", "heat_flow", "temp_change", "freeze"
             "service_limit")
 
 
+def traced_alternative(report, selection, units):
+    from .field import add_traced_alternative  # freeze hold beyond a practical thickness: tracing offered
+
+    return add_traced_alternative(report, selection, units)
+
+
 def _mm(x):
     return None if x is None or not np.isfinite(x) else round(float(x) * 1000, 2)
 
@@ -131,7 +137,7 @@ def size_report(selection, check, units: str = "si") -> Report:
     cautions = _cautions(selection)
     data["cautions"] = cautions
     title = f"Insulation sizing: {selection.sizes[0].label}, {selection.material.name}"
-    return Report(title, tables, data, warnings, cautions, footer, csv_table=0)
+    return traced_alternative(Report(title, tables, data, warnings, cautions, footer, csv_table=0), selection, units)
 
 
 def conditions_footer(selection, units: str) -> list[str]:
@@ -199,7 +205,8 @@ def table_report(selection, units: str = "si") -> Report:
     title = f"Thickness table: {selection.material.name}, {selection.sizes[0].label} to {selection.sizes[-1].label}"
     data = {"rows": json_rows, "criteria": keys, "material": selection.material.name,
             "series": selection.series_name, "conditions": footer, "warnings": warnings, "cautions": cautions}
-    return Report(title, [Table("Thickness per size", columns, rows)], data, warnings, cautions, footer)
+    return traced_alternative(Report(title, [Table("Thickness per size", columns, rows)], data, warnings, cautions,
+                                     footer), selection, units)
 
 
 def matrix_report(selection, quantity: str, units: str = "si") -> Report:
