@@ -268,6 +268,23 @@ class LineSpec:
 
         return build_vessel(self, sheet if self.sheet else None, wall)
 
+    def section_size(self):
+        """A size row for a duct, face or vessel (its label; the outside diameter of a round
+        section, the perimeter over π of a rectangular duct, NaN for a face)."""
+        from .catalog.pipes import PipeSize
+
+        section = self.build_section()
+        kind = section.kind
+        if kind == "rectangular duct":
+            od = float(section.perimeter_m) / math.pi
+        elif kind == "round duct":
+            od = float(section.outer_diameter_m)
+        elif kind in ("sphere", "vessel"):
+            od = float(section.diameter_m)
+        else:
+            od = float("nan")
+        return PipeSize(section.label, kind, self.duct or self.face or "", None, od, float(section.wall_m))
+
     def pipe_size(self):
         """The catalogue :class:`PipeSize` (or a custom one from the dimensions); for an
         array of sizes, the first."""
@@ -278,6 +295,8 @@ class LineSpec:
         custom one from the dimensions."""
         from .catalog import pipes
 
+        if self.section_kind != "pipe":
+            return [self.section_size()]
         if self.pipe is not None:
             if self.outer_diameter_m is not None or self.wall_m is not None:
                 raise InputError("pipe", "give a catalogue size or outer_diameter_m/wall_m, not both")

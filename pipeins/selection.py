@@ -95,7 +95,10 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
     name, series_m = series_for(material, series, units)
     pipe, fixed, fluid, surroundings, surface = spec.build_model(sizes, insulated=True)
     n = 1 if sizes is None else len(sizes)
-    if sizes is None:  # one size: give it the (n, 1) shape of a table row
+    if sizes is None and hasattr(pipe, "kind"):  # a duct, face or vessel: its scalars broadcast
+        if fluid.film_coefficient_w_m2k is not None:
+            fluid = replace(fluid, film_coefficient_w_m2k=np.reshape(fluid.film_coefficient_w_m2k, (1, 1)))
+    elif sizes is None:  # one size: give it the (n, 1) shape of a table row
         pipe = replace(pipe, outer_diameter_m=np.reshape(pipe.outer_diameter_m, (1, 1)),
                        wall_m=np.reshape(pipe.wall_m, (1, 1)))
         if fluid.film_coefficient_w_m2k is not None:

@@ -62,15 +62,21 @@ class SizingProblem:
     n_sizes: int = 1
     context: dict = field(default_factory=dict)
 
-    def solve(self, thickness_m):
+    def solve(self, thickness_m, night: bool = False):
         """Solve with the outer layer at *thickness_m* (shape (n, k) or broadcastable);
-        a zero thickness means the layer is absent (sized layer only)."""
+        a zero thickness means the layer is absent (sized layer only).  *night*: without
+        the sun (condensation is judged at night)."""
         t = np.asarray(thickness_m, dtype=float)
         t = np.broadcast_to(t, np.broadcast_shapes(t.shape, (self.n_sizes, 1)))
         bare = t <= 0
         layers = list(self.fixed_layers) + [Layer(self.material, np.where(bare, 1e-9, t))]
-        return solve(self.pipe, layers, self.fluid, self.surroundings, self.surface,
+        surroundings = self.surroundings.without_sun() if night else self.surroundings
+        return solve(self.pipe, layers, self.fluid, surroundings, self.surface,
                      touch_limit_c=self.touch_limit_c)
+
+    @property
+    def sunny(self) -> bool:
+        return getattr(self.surroundings, "solar_irradiance_w_m2", None) is not None
 
     def bare(self):
         """The bare line (:func:`pipeins.bare.solve_bare`: no layers, the pipe's own
@@ -81,6 +87,11 @@ class SizingProblem:
             self.context["bare"] = solve_bare(self.pipe, self.fluid, self.surroundings, self.surface,
                                               touch_limit_c=self.touch_limit_c)
         return self.context["bare"]
+
+
+def _outer_thickness(result):
+    """The sized (outermost) layer's thickness of a solved result [m]."""
+    return np.asarray(result.inputs["layers"][-1].thickness_m, dtype=float)
 
 
 def _q(value_si: float, kind: str, units: str) -> str:
@@ -200,12 +211,17 @@ class Condensation(Criterion):
     def margin(self, problem, result, thickness_m):
         if result.dew_point_c is None:
             raise InputError("--rh", "condensation control needs the relative humidity of the air")
+        if problem.sunny:  # the sun does not cure condensation at night: judged without it
+            result = problem.solve(thickness_m, night=True)
         return result.surface_temp_c - (result.dew_point_c + self.margin_k)
 
     def describe(self, units="si"):
         return f"surface at least {_q(self.margin_k, 'temperature_difference', units)} above the dew point"
 
     def state(self, problem, result, index):
+        if problem.sunny:
+            t = np.ravel(np.broadcast_to(result.interface_temps_c[-1] * 0 + _outer_thickness(result), result.shape))
+            result = problem.solve(t.reshape(result.shape), night=True)
         ts, u = float(np.ravel(result.surface_temp_c)[index]), self.units
         dew = float(np.ravel(np.broadcast_to(result.dew_point_c, result.shape))[index])
         return (f"surface {_in(u, ts, 'temperature', f'{ts:.1f} °C')}, "

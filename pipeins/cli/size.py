@@ -63,9 +63,17 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     at = LineSpec(**{**spec.__dict__, "layers": spec.layers + selection.added_layers(0),
                      "touch_limit_c": selection.problem.touch_limit_c or spec.touch_limit_c})
     result = at.solve()
-    rows, data, warnings = run_extras(at, result, units)
-    check = check_report(at, result, units, rows, data, warnings,
-                         title="Check at the selected thickness")
+    if at.section_kind != "pipe":
+        from ..reports.section import section_report
+        from ..sections import section_extras
+
+        rows, data, warnings = section_extras(at, result, units)
+        check = section_report(at, result, units, rows, data, warnings)
+        check.title = "Check at the selected thickness"
+    else:
+        rows, data, warnings = run_extras(at, result, units)
+        check = check_report(at, result, units, rows, data, warnings,
+                             title="Check at the selected thickness")
     report = size_report(selection, check, units)
     report.charts = size_charts(selection, result)
     emit(report, fmt, units, output)
