@@ -230,13 +230,16 @@ CLI_ONLY = {
     "--floor": "a vertical tank's floor on the command line; the schedule lists pipes",
     "--solar": "sun on one checked or sized line or section; not yet a project-file input",
     "--absorptance": "sun on one checked or sized line or section; not yet a project-file input",
-    "--materials": "a user's materials file for one checked line (pipeins.user_materials); not yet a project-file input",
+    "--materials": "a user's materials file for one checked line (pipeins.user_materials); a project names its "
+                   "own with [project] materials_file",
     "--valve": "fittings as objects on one line (pipeins.fittings); a project line counts valves (equivalent lengths)",
     "--flange": "fittings as objects on one line (pipeins.fittings); a project line counts flanges (equivalent lengths)",
     "--cover": "removable covers of one line's fittings (pipeins.fittings); not yet a project-file input",
 }
 #: Project-file keys with no command-line option, and why.
 FILE_ONLY = {
+    "materials_file": "the project's user materials file (relative to the project file); check --materials gives one "
+                      "for a single line",
     "name": "the project's name, shown in its schedule",
     "service": "a line names its service",
     "condition": "a line names its location",

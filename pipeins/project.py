@@ -81,7 +81,7 @@ def _param_keys(table: str) -> set:
 #: Every key the reader knows, per kind of table (the key reference, docs/project-file.md,
 #: lists each one; a test checks it).
 KEYS = {
-    "project": {"name", "units", "lines_file", "lines_sheet"} | _param_keys("project"),
+    "project": {"name", "units", "lines_file", "lines_sheet", "materials_file"} | _param_keys("project"),
     "energy": _param_keys("energy"),
     "conditions": _param_keys("conditions"),
     "services": _param_keys("services") | {"criteria"},
@@ -224,6 +224,8 @@ class Project:
     cost_table: Any = None
     file_name: str = ""
     report: dict = field(default_factory=dict)  # [report]: title block texts by key
+    materials: dict = field(default_factory=dict)  # materials_file: user materials by key (pipeins.user_materials)
+    materials_warnings: list = field(default_factory=list)
 
     def where(self, file_line: int, entry: str, key: str | None = None) -> str:
         return _where(self.file_name, file_line, entry, key)
@@ -430,6 +432,15 @@ class _Reader:
 def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> Project:
     """Read a project from TOML *text*; *file_name* names it in errors and *base_dir*
     anchors its relative paths.  Raises :class:`ProjectError` listing every problem."""
+    from .user_materials import materials_in_use, project_materials
+
+    materials = project_materials(text, file_name, base_dir)  # [project] materials_file, found first
+    with materials_in_use(materials[0]):
+        return replace(_parse_project(text, file_name, base_dir, materials[2]), materials=materials[0],
+                       materials_warnings=materials[1])
+
+
+def _parse_project(text: str, file_name: str, base_dir, materials_problem: str | None) -> Project:
     import tomllib
 
     from .fileio import load_toml
@@ -464,6 +475,8 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
         r.problem(path, "project", "units", f'unknown unit system "{units}"; use "si" or "us"')
         units = "si"
     r.units = units
+    if materials_problem:
+        r.problem(path, "project", "materials_file", materials_problem)
     r.currency = r.text_value(head, "currency", path, "project", "")
     code_paths = []
     if "code_tables" in head:

@@ -209,6 +209,16 @@ def _basis(service, with_cost: bool):
 
 
 def compute_schedule(project: Project) -> Schedule:
+    """The schedule of *project*, its user materials (``materials_file``) found first."""
+    from .user_materials import materials_in_use
+
+    with materials_in_use(getattr(project, "materials", None)):
+        out = _compute_schedule(project)
+    out.warnings[:0] = [w for w in getattr(project, "materials_warnings", ()) if w not in out.warnings]
+    return out
+
+
+def _compute_schedule(project: Project) -> Schedule:
     """The insulation schedule, per-line results and totals of *project* (see the module
     docstring).  Raises :class:`~pipeins.project.ProjectError` when a requirement cannot
     be met or an input is refused."""

@@ -30,7 +30,7 @@ from dataclasses import dataclass, replace
 from .errors import InputError
 
 __all__ = ["REQUIRED_COLUMNS", "read_materials_file", "parse_materials", "DesignFactors", "design_material",
-           "materials_in_use", "DESIGN_FACTOR_BASIS"]
+           "materials_in_use", "DESIGN_FACTOR_BASIS", "project_materials"]
 
 REQUIRED_COLUMNS = ("key", "name", "family", "mean_temp_c", "conductivity_w_mk", "min_temp_c", "max_temp_c")
 DESIGN_FACTOR_BASIS = ("design conductivity = declared × (1 + ageing) × (1 + moisture) × (1 + joints), the product "
@@ -180,3 +180,35 @@ def materials_in_use(materials: dict | None = None, factors: DesignFactors | Non
         yield
     finally:
         catalogue._HOOK = previous
+
+
+def project_materials(text: str, file_name: str, base_dir) -> tuple[dict, list[str], str | None]:
+    """The user materials a project file names with ``[project] materials_file`` (a CSV of the
+    shape of ``check --materials``, resolved relative to the project file).
+
+    Returns ``(materials, warnings, problem)``: ``problem`` is the one-line message to report
+    against the key (a missing or malformed file), else None; a project without the key, or
+    whose TOML does not read (reported by the project reader), gives ``({}, [], None)``.
+    """
+    from pathlib import Path
+
+    from .fileio import load_toml
+
+    try:
+        head = load_toml(text, file_name).get("project")
+    except Exception:  # the project reader reports it, with its position
+        return {}, [], None
+    if not isinstance(head, dict) or "materials_file" not in head:
+        return {}, [], None
+    item = head["materials_file"]
+    if not isinstance(item, str) or not item.strip() or "\x00" in item:
+        return {}, [], 'materials_file must be a file name, e.g. "our_materials.csv"'
+    path = Path(base_dir) / item
+    if not path.is_file():
+        return {}, [], f'file "{item}" not found next to {file_name}'
+    try:
+        materials, warnings = read_materials_file(path)
+    except InputError as exc:
+        where = exc.name.replace(str(path), item) if exc.name else item
+        return {}, [], f"{where}: {exc.message}".replace(str(path), item)
+    return materials, [w.replace(str(path), item) for w in warnings], None

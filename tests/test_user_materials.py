@@ -129,3 +129,67 @@ def test_bad_factor(capsys):
     code, out, err = _run(capsys, "check", "--pipe", "DN50", "--fluid-temp", "80C", "--layer", "k=0.04:30mm",
                           "--ageing-factor", "500")
     assert code == 2 and err.startswith("Error: --ageing-factor: the design factor must be from 0 to 200 %"), err
+
+
+# -- the project-file key materials_file --------------------------------------------------------
+
+PROJECT = """\
+[project]
+name = "Riverside depot (invented)"
+{extra}
+
+[conditions.room]
+air = "20 C"
+
+[services.hot]
+fluid = "water"
+temperature = "80 C"
+material = "plant foam"
+criteria = ["heat_flow"]
+max_heat_flow = "20 W/m"
+
+[[lines]]
+service = "hot"
+size = "NPS 2"
+length = "10 m"
+condition = "room"
+"""
+
+
+def test_project_materials_file_is_picked_up_relative_to_the_project(tmp_path):
+    from pipeins.project import ProjectError, load_project
+    from pipeins.schedule import compute_schedule
+
+    (tmp_path / "data").mkdir()
+    (tmp_path / "data" / "mats.csv").write_text(CONSTANT, encoding="utf-8")
+    path = tmp_path / "depot.toml"
+    path.write_text(PROJECT.format(extra='materials_file = "data/mats.csv"'), encoding="utf-8")
+    project = load_project(path)
+    assert list(project.materials) == ["flat_k"]
+    line = compute_schedule(project).lines[0]
+    # the user's constant 0.040 W/(m·K) solves exactly as k=0.040 at the thickness picked
+    ref = LineSpec(pipe="NPS 2", layers=(("k=0.040", line.thickness_m),), fluid_temp_c=80.0, air_temp_c=20.0).solve()
+    assert line.heat_flow_w_per_m == float(ref.heat_flow_w_per_m)
+    with pytest.raises(InputError):  # in use only while the project is read and scheduled
+        lookup_material("plant foam")
+    path.write_text(PROJECT.format(extra=""), encoding="utf-8")
+    with pytest.raises(ProjectError) as exc:
+        load_project(path)
+    assert 'material: unknown material "plant foam"' in str(exc.value)
+
+
+@pytest.mark.parametrize("extra, message", [
+    ('materials_file = "none.csv"', 'depot.toml: line 3 (project): materials_file: file "none.csv" not found next '
+                                    "to depot.toml"),
+    ('materials_file = "bad.csv"', 'depot.toml: line 3 (project): materials_file: bad.csv:1: missing column '
+                                   '"mean_temp_c"'),
+])
+def test_project_materials_file_problems_name_the_key(tmp_path, extra, message):
+    from pipeins.project import ProjectError, load_project
+
+    (tmp_path / "bad.csv").write_text("key,name,family,conductivity_w_mk,min_temp_c,max_temp_c\n", encoding="utf-8")
+    path = tmp_path / "depot.toml"
+    path.write_text(PROJECT.format(extra=extra), encoding="utf-8")
+    with pytest.raises(ProjectError) as exc:
+        load_project(path)
+    assert any(p.startswith(message) for p in exc.value.problems), exc.value.problems
