@@ -244,3 +244,14 @@ def test_bad_input_one_line_exit_2(capsys, args, line):
     code, out, err = _run(capsys, "check", *ARGS, *args)
     assert code == 2 and out == ""
     assert err.strip() == line
+
+
+def test_cost_prices_fittings_alone_with_length_zero(capsys):
+    code, out, err = _run(capsys, "cost", "--pipe", "DN80", "--fluid-temp", "160C", "--ambient-temp", "15C",
+                          "--length", "0", "--valve", "globe:DN80:PN40", "--cover", "mineral wool:50mm",
+                          "--energy-price", "0.1/kWh", "--hours", "4000h", "--format", "json")
+    assert code == 0, err
+    data = json.loads(out)
+    fit, year = data["fittings"][0], data["fittings_year"]
+    saving_j = year["bare"]["heating"]["energy_j"] - year["covered"]["heating"]["energy_j"]
+    assert saving_j == pytest.approx(fit["saving_w"] * 4000 * 3600, rel=1e-9)  # (bare − covered) × hours

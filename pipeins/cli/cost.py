@@ -70,12 +70,30 @@ def cost(fmt, units, output, valves, flanges, strainers, profile, valve, flange,
 
         spec = replace(spec, length_m=0.0)
     basis = basis_from_options(opts, units, need_price=True)
+    if fittings_alone and (valve or flange) and not (valves or flanges or strainers):
+        report = _fittings_alone(spec, basis, conditions, dict(valve=valve, flange=flange, cover=cover), units)
+        emit(report, fmt, units, output)
+        return
     study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers}, conditions)
     report = cost_report(study, units)
     if valve or flange or cover:
         _add_fittings(report, spec, basis, conditions, dict(valve=valve, flange=flange, cover=cover), units)
     report.charts = cost_charts(study)
     emit(report, fmt, units, output)
+
+
+def _fittings_alone(spec, basis, conditions, field, units):
+    """``--length 0`` with fittings as objects only: the fittings priced bare against covered."""
+    from ..reports import Report
+    from ..reports.cautions import cautions
+
+    air = spec.build_surroundings().air_temp_c
+    temps = [t for t, _ in conditions] if conditions else spec.fluid_temperature_c()
+    report = Report("Fittings alone: bare against covered", [], {}, [],
+                    cautions(temps, air, ["bare_metal"]), [])
+    _add_fittings(report, spec, basis, conditions, field, units)
+    report.csv_table = 1
+    return report
 
 
 def _add_fittings(report, spec, basis, conditions, field, units):

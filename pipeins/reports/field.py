@@ -204,7 +204,7 @@ def fittings_cost_table(fits, bare_fig: dict, covered_fig: dict | None, units: s
     cols = [Column("fittings"), Column("heat flow", "power"),
             Column("energy per year", digits=0 if units == "si" else 2, unit=unit_label("energy", units),
                    grouped=True),
-            Column("cost per year", digits=2, unit=currency or "currency", grouped=True)]
+            Column("cost per year", digits=2, unit=currency or None, grouped=True)]
     return Table("Fittings over the year", cols, rows,
                  note="Fittings solved as objects (check --valve/--flange): " + fits.method + ".")
 
