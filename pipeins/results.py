@@ -28,15 +28,16 @@ class Result:
     """Heat flow and temperatures of solved cases; every array has the cases' shape.
 
     The heat flow is positive when heat leaves the fluid, in the unit ``basis`` names:
-    ``"W/m"`` per metre of pipe, ``"W/m²"`` per m² of a flat face.  The field
-    ``heat_flow_w_per_m`` holds it whatever the basis (kept for pipes and the existing
-    callers); read :attr:`heat_flow` with :attr:`basis` for any shape, or the accessor
-    named for the unit (:attr:`heat_flow_w_per_m2`).  ``interface_temps_c`` stacks, along its first
+    ``"W/m"`` per metre of pipe or duct run, ``"W/m²"`` per m² of a flat face, ``"W"`` for
+    a vessel.  The field :attr:`heat_flow` holds it in that unit; the accessors named for
+    a unit (:attr:`heat_flow_w_per_m`, :attr:`heat_flow_w_per_m2`, :attr:`heat_flow_w`)
+    refuse another basis, so no name holds a value in a unit it does not say.  ``interface_temps_c`` stacks, along its first
     axis: the bore (inner wall face), the pipe's outside, then the outer face of each
     layer; the last equals ``surface_temp_c``.
     """
 
-    heat_flow_w_per_m: np.ndarray
+    #: Heat flow in the unit :attr:`basis` names (W/m, W/m² or W), positive out of the fluid.
+    heat_flow: np.ndarray
     outer_heat_flux_w_m2: np.ndarray
     surface_temp_c: np.ndarray
     interface_temps_c: np.ndarray
@@ -62,9 +63,14 @@ class Result:
         self.warnings = list(dict.fromkeys(list(self.warnings) + film_warnings(self)))
 
     @property
-    def heat_flow(self) -> np.ndarray:
-        """Heat flow in the unit of :attr:`basis`, positive out of the fluid."""
-        return self.heat_flow_w_per_m
+    def heat_flow_w_per_m(self) -> np.ndarray:
+        """Heat flow per metre of a pipe or duct run [W/m] (an error for another basis)."""
+        return self._in_basis("W/m")
+
+    @property
+    def heat_flow_w(self) -> np.ndarray:
+        """Heat flow of a whole vessel or sphere [W] (an error for another basis)."""
+        return self._in_basis("W")
 
     @property
     def heat_flow_w_per_m2(self) -> np.ndarray:
@@ -75,11 +81,11 @@ class Result:
         if self.basis != basis:
             raise AttributeError(f"this result's heat flow is in {self.basis}, not {basis}: read .heat_flow "
                                  f"and .basis, or the accessor named for {self.basis}")
-        return self.heat_flow_w_per_m
+        return self.heat_flow
 
     @property
     def shape(self) -> tuple[int, ...]:
-        return np.shape(self.heat_flow_w_per_m)
+        return np.shape(self.heat_flow)
 
     @property
     def surface_below_dew_point(self) -> np.ndarray | None:
@@ -114,7 +120,7 @@ class Result:
         """JSON-ready dict in SI (scalars for a single case, nested lists for arrays)."""
         interfaces = np.moveaxis(self.interface_temps_c, 0, -1)
         return {
-            HEAT_FLOW_KEYS[self.basis]: _plain(self.heat_flow_w_per_m),
+            HEAT_FLOW_KEYS[self.basis]: _plain(self.heat_flow),
             "heat_flux_w_m2": _plain(self.outer_heat_flux_w_m2),
             "surface_temp_c": _plain(self.surface_temp_c),
             "interface_temps_c": _plain(interfaces),
@@ -153,7 +159,7 @@ class PatchResult:
     @property
     def heat_flow(self):
         """The patch's heat flow in the section's basis."""
-        return np.asarray(self.weight) * self.result.heat_flow_w_per_m
+        return np.asarray(self.weight) * self.result.heat_flow
 
     def to_dict(self, basis: str) -> dict[str, Any]:
         area_key = "area_m2" if basis == "W" else "area_m2_per_unit"
@@ -200,7 +206,7 @@ def section_result(section, patches, results, inputs, kind, basis, touch_limit_c
     area_all = np.sum(np.stack([p.area_m2 for p in parts]), axis=0)
     warnings = list(dict.fromkeys(w for p in parts for w in p.result.warnings))
     return Result(
-        heat_flow_w_per_m=q, outer_heat_flux_w_m2=q / area_all, surface_temp_c=surface,
+        heat_flow=q, outer_heat_flux_w_m2=q / area_all, surface_temp_c=surface,
         interface_temps_c=governing, h_conv_w_m2k=mean("h_conv_w_m2k"), h_rad_w_m2k=mean("h_rad_w_m2k"),
         outer_diameter_m=None, residual_w_per_m=max(p.result.residual_w_per_m for p in parts),
         iterations=results[0].iterations, dew_point_c=dew_point, touch_limit_c=touch_limit_c,

@@ -352,13 +352,16 @@ class HeatFlowCap(Criterion):
         if self.max_w_per_m is not None:
             caps.append(np.full((problem.n_sizes, 1), self.max_w_per_m))
         if self.min_reduction is not None:
-            bare = np.abs(problem.bare().heat_flow_w_per_m)
+            bare = np.abs(problem.bare().heat_flow)
             caps.append((1 - self.min_reduction) * np.broadcast_to(bare, (problem.n_sizes, 1)))
         return np.minimum.reduce(caps)
 
     def margin(self, problem, result, thickness_m):
+        if self.max_w_per_m is not None and result.basis != "W/m":
+            raise InputError("--max-heat-flow", f"the cap is per metre of run; a {result.kind}'s heat flow is in "
+                             f"{result.basis}: give --min-reduction instead")
         cap = self.cap(problem)
-        return (cap - np.abs(result.heat_flow_w_per_m)) / cap  # relative margin
+        return (cap - np.abs(result.heat_flow)) / cap  # relative margin
 
     def describe(self, units="si"):
         parts = []
@@ -369,7 +372,7 @@ class HeatFlowCap(Criterion):
         return " and ".join(parts)
 
     def state(self, problem, result, index):
-        q = abs(float(np.ravel(result.heat_flow_w_per_m)[index]))
+        q = abs(float(np.ravel(result.heat_flow)[index]))
         cap = float(np.ravel(np.broadcast_to(self.cap(problem), result.shape))[index])
         u = self.units
         return (f"|heat flow| {_in(u, q, 'heat_flow_per_length', f'{q:.1f} W/m')}, {100 * (cap - q) / cap:.0f} % "

@@ -188,7 +188,7 @@ def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_
             patch_surface = Surface(surface.emittance, surface.name, surface.surface_kind,
                                     fixed_coefficient_w_m2k=patch.boundary.coefficient_w_m2k)
         results.append(Result(
-            heat_flow_w_per_m=shaped(q, p),
+            heat_flow=shaped(q, p),
             outer_heat_flux_w_m2=shaped(q[sl] / cases["area"][sl]),
             surface_temp_c=shaped(ts, p),
             interface_temps_c=np.stack([shaped(t, p) for t in temps]),
@@ -216,7 +216,10 @@ def patches_of(section, surroundings) -> list:
         return list(section.patches(surroundings))
     from .geometry.section import single_patch
 
-    return single_patch("surface", shape_of(section, surroundings))
+    shape = shape_of(section, surroundings)
+    # sun on the projected area: D per πD of a cylinder, πr² per 4πr² of a sphere, a face normal to it
+    sun_factor = {"cylinder": 1.0 / math.pi, "sphere": 0.25}.get(shape.kind, 1.0)
+    return single_patch("surface", shape, sun_factor)
 
 
 def _absorbed_sun(surroundings, surface):

@@ -241,3 +241,19 @@ def test_size_duct_meets_condensation_on_every_face_by_resolving():
     coldest = np.min(np.stack([p.result.surface_temp_c for p in at.patches]), axis=0)
     assert coldest[0] - float(at.dew_point_c[0]) >= 1.0 - 1e-3
     assert coldest[1] - float(at.dew_point_c[1]) < 1.0
+
+
+def test_sun_on_a_pipe_is_absorbed_on_its_projected_area():
+    # A bare-ish pipe with a fixed coefficient: absorbed α·G·D per metre, spread over πD
+    # (hand balance: (Tf − Ts)/R' + α·G·D = h·πD·(Ts − Ta), R' = ln(r2/r1)/(2πk)).
+    import math
+
+    from pipeins.model import Pipe
+
+    d, t, k, h, alpha, g = 0.1, 0.03, 0.04, 10.0, 0.5, 900.0
+    r = solve(Pipe(d, 0.004, 50.0), _layers(t, f"k={k}"), Fluid(6.0), Surroundings(30.0, solar_irradiance_w_m2=g),
+              Surface(0.9, fixed_coefficient_w_m2k=h, solar_absorptance=alpha))
+    d_o = d + 2 * t
+    r_ins = math.log(d_o / d) / (2 * math.pi * k) + math.log(d / (d - 0.008)) / (2 * math.pi * 50.0)
+    ts = (6.0 / r_ins + alpha * g * d_o + h * math.pi * d_o * 30.0) / (1 / r_ins + h * math.pi * d_o)
+    assert float(r.surface_temp_c) == pytest.approx(ts, rel=1e-9)

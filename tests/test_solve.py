@@ -22,7 +22,7 @@ def test_cengel_insulated_steam_pipe():
     pipe = Pipe(0.055, 0.0025, 80.0)
     r = solve(pipe, [Layer(GLASS_WOOL_K005, 0.03)], Fluid(320.0, 60.0), Surroundings(5.0),
               Surface(fixed_coefficient_w_m2k=18.0))
-    assert float(r.heat_flow_w_per_m) == pytest.approx(121.0, rel=0.01)
+    assert float(r.heat_flow) == pytest.approx(121.0, rel=0.01)
     drop = float(r.interface_temps_c[1] - r.interface_temps_c[2])  # pipe outside -> surface
     assert drop == pytest.approx(284.0, rel=0.01)
 
@@ -35,7 +35,7 @@ def test_cengel_matches_hand_resistances():
              + math.log(r3 / r2) / (2 * math.pi * 0.05) + 1 / (18 * 2 * math.pi * r3))
     r = solve(Pipe(0.055, 0.0025, 80.0), [Layer(GLASS_WOOL_K005, 0.03)], Fluid(320.0, 60.0),
               Surroundings(5.0), Surface(fixed_coefficient_w_m2k=18.0))
-    assert float(r.heat_flow_w_per_m) == pytest.approx(315.0 / total, rel=1e-9)
+    assert float(r.heat_flow) == pytest.approx(315.0 / total, rel=1e-9)
 
 
 def test_incropera_example_9_3_bare_steam_pipe():
@@ -48,7 +48,7 @@ def test_incropera_example_9_3_bare_steam_pipe():
     area = math.pi * 0.1
     conv = float(r.h_conv_w_m2k) * area * 142.0
     rad = float(r.h_rad_w_m2k) * area * 142.0
-    assert float(r.heat_flow_w_per_m) == pytest.approx(765.0, rel=0.02)
+    assert float(r.heat_flow) == pytest.approx(765.0, rel=0.02)
     assert conv == pytest.approx(324.0, rel=0.02)
     assert rad == pytest.approx(441.0, rel=0.02)
 
@@ -60,7 +60,7 @@ def test_incropera_example_3_5_critical_radius():
     thickness = np.linspace(0.0005, 0.030, 300)
     r = solve(Pipe(0.010, 0.0002, 400.0), [Layer(lookup_material("k=0.055"), thickness)],
               Fluid(100.0), Surroundings(25.0), Surface(fixed_coefficient_w_m2k=5.0))
-    q = r.heat_flow_w_per_m
+    q = r.heat_flow
     peak_radius = 0.005 + thickness[np.argmax(q)]
     assert peak_radius == pytest.approx(0.011, abs=1e-4)
     rising = 0.005 + thickness < 0.011
@@ -81,13 +81,13 @@ def test_kirchhoff_layer_matches_mean_conductivity_for_linear_k():
 def test_scalar_list_and_array_agree():
     mat = lookup_material("mineral wool")
     pipe = Pipe(0.0603, 0.0039)
-    scalar = [float(solve(pipe, [Layer(mat, t)], Fluid(150.0), Surroundings(20.0)).heat_flow_w_per_m)
+    scalar = [float(solve(pipe, [Layer(mat, t)], Fluid(150.0), Surroundings(20.0)).heat_flow)
               for t in (0.025, 0.05, 0.1)]
     as_list = solve(pipe, [Layer(mat, [0.025, 0.05, 0.1])], Fluid(150.0), Surroundings(20.0))
     as_grid = solve(pipe, [Layer(mat, np.array([[0.025], [0.05], [0.1]]))], Fluid(np.array([150.0, 150.0])),
                     Surroundings(20.0))
-    np.testing.assert_allclose(as_list.heat_flow_w_per_m, scalar, rtol=1e-9)
-    np.testing.assert_allclose(as_grid.heat_flow_w_per_m[:, 0], scalar, rtol=1e-9)
+    np.testing.assert_allclose(as_list.heat_flow, scalar, rtol=1e-9)
+    np.testing.assert_allclose(as_grid.heat_flow[:, 0], scalar, rtol=1e-9)
     assert as_grid.shape == (3, 2)
 
 
@@ -99,12 +99,12 @@ def test_fixed_outer_coefficient_equal_to_solved_reproduces_heat_flow():
     free = solve(pipe, layers, Fluid(350.0), Surroundings(15.0, wind_speed_m_s=2.0), Surface(0.3))
     h = free.h_conv_w_m2k + free.h_rad_w_m2k
     fixed = solve(pipe, layers, Fluid(350.0), Surroundings(15.0), Surface(fixed_coefficient_w_m2k=float(h)))
-    assert float(fixed.heat_flow_w_per_m) == pytest.approx(float(free.heat_flow_w_per_m), rel=1e-8)
+    assert float(fixed.heat_flow) == pytest.approx(float(free.heat_flow), rel=1e-8)
 
 
 def test_equal_temperatures_give_zero_flow():
     r = solve(Pipe(0.0603, 0.0039), [Layer(GLASS_WOOL_K005, 0.03)], Fluid(20.0), Surroundings(20.0))
-    assert float(r.heat_flow_w_per_m) == 0.0
+    assert float(r.heat_flow) == 0.0
     assert float(r.surface_temp_c) == 20.0
 
 
@@ -115,9 +115,9 @@ def test_converges_over_a_wide_grid_without_nan():
     wind = np.array([0.0, 0.5, 10.0])[None, None, :]
     r = solve(Pipe(0.0213, 0.0028), [Layer(mat, thickness)], Fluid(fluid),
               Surroundings(20.0, wind_speed_m_s=wind), Surface(0.9))
-    assert np.all(np.isfinite(r.heat_flow_w_per_m))
+    assert np.all(np.isfinite(r.heat_flow))
     assert r.iterations <= 60
-    assert r.residual_w_per_m <= 1e-6 * np.max(np.abs(r.heat_flow_w_per_m))
+    assert r.residual_w_per_m <= 1e-6 * np.max(np.abs(r.heat_flow))
 
 
 def test_layer_beyond_service_limit_is_a_named_warning():
@@ -146,7 +146,7 @@ def test_interfaces_monotone_and_energy_balance(material, t1, t2, fluid, air, wi
     steps = np.diff(temps) * np.sign(fluid - air)
     assert np.all(steps <= 1e-9)
     flows = r.layer_heat_flows_w_per_m()
-    q = float(r.heat_flow_w_per_m)
+    q = float(r.heat_flow)
     assert np.allclose(flows, q, rtol=1e-9, atol=1e-9)
 
 
@@ -160,9 +160,9 @@ def test_swapping_hot_and_cold_flips_the_sign(hot, cold, k, h, t):
     pipe = Pipe(0.0603, 0.0039)
     a = solve(pipe, layers, Fluid(hot), Surroundings(cold), Surface(fixed_coefficient_w_m2k=h))
     b = solve(pipe, layers, Fluid(cold), Surroundings(hot), Surface(fixed_coefficient_w_m2k=h))
-    assert float(a.heat_flow_w_per_m) == pytest.approx(-float(b.heat_flow_w_per_m), rel=1e-9)
+    assert float(a.heat_flow) == pytest.approx(-float(b.heat_flow), rel=1e-9)
     c = solve(pipe, layers, Fluid(cold), Surroundings(hot))
-    assert float(c.heat_flow_w_per_m) < 0 < float(a.heat_flow_w_per_m)
+    assert float(c.heat_flow) < 0 < float(a.heat_flow)
 
 
 @settings(max_examples=30, deadline=None)
@@ -173,7 +173,7 @@ def test_more_insulation_beyond_critical_radius_never_raises_loss(material, od, 
     thickness = np.linspace(0.02, 0.2, 30)
     r = solve(Pipe(od, 0.0028), [Layer(mat, thickness)], Fluid(fluid), Surroundings(20.0, wind_speed_m_s=wind))
     # 20 mm of insulation puts every case here past its critical radius (k/h < 20 mm).
-    assert np.all(np.diff(r.heat_flow_w_per_m) < 0)
+    assert np.all(np.diff(r.heat_flow) < 0)
 
 
 def test_flat_face_matches_plane_wall_resistances():
@@ -185,7 +185,7 @@ def test_flat_face_matches_plane_wall_resistances():
     r = solve(wall, [Layer(lookup_material("k=0.04"), 0.05)], Fluid(60.0, 30.0), Surroundings(20.0),
               Surface(fixed_coefficient_w_m2k=8.0))
     expected = 40.0 / (1 / 30.0 + 0.001 / 50.0 + 0.05 / 0.04 + 1 / 8.0)
-    assert float(r.heat_flow_w_per_m) == pytest.approx(expected, rel=1e-9)
+    assert float(r.heat_flow) == pytest.approx(expected, rel=1e-9)
     assert "heat_flow_w_per_m2" in r.to_dict()
 
 
@@ -195,7 +195,7 @@ def test_flat_faces_lose_more_facing_up_when_hot():
     from pipeins.model import FlatWall
 
     flows = {face: float(solve(FlatWall(length_m=0.5, face=face), [Layer(lookup_material("k=0.04"), 0.03)],
-                               Fluid(120.0), Surroundings(20.0)).heat_flow_w_per_m)
+                               Fluid(120.0), Surroundings(20.0)).heat_flow)
              for face in ("top", "vertical", "bottom")}
     assert flows["top"] > flows["bottom"]
     assert flows["top"] > 0 and flows["bottom"] > 0

@@ -89,7 +89,7 @@ def _compute(args):
 
     r = solve(*args)
     return {
-        "heat_flow_w_per_m": np.ravel(r.heat_flow_w_per_m).tolist(),
+        "heat_flow_w_per_m": np.ravel(r.heat_flow).tolist(),
         "surface_temp_c": np.ravel(r.surface_temp_c).tolist(),
         "interface_temps_c": np.reshape(r.interface_temps_c, (r.interface_temps_c.shape[0], -1)).tolist(),
     }

@@ -50,14 +50,14 @@ def test_near_ambient_heat_flow_is_the_linear_limit(delta_k):
     r_total = (math.log(0.457 / (0.457 - 0.0191)) / (2 * math.pi * 50.0) + math.log(0.635 / 0.457) / (2 * math.pi * k)
                + 1 / (math.pi * d * (h_c + h_r)))
     r = solve(NPS36, [Layer(CALSIL, 0.178)], Fluid(40.0 + delta_k), Surroundings(40.0, wind_speed_m_s=18.0))
-    assert float(r.heat_flow_w_per_m) == pytest.approx(delta_k / r_total, rel=2e-3)
+    assert float(r.heat_flow) == pytest.approx(delta_k / r_total, rel=2e-3)
     assert np.all(np.isfinite(r.interface_temps_c))
 
 
 def test_no_flow_case_is_exact():
     r = solve(NPS36, [Layer(CALSIL, 0.178)], Fluid(np.array([40.0, 40.0 + 0.5 * NO_FLOW_SPAN_K])),
               Surroundings(40.0, wind_speed_m_s=18.0))
-    assert np.all(r.heat_flow_w_per_m == 0.0)
+    assert np.all(r.heat_flow == 0.0)
     assert np.all(r.interface_temps_c == r.inputs["fluid"].temp_c)
     assert r.residual_w_per_m == 0.0
 
@@ -101,7 +101,7 @@ def _hand_q(pipe, layers, delta_t, inner_h=None, outer_h=None):
 def test_huge_outer_coefficient_puts_the_surface_at_the_air(outer_h):
     pipe = Pipe(0.0603, 0.0039)
     r = solve(pipe, [Layer(K040, 0.04)], Fluid(60.0), Surroundings(20.0), Surface(fixed_coefficient_w_m2k=outer_h))
-    assert float(r.heat_flow_w_per_m) == pytest.approx(_hand_q(pipe, [(0.040, 0.04)], 40.0, outer_h=outer_h),
+    assert float(r.heat_flow) == pytest.approx(_hand_q(pipe, [(0.040, 0.04)], 40.0, outer_h=outer_h),
                                                        rel=1e-9)
     assert float(r.surface_temp_c) == pytest.approx(20.0, abs=1e-6)
 
@@ -110,7 +110,7 @@ def test_tiny_inner_coefficient_carries_almost_no_heat():
     pipe = Pipe(0.0603, 0.0039)
     r = solve(pipe, [Layer(K040, 0.04)], Fluid(60.0, 1e-300), Surroundings(20.0))
     want = _hand_q(pipe, [(0.040, 0.04)], 40.0, inner_h=1e-300)
-    assert float(r.heat_flow_w_per_m) == pytest.approx(want, rel=1e-6)
+    assert float(r.heat_flow) == pytest.approx(want, rel=1e-6)
     assert float(r.surface_temp_c) == pytest.approx(20.0, abs=1e-9)
     with pytest.raises(InputError, match="--inner-h"):
         solve(pipe, [Layer(K040, 0.04)], Fluid(60.0, 1e-320), Surroundings(20.0))
@@ -119,7 +119,7 @@ def test_tiny_inner_coefficient_carries_almost_no_heat():
 def test_kilometre_layer_and_beyond():
     pipe = Pipe(0.0603, 0.0039)
     r = solve(pipe, [Layer(K040, 1000.0)], Fluid(60.0), Surroundings(20.0))
-    assert float(r.heat_flow_w_per_m) == pytest.approx(_hand_q(pipe, [(0.040, 1000.0)], 40.0), rel=1e-4)
+    assert float(r.heat_flow) == pytest.approx(_hand_q(pipe, [(0.040, 1000.0)], 40.0), rel=1e-4)
     with pytest.raises(InputError, match="--layer"):
         solve(pipe, [Layer(K040, 1e300)], Fluid(60.0), Surroundings(20.0))
 
@@ -144,8 +144,8 @@ def test_extreme_but_computable_inputs_answer_without_warnings(surroundings, sur
         warnings.simplefilter("error")
         r = solve(Pipe(0.0603, 0.0039), [Layer(lookup_material("mineral wool"), 0.04)], Fluid(600.0),
                   surroundings, surface)
-    assert np.all(np.isfinite(r.interface_temps_c)) and np.isfinite(float(r.heat_flow_w_per_m))
-    assert float(r.heat_flow_w_per_m) > 0
+    assert np.all(np.isfinite(r.interface_temps_c)) and np.isfinite(float(r.heat_flow))
+    assert float(r.heat_flow) > 0
     assert r.iterations < 200
 
 
@@ -164,7 +164,7 @@ def test_benchmark_grid_converges_in_a_few_evaluations(wind):
         sys.path.pop(0)
     r = solve(*build_cases(wind))
     assert r.iterations <= 4
-    assert np.all(np.isfinite(r.heat_flow_w_per_m))
+    assert np.all(np.isfinite(r.heat_flow))
 
 
 def test_flat_top_face_at_the_mcadams_switch_answers():
@@ -181,7 +181,7 @@ def test_flat_top_face_at_the_mcadams_switch_answers():
               [Layer(lookup_material("cellular glass"), 0.02133351875601975), Layer(K040, 0.12470283618319924)],
               Fluid(216.9283156494094), Surroundings(-23.35128536870348, surroundings_temp_c=3.988984181183433),
               Surface(0.7300339102588238))
-    q, ts = float(r.heat_flow_w_per_m), float(r.surface_temp_c)
+    q, ts = float(r.heat_flow), float(r.surface_temp_c)
     assert np.isfinite(q) and q > 0
     flows = r.layer_heat_flows_w_per_m()
     assert np.allclose(flows, q, rtol=1e-9)

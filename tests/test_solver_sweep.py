@@ -42,7 +42,7 @@ MATERIALS = ("mineral wool", "glass wool", "calcium silicate", "cellular glass",
 
 
 def _check_balance(r, pipe, layers, fluid, surroundings, surface):
-    q = np.asarray(r.heat_flow_w_per_m, dtype=float)
+    q = np.asarray(r.heat_flow, dtype=float)
     temps = np.asarray(r.interface_temps_c, dtype=float)
     assert np.all(np.isfinite(q)) and np.all(np.isfinite(temps))
     assert np.all(np.isfinite(r.h_conv_w_m2k)) and np.all(np.isfinite(r.h_rad_w_m2k))
@@ -163,7 +163,7 @@ def test_seeded_flat_faces_answer_and_balance():
             layers = [Layer(lookup_material(m), rng.uniform(0.005, 0.25, n)) for m in config]
             r = solve(FlatWall(0.001, 50.0, length, face), layers, Fluid(fluid),
                       Surroundings(air, surroundings_temp_c=rad, wind_speed_m_s=wind), Surface(eps))
-            q, ts = r.heat_flow_w_per_m, r.surface_temp_c
+            q, ts = r.heat_flow, r.surface_temp_c
             assert np.all(np.isfinite(q)) and np.all(np.isfinite(r.interface_temps_c))
             assert r.iterations < 60
             for j, flow in enumerate(r.layer_heat_flows_w_per_m()):

@@ -89,7 +89,7 @@ def test_solver_on_a_sphere_equals_the_series_resistances():
     r0, r1, r2 = d / 2 - wall, d / 2, d / 2 + t
     total = (1 / (h_i * 4 * math.pi * r0**2) + (1 / r0 - 1 / r1) / (4 * math.pi * 50.0)
              + (1 / r1 - 1 / r2) / (4 * math.pi * k) + 1 / (h_o * 4 * math.pi * r2**2))
-    assert float(r.heat_flow_w_per_m) == pytest.approx(140.0 / total, rel=1e-9)
+    assert float(r.heat_flow) == pytest.approx(140.0 / total, rel=1e-9)
     assert r.basis == "W"
     assert float(r.outer_heat_flux_w_m2) == pytest.approx(140.0 / total / (4 * math.pi * r2**2), rel=1e-9)
 
@@ -102,7 +102,7 @@ def test_solver_on_a_sphere_with_k_of_t_matches_the_radial_heat_equation():
     d, t, h_o = 1.6, 0.1, 12.0
     r = solve(_SphereSection(d, 0.01, 1e6), [Layer(material, t)], Fluid(300.0), Surroundings(20.0),
               Surface(fixed_coefficient_w_m2k=h_o))
-    q, ts = float(r.heat_flow_w_per_m), float(r.surface_temp_c)
+    q, ts = float(r.heat_flow), float(r.surface_temp_c)
     r1, r2 = d / 2, d / 2 + t
     assert q == pytest.approx(h_o * 4 * math.pi * r2**2 * (ts - 20.0), rel=1e-9)
     t_bore = float(r.interface_temps_c[1])
@@ -118,6 +118,6 @@ def test_worked_example_liquid_nitrogen_sphere():
     # a boil-off of about 5.6 kg/day at h_fg = 2e5 J/kg (values from memory).
     r = solve(_SphereSection(0.5, 1e-4, 1e6), [Layer(lookup_material("k=0.0017"), 0.025)],
               Fluid(77.0 - 273.15), Surroundings(300.0 - 273.15), Surface(fixed_coefficient_w_m2k=20.0))
-    q = float(r.heat_flow_w_per_m)
+    q = float(r.heat_flow)
     assert q == pytest.approx(-13.06, abs=0.005)  # negative: a heat gain
     assert -q / 2e5 * 86400 == pytest.approx(5.64, abs=0.01)

@@ -121,7 +121,7 @@ def test_cool_down_of_a_solved_vessel_with_real_films():
     temps = np.linspace(20.0, 90.0, 15)
     r = solve(Vessel(), [Layer(lookup_material("mineral wool"), 0.08)], Fluid(temps), Surroundings(10.0),
               Surface(0.3))
-    table = ua_table_from_heat_flow(temps, r.heat_flow_w_per_m, 10.0)
+    table = ua_table_from_heat_flow(temps, r.heat_flow, 10.0)
     assert np.all(table[1] > 0)
     capacity = contents_heat_capacity_j_k(contents_mass_kg(vessel_volume_m3(2.38, 6.0, "flat"), "water", 85.0),
                                           "water", 40.0, 85.0)

@@ -82,7 +82,7 @@ def test_vessel_through_the_solver_equals_the_closed_form_resistances():
     def run(specs):
         r = solve(_Vessel(tuple(specs), wall, kw), layers, Fluid(tf), Surroundings(ta),
                   Surface(fixed_coefficient_w_m2k=h))
-        return float(r.heat_flow_w_per_m)
+        return float(r.heat_flow)
 
     r_shell = (math.log((d / 2) / (d / 2 - wall)) / (2 * math.pi * kw * length)
                + math.log(ro / (d / 2)) / (2 * math.pi * k * length) + 1 / (h * 2 * math.pi * ro * length))
@@ -107,7 +107,7 @@ def test_tank_floor_to_the_ground_is_a_fixed_boundary():
     r = solve(_Vessel((fl,), wall, kw), [Layer(lookup_material("k=0.04"), t)], Fluid(tf), Surroundings(-5.0),
               Surface())
     # bare plate to the ground: q = A ΔT / (wall/k_w + R_f), the insulation and the air play no part
-    assert float(r.heat_flow_w_per_m) == pytest.approx(math.pi * d**2 / 4 * (tf - tg) / (wall / kw + r_f), rel=1e-9)
+    assert float(r.heat_flow) == pytest.approx(math.pi * d**2 / 4 * (tf - tg) / (wall / kw + r_f), rel=1e-9)
     assert "to the ground at 8 °C" in fl.boundary.note
 
 
@@ -147,7 +147,7 @@ def test_thicker_insulation_never_raises_the_loss_of_any_patch(heads, orientatio
     t = np.array([0.01, 0.03, 0.06, 0.1, 0.2, 0.4])
     r = solve(_Vessel(tuple(vessel_patches(2.2, 4.0, orientation, heads))), [Layer(lookup_material("k=0.04"), t)],
               Fluid(150.0), Surroundings(10.0), Surface(fixed_coefficient_w_m2k=8.0))
-    assert np.all(np.diff(r.heat_flow_w_per_m) < 0)
+    assert np.all(np.diff(r.heat_flow) < 0)
     for part in r.patches:
         assert np.all(np.diff(part.heat_flow) < 0), part.name
-    assert float(np.sum([p.heat_flow for p in r.patches], axis=0)[0]) == pytest.approx(float(r.heat_flow_w_per_m[0]))
+    assert float(np.sum([p.heat_flow for p in r.patches], axis=0)[0]) == pytest.approx(float(r.heat_flow[0]))

@@ -40,6 +40,10 @@ from typing import Callable
 
 import numpy as np
 
+from ..results import HEAT_FLOW_KEYS
+
+_BASIS_KINDS = {"W/m": "heat_flow_per_length", "W/m²": "heat_flux", "W": "power"}
+
 __all__ = ["Chart", "profile_data", "along_run_data", "thickness_sweep_data", "table_thickness_data",
            "matrix_data", "economic_curve_data", "bare_insulated_data", "schedule_thickness_data", "check_charts", "size_charts",
            "table_charts", "cost_charts", "schedule_charts", "draw", "chart_svg", "plot_bytes", "KINDS"]
@@ -141,7 +145,7 @@ def thickness_sweep_data(selection, index: int = 0, points: int = 61) -> dict:
     row = np.zeros((problem.n_sizes, grid.size))
     row[:] = grid
     result = problem.solve(row)
-    q = np.asarray(result.heat_flow_w_per_m, dtype=float)[index]
+    q = np.asarray(result.heat_flow, dtype=float)[index]
     ts = np.asarray(result.surface_temp_c, dtype=float)[index]
     limits = []
     for crit in selection.criteria:
@@ -160,7 +164,8 @@ def thickness_sweep_data(selection, index: int = 0, points: int = 61) -> dict:
         "size": selection.sizes[index].label,
         "material": selection.material.name,
         "thickness_m": _floats(grid),
-        "heat_flow_w_per_m": _floats(q),
+        HEAT_FLOW_KEYS[result.basis]: _floats(q),
+        "heat_flow_kind": _BASIS_KINDS[result.basis],
         "surface_temp_c": _floats(ts),
         "limits": limits,
         "required": required,
@@ -233,7 +238,7 @@ def size_charts(selection, result=None) -> list[Chart]:
     charts = [Chart("thickness_sweep", f"Heat flow and surface temperature against thickness: "
                     f"{selection.sizes[0].label}, {selection.material.name}",
                     lambda: thickness_sweep_data(selection))]
-    if result is not None:
+    if result is not None and not hasattr(result.inputs["pipe"], "kind"):  # the profile is drawn on diameters
         charts.append(Chart("buildup_profile", "Temperature through the build-up at the selected thickness",
                             lambda: profile_data(result)))
     return charts
@@ -295,12 +300,14 @@ def _style(ax):
 def _draw_thickness_sweep(axes, d, units):
     t = _disp(d["thickness_m"], "thickness", units)
     ax_q, ax_t = axes
-    ax_q.plot(t, _disp(d["heat_flow_w_per_m"], "heat_flow_per_length", units), color=_INK, lw=1.8,
+    q_kind = d.get("heat_flow_kind", "heat_flow_per_length")
+    q_key = next(k for k, v in _BASIS_KINDS.items() if v == q_kind)
+    ax_q.plot(t, _disp(d[HEAT_FLOW_KEYS[q_key]], q_kind, units), color=_INK, lw=1.8,
               label="heat flow")
     ax_t.plot(t, _disp(d["surface_temp_c"], "temperature", units), color=_INK, lw=1.8, label="surface temperature")
     for j, lim in enumerate(d["limits"]):
         ax = ax_t if lim["quantity"] == "surface_temp" else ax_q
-        kind = "temperature" if lim["quantity"] == "surface_temp" else "heat_flow_per_length"
+        kind = "temperature" if lim["quantity"] == "surface_temp" else q_kind
         label = f"limit: {lim['label']}"
         if "margin_k" in lim:
             margin = float(_disp(lim["margin_k"], "temperature_difference", units))
@@ -317,7 +324,7 @@ def _draw_thickness_sweep(axes, d, units):
                    label=f"selected {sel:.{0 if units == 'si' else 2}f} {_lab('thickness', units)}"
                    if ax is ax_t else None)
         _style(ax)
-    ax_q.set_ylabel(f"heat flow [{_lab('heat_flow_per_length', units)}]", fontsize=9)
+    ax_q.set_ylabel(f"heat flow [{_lab(q_kind, units)}]", fontsize=9)
     ax_t.set_ylabel(f"surface [{_lab('temperature', units)}]", fontsize=9)
     ax_t.set_xlabel(f"thickness of {d['material']} [{_lab('thickness', units)}]", fontsize=9)
     ax_q.legend(fontsize=7, loc="best", framealpha=0.9, edgecolor="none")
