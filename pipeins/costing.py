@@ -96,7 +96,15 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
         basis = replace(basis, hours_per_year=hours)
         weights = hours / hours.sum()
     fittings = {k: int(v) for k, v in (fittings or {}).items() if v}
-    length = 1.0 if spec.length_m is None else float(spec.length_m)
+    kind = spec.section_kind
+    if kind == "face":
+        raise InputError("--face", "cost prices a run (W/m) or a whole vessel (W); a face's heat flow is per m²: "
+                                   "check it and multiply by the face's area")
+    whole = kind in ("sphere", "vessel")  # priced for the whole vessel: its heat flow is in W
+    if whole and (fittings or basis.cost_table is not None):
+        raise InputError("--cost-table" if basis.cost_table is not None else "--valves",
+                         "a vessel is priced on its heat flow alone: no fittings or installed-cost table per metre")
+    length = 1.0 if (spec.length_m is None or whole) else float(spec.length_m)
     if length < 0:
         raise InputError("--length", "the run length must be zero or more")
     size = spec.pipe_size()
@@ -106,7 +114,7 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
     pipe, layers, fluid, air, surface = spec.build_model()
     bare_face = bare_surface(pipe, surface)
     bare = solve(pipe, [], fluid, air, bare_face)
-    q_bare = np.asarray(bare.heat_flow_w_per_m)
+    q_bare = np.asarray(bare.heat_flow)  # W/m of a run, W of a vessel (then length 1)
     bare_w = q_bare * (length + fit_len)
 
     def mean(x):
@@ -115,7 +123,7 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
     bare_fig = _scalar(split_figures(bare_w, basis, weights))
     if spec.layers:
         insulated = solve(pipe, layers, fluid, air, surface)
-        q_ins = np.asarray(insulated.heat_flow_w_per_m)
+        q_ins = np.asarray(insulated.heat_flow)
         ins_w = q_ins * length + q_bare * fit_len
         study = CostStudy(spec, basis, length, fittings, fit_len, mean(q_bare), mean(q_ins), mean(bare_w),
                           mean(ins_w), bare_fig, _scalar(split_figures(ins_w, basis, weights)),
@@ -126,6 +134,7 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
                           bare_fig, None, bare_face, warnings=list(bare.warnings))
         study.result = bare
     study.profile = profile
+    study.whole_vessel = whole
     if fit_len and spec.layers:
         study.warnings.append(f"bare fittings count as {fit_len:.1f} m of bare pipe; insulating them "
                               "(removable covers) saves most of their share")

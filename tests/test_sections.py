@@ -257,3 +257,24 @@ def test_sun_on_a_pipe_is_absorbed_on_its_projected_area():
     r_ins = math.log(d_o / d) / (2 * math.pi * k) + math.log(d / (d - 0.008)) / (2 * math.pi * 50.0)
     ts = (6.0 / r_ins + alpha * g * d_o + h * math.pi * d_o * 30.0) / (1 / r_ins + h * math.pi * d_o)
     assert float(r.surface_temp_c) == pytest.approx(ts, rel=1e-9)
+
+
+def test_cost_of_a_vessel_prices_its_whole_heat_flow(run):
+    # energy per year = W × 8760 h (the hours given); bare and insulated kept apart
+    code, out, err = run("cost", "--vessel", "vertical", "--diameter", "3m", "--length", "5m", "--fluid-temp", "80C",
+                         "--ambient-temp", "10C", "--layer", "mineral wool:75mm", "--energy-price", "0.08/kWh",
+                         "--format", "json")
+    assert code == 0, err
+    d = json.loads(out)
+    bare, ins = d["bare"], d["insulated"]
+    assert "heat_flow_w_per_m" not in bare and bare["heat_flow_w"] > ins["heat_flow_w"] > 0
+    code, chk, _ = run("check", "--vessel", "vertical", "--diameter", "3m", "--length", "5m", "--fluid-temp", "80C",
+                       "--ambient-temp", "10C", "--layer", "mineral wool:75mm", "--format", "json")
+    assert ins["heat_flow_w"] == pytest.approx(json.loads(chk)["heat_flow_w"], rel=1e-9)
+    assert ins["heating"]["energy_j"] == pytest.approx(ins["heat_flow_w"] * 8760 * 3600, rel=1e-9)
+
+
+def test_cost_of_a_face_is_refused_in_one_line(run):
+    code, out, err = run("cost", "--face", "vertical", "--height", "3m", "--fluid-temp", "80C",
+                         "--layer", "mineral wool:75mm", "--energy-price", "0.08/kWh")
+    assert code == 2 and out == "" and err.startswith("Error: --face")

@@ -71,7 +71,8 @@ def cost_report(study, units: str = "si") -> Report:
         key = "heat_loss_w" if duty == "heating" else "heat_gain_w"
         over = _rounded(to_display(bare[key], "power", units), None if ins is None else
                         to_display(ins[key], "power", units), digits_q)
-        cols.append(Column(f"{word}, over the run", unit=unit_label("power", units), digits=digits_q, grouped=True))
+        where = "for the vessel" if getattr(study, "whole_vessel", False) else "over the run"
+        cols.append(Column(f"{word}, {where}", unit=unit_label("power", units), digits=digits_q, grouped=True))
         columns.append(over)
         e_b, e_i = bare[duty]["energy_j"], ins_get(duty, "energy_j")
         e_digits = 0 if units == "si" else 1
@@ -95,20 +96,26 @@ def cost_report(study, units: str = "si") -> Report:
                  else f"Bare line over {fq(study.length_m, 'length', units)}")
         if study.fitting_length_m:
             title += f" with {fittings} ({fq(study.fitting_length_m, 'length', units)} of bare pipe)"
-    per_m_cols = [Column("case"), Column("heat flow", "heat_flow_per_length"), Column("over the run", "power")]
-    per_m_rows = [["bare", study.bare_w_per_m, study.bare_w]]
-    if ins is not None:
-        per_m_rows.append(["insulated", study.insulated_w_per_m, study.insulated_w])
+    if getattr(study, "whole_vessel", False):
+        title = "Bare against insulated, the whole vessel" if ins is not None else "Bare vessel"
+        per_m_cols = [Column("case"), Column("heat flow", "power")]
+        per_m_rows = [["bare", study.bare_w]] + ([["insulated", study.insulated_w]] if ins is not None else [])
+    else:
+        per_m_cols = [Column("case"), Column("heat flow", "heat_flow_per_length"), Column("over the run", "power")]
+        per_m_rows = [["bare", study.bare_w_per_m, study.bare_w]]
+        if ins is not None:
+            per_m_rows.append(["insulated", study.insulated_w_per_m, study.insulated_w])
     note = ("Heat losses and heat gains are kept apart; saving = bare − insulated as printed." if ins is not None
             else "The bare line: the pipe's own surface, no insulation (no --layer given).")
     tables = [Table(title, cols, rows, note=note),
               Table("Heat flow (+ lost by the fluid, − gained)", per_m_cols, per_m_rows)]
 
     def block(fig, w_per_m, w):
-        out = {"heat_flow_w_per_m": w_per_m, "heat_flow_w": w,
+        out = {} if getattr(study, "whole_vessel", False) else {"heat_flow_w_per_m": w_per_m}
+        out.update({"heat_flow_w": w,
                "heat_loss_w": fig["heat_loss_w"], "heat_gain_w": fig["heat_gain_w"],
                "heating": dict(fig["heating"]), "cooling": dict(fig["cooling"]),
-               "cost": study.annual_cost(fig)}
+               "cost": study.annual_cost(fig)})
         co2 = [fig[d]["co2_kg"] for d in ("heating", "cooling")]
         out["co2_kg"] = None if any(c is None for c in co2) else float(sum(co2))
         return out
