@@ -83,6 +83,23 @@ def section_extras(spec, result, units: str):
     return rows, data, warnings
 
 
+def night_extras(spec, result, units, rows, data, warnings):
+    """With sun and an RH: the surface at night (no sun), where condensation is judged."""
+    if spec.solar_w_m2 is None or spec.rh_percent is None or result.dew_point_c is None:
+        return
+    from dataclasses import replace
+
+    from .units import format_quantity as fq
+
+    night = replace(spec, solar_w_m2=None, absorptance=None).solve()
+    ts, dew = _one(night.surface_temp_c), _one(night.dew_point_c)
+    rows.append(["surface at night, without sun", fq(ts, "temperature", units)])
+    data["night_surface_temp_c"] = ts
+    if ts < dew:
+        warnings.append(f"at night, without sun, the surface falls to {ts:.1f} °C, below the dew point "
+                        f"{dew:.1f} °C: it will sweat")
+
+
 def _contents_rows(spec, result, units, rows, data, warnings):
     """The stored contents: volume, mass, UA, time constant, initial rate, freeze hold (water)."""
     from .geometry.vessel import vessel_volume_m3

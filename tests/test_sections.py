@@ -278,3 +278,15 @@ def test_cost_of_a_face_is_refused_in_one_line(run):
     code, out, err = run("cost", "--face", "vertical", "--height", "3m", "--fluid-temp", "80C",
                          "--layer", "mineral wool:75mm", "--energy-price", "0.08/kWh")
     assert code == 2 and out == "" and err.startswith("Error: --face")
+
+
+def test_check_with_sun_reports_the_night_surface_and_its_sweating(run):
+    args = ("check", "--pipe", "DN50", "--fluid-temp", "5C", "--ambient-temp", "30C", "--rh", "80",
+            "--layer", "k=0.035:9mm", "--finish", "pvc jacket")
+    code, plain, _ = run(*args, "--format", "json")
+    code2, sunny, _ = run(*args, "--solar", "900W/m2", "--format", "json")
+    assert code == code2 == 0
+    plain, sunny = json.loads(plain), json.loads(sunny)
+    assert sunny["surface_temp_c"] > plain["surface_temp_c"]        # by day the sun warms the jacket
+    assert sunny["night_surface_temp_c"] == pytest.approx(plain["surface_temp_c"], abs=1e-9)  # at night: no sun
+    assert any("at night" in w and "sweat" in w for w in sunny["warnings"])

@@ -38,14 +38,18 @@ def check(fmt, units, output, **opts):
     result = spec.solve()
     if spec.section_kind != "pipe":
         from ..reports.section import section_report
-        from ..sections import section_extras
+        from ..sections import night_extras, section_extras
 
         rows, data, warnings = section_extras(spec, result, units)
+        night_extras(spec, result, units, rows, data, warnings)
         report = section_report(spec, result, units, rows, data, warnings)
         add_field_sections(report, spec, field, units)
         emit(report, fmt, units, output)
         return
+    from ..sections import night_extras
+
     rows, data, warnings = run_extras(spec, result, units)
+    night_extras(spec, result, units, rows, data, warnings)
     report = check_report(spec, result, units, rows, data, warnings)
     report.charts = check_charts(spec, result)
     add_field_sections(report, spec, field, units)

@@ -58,6 +58,10 @@ def describe_line(spec, result, units: str) -> list[list[str]]:
     if air.relative_humidity_percent is not None:
         air_text += f", RH {_f(air.relative_humidity_percent):.0f} %"
     rows.append(["surroundings", air_text])
+    if getattr(air, "solar_irradiance_w_m2", None) is not None:
+        alpha = surface.solar_absorptance
+        rows.append(["sun", f"{fq(_f(air.solar_irradiance_w_m2), 'heat_flux', units)} normal to the sun, "
+                            f"absorptance {_f(alpha):.2f}, absorbed on the projected area"])
     return rows
 
 

@@ -38,11 +38,6 @@ def describe_section(spec, result, units: str) -> list[list[str]]:
     contents = "air" if "duct" in result.kind else "contents" if result.basis == "W" else ""
     if contents and not spec.fluid:
         rows[1][1] = rows[1][1].replace("fluid at", f"{contents} at", 1)
-    if getattr(result.inputs["surroundings"], "solar_irradiance_w_m2", None) is not None:
-        sun = result.inputs["surroundings"].solar_irradiance_w_m2
-        alpha = result.inputs["surface"].solar_absorptance
-        rows.append(["sun", f"{fq(_f(sun), 'heat_flux', units)} normal to the sun, absorptance {_f(alpha):.2f}, "
-                            "absorbed on the projected area"])
     for patch in result.patches or ():
         if not patch.exposed and patch.note:
             rows.append([patch.name, patch.note])
