@@ -24,6 +24,7 @@ Any requirement that cannot be met, or any input the library refuses, raises one
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from operator import attrgetter
 
 import numpy as np
 
@@ -379,24 +380,34 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
     installed_note = [""] * n
     table = service.cost_table or project.cost_table
     if table is not None:
+        per_m: dict = {}   # (size, thickness) -> cost per metre, or the note why there is none
         for i, l in enumerate(lines):
-            try:
-                installed[i] = float(table.cost_per_m(l.size.label, thickness[i, 0])) * l.length_m
-            except InputError:
-                installed_note[i] = f"{table.name} has no price for {l.size.label} at {1000 * thickness[i, 0]:g} mm"
+            key = (l.size.label, float(thickness[i, 0]))
+            if key not in per_m:
+                try:
+                    per_m[key] = float(table.cost_per_m(l.size.label, thickness[i, 0]))
+                except InputError:
+                    per_m[key] = f"{table.name} has no price for {l.size.label} at {1000 * thickness[i, 0]:g} mm"
+            cost = per_m[key]
+            if isinstance(cost, str):
+                installed_note[i] = cost
+            else:
+                installed[i] = cost * l.length_m
 
-    out = []
-    for i, l in enumerate(lines):
-        priced = not (basis.cop is None and gaining[i])
-        figures = [money[duty][case][key][i] if priced else None
-                   for duty in ("heating", "cooling") for key in ("energy_j", "cost", "co2_kg")
-                   for case in ("insulated", "bare")]
-        out.append(LineResult(
-            l.tag, l.service, l.size.label, l.condition, l.length_m, float(thickness[i, 0]), float(q[i]),
-            float(q_bare[i]), float(fit_len[i]), float(heat[i]), float(heat_bare[i]), float(ts[i]),
-            None if dew_margin[i] is None else float(dew_margin[i]),
-            None if outlet[i] is None else float(outlet[i]),
-            bare_surface.name, float(bare_surface.emittance), priced, *figures, installed[i], installed_note[i]))
+    # every column as a list of Python floats (the same numbers float() gives), then one row per line
+    priced = [not g for g in gaining.tolist()] if basis.cop is None else [True] * n
+    every = all(priced)
+    figures = [money[duty][case][key] if every else [v if p else None for v, p in zip(money[duty][case][key], priced)]
+               for duty in ("heating", "cooling") for key in ("energy_j", "cost", "co2_kg")
+               for case in ("insulated", "bare")]
+    dew = [None if d is None else float(d) for d in dew_margin]
+    out_t = [None if t is None else float(t) for t in outlet]
+    name, emittance = bare_surface.name, float(bare_surface.emittance)
+    columns = zip(lines, thickness[:, 0].tolist(), q.tolist(), q_bare.tolist(), fit_len.tolist(), heat.tolist(),
+                  heat_bare.tolist(), ts.tolist(), dew, out_t, priced, *figures, installed, installed_note)
+    out = [LineResult(l.tag, l.service, l.size.label, l.condition, l.length_m, t, qi, qb, fl, h, hb, tsi, d, o,
+                      name, emittance, p, *rest)
+           for l, t, qi, qb, fl, h, hb, tsi, d, o, p, *rest in columns]
     return out
 
 
@@ -411,7 +422,7 @@ def _line_money(heat, heat_bare, basis) -> dict:
             q = np.where(q < 0, 0.0, q)  # unpriced heat gains: the caller leaves these lines out
         fig = split_figures(q, basis)
         for duty in out:
-            out[duty][case] = {k: [None] * len(q) if v is None else [float(x) for x in np.ravel(v)]
+            out[duty][case] = {k: [None] * len(q) if v is None else np.ravel(np.asarray(v, dtype=float)).tolist()
                                for k, v in fig[duty].items()}
     return out
 
@@ -431,7 +442,7 @@ def _totals(results: list[LineResult]) -> Totals:
     priced = [r for r in results if r.priced]
 
     def figure(attr):
-        return Figure(_sum(getattr(r, "bare_" + attr) for r in priced), _sum(getattr(r, attr) for r in priced))
+        return Figure(_sum(map(attrgetter("bare_" + attr), priced)), _sum(map(attrgetter(attr), priced)))
 
     heat_loss = Figure(float(sum(r.bare_heat_loss_w for r in results)), float(sum(r.heat_loss_w for r in results)))
     heat_gain = Figure(float(sum(r.bare_heat_gain_w for r in results)), float(sum(r.heat_gain_w for r in results)))
