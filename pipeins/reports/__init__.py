@@ -96,10 +96,63 @@ class Report:
     title_block: dict = field(default_factory=dict)
 
 
+def _column_cells(column: Column, values: list, units: str, csv: bool) -> list[str]:
+    """``[column.cell(v, units, csv) for v in values]``, with the quantities of a kind
+    formatted in one :func:`~pipeins.units.format_quantity` call over the column (the
+    same text: it formats an array value by value exactly as it formats each alone)."""
+    if column.kind is None or len(values) < 8:
+        return [column.cell(v, units, csv) for v in values]
+    shown = [i for i, v in enumerate(values)
+             if not (v is None or (isinstance(v, float) and math.isnan(v)))]
+    if not all(isinstance(values[i], (int, float)) for i in shown):
+        return [column.cell(v, units, csv) for v in values]
+    from ..units import format_quantity, unit_label
+
+    out = ["" if csv else "–"] * len(values)
+    label = unit_label(column.kind, units)
+    texts = format_quantity([float(values[i]) for i in shown], column.kind, units, column.digits) if shown else []
+    for i, text in zip(shown, texts):
+        out[i] = text[: -len(label)].strip() if text.endswith(label) else text
+    return out
+
+
 def _cells(table: Table, units: str, csv: bool = False) -> tuple[list[str], list[list[str]]]:
     heads = [c.label(units) for c in table.columns]
-    rows = [[c.cell(v, units, csv) for c, v in zip(table.columns, row)] for row in table.rows]
-    return heads, rows
+    if not table.rows or any(len(row) != len(table.columns) for row in table.rows):
+        return heads, [[c.cell(v, units, csv) for c, v in zip(table.columns, row)] for row in table.rows]
+    columns = [_column_cells(c, list(values), units, csv) for c, values in zip(table.columns, zip(*table.rows))]
+    return heads, [list(row) for row in zip(*columns)]
+
+
+#: Characters one column wide in a terminal (and to ``wcwidth``, which tabulate measures
+#: with): printable ASCII, Latin-1 letters and signs, Greek, and the punctuation, arrows,
+#: sub/superscripts and maths signs reports use (tests/test_report_text.py checks each).
+_NARROW = frozenset(
+    [chr(c) for c in range(0x20, 0x7F)] + [chr(c) for c in range(0xA1, 0x100) if c != 0xAD]
+    + [chr(c) for c in range(0x391, 0x3CA) if c != 0x3A2]
+    + list("‐‑‒–—―‘’‚“”„†‡•…‰′″‹›⁄€₀₁₂₃₄₅₆₇₈₉⁰ⁱ⁴⁵⁶⁷⁸⁹⁺⁻℃℉Ω←↑→↓↔≈≠≤≥−∓∙√∞∆∑⋅×÷")
+)
+
+
+def _plain_table(heads: list[str], rows: list[list[str]]) -> str | None:
+    """The table as ``tabulate(rows, heads, tablefmt="simple", disable_numparse=True)``
+    writes it, character for character, without importing tabulate: every column left
+    aligned, cells stripped, as wide as its widest cell and at least its heading plus two,
+    columns two spaces apart, a rule of dashes under the headings, trailing spaces cut.
+    None when a cell is out of that simple case (no rows, a line break, a character not in
+    :data:`_NARROW`): the caller uses tabulate then."""
+    if not rows or not heads or any(len(row) != len(heads) for row in rows):
+        return None
+    columns = [[c.strip() for c in column] for column in zip(*rows)]
+    text = "".join(heads) + "".join("".join(column) for column in columns)
+    if not (text.isascii() and text.isprintable()) and not set(text) <= _NARROW:
+        return None
+    widths = [max(len(h) + 2, max(map(len, column))) for h, column in zip(heads, columns)]
+    lines = ["  ".join(h.ljust(w) for h, w in zip(heads, widths)).rstrip(),
+             "  ".join("-" * w for w in widths).rstrip()]
+    padded = [[c.ljust(w) for c in column] for column, w in zip(columns, widths)]
+    lines += ["  ".join(row).rstrip() for row in zip(*padded)]
+    return "\n".join(lines)
 
 
 # Plain-ASCII spellings for a console that cannot show Unicode (and for --ascii).
@@ -133,8 +186,6 @@ def to_ascii(text: str) -> str:
 
 
 def _text(report: Report, units: str, markdown: bool, ascii: bool = False) -> str:
-    from tabulate import tabulate
-
     a = to_ascii if ascii else str
     double, single, bullet = ("=", "-", "*") if ascii else ("═", "─", "•")
     out = io.StringIO()
@@ -150,10 +201,17 @@ def _text(report: Report, units: str, markdown: bool, ascii: bool = False) -> st
         name = a(table.title)
         if markdown:
             out.write(f"\n## {name}\n\n")
+            from tabulate import tabulate
+
             out.write(tabulate(rows, heads, tablefmt="pipe", disable_numparse=True))
         else:
             out.write(f"\n{name}\n{single * len(name)}\n")
-            out.write(tabulate(rows, heads, tablefmt="simple", disable_numparse=True))
+            plain = _plain_table(heads, rows)
+            if plain is None:
+                from tabulate import tabulate
+
+                plain = tabulate(rows, heads, tablefmt="simple", disable_numparse=True)
+            out.write(plain)
         out.write("\n")
         if table.note:
             out.write(f"{a(table.note)}\n")
