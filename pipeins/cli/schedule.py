@@ -60,7 +60,7 @@ def schedule(project_file, fmt, units, output):
     project = load_project(project_file)  # a ProjectError carries every problem; main() prints each
     result = compute_schedule(project)
     shown = units or project.units
-    report = schedule_report(result, shown)
+    report = schedule_report(result, shown, line_data=fmt == "json")
     report.title_block = {"project": project.name, **project.report}
     from ..reports.charts import schedule_charts
 

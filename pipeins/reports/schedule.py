@@ -192,8 +192,31 @@ def _clean(v):
     return v
 
 
-def schedule_report(schedule, units: str = "si") -> Report:
-    """The :class:`~pipeins.reports.Report` of a :class:`pipeins.schedule.Schedule`."""
+def _line_data(lines) -> list[dict]:
+    """The JSON entry of every line: its fields (floats rounded to 1e-9, never NaN or inf)
+    and its heat loss and gain apart."""
+    from dataclasses import fields
+    from operator import attrgetter
+
+    from ..schedule import LineResult
+
+    names = tuple(f.name for f in fields(LineResult))
+    get = attrgetter(*names)
+    out = []
+    for l in lines:
+        entry = dict(zip(names, map(_clean, get(l))))
+        entry.update(heat_loss_w=l.heat_loss_w, bare_heat_loss_w=l.bare_heat_loss_w, heat_gain_w=l.heat_gain_w,
+                     bare_heat_gain_w=l.bare_heat_gain_w)
+        out.append(entry)
+    return out
+
+
+def schedule_report(schedule, units: str = "si", line_data: bool = True) -> Report:
+    """The :class:`~pipeins.reports.Report` of a :class:`pipeins.schedule.Schedule`.
+
+    With ``line_data=False`` the JSON payload leaves out the per-line entries
+    (``data["lines"]`` is None): what the text, Markdown, CSV, HTML and XLSX outputs do
+    not use, and the bulk of the memory of a long line list."""
     project = schedule.project
     cur = project.currency
     sched = Table("Insulation schedule", [
@@ -235,10 +258,7 @@ def schedule_report(schedule, units: str = "si") -> Report:
                       "material": r.material, "finish": r.finish, "thickness_mm": round(r.thickness_m * 1000, 2),
                       "layers_mm": [round(x * 1000, 2) for x in r.layers_m], "governing": r.governing}
                      for r in schedule.rows],
-        "lines": [{**{k: _clean(v) for k, v in l.__dict__.items()},
-                   "heat_loss_w": l.heat_loss_w, "bare_heat_loss_w": l.bare_heat_loss_w,
-                   "heat_gain_w": l.heat_gain_w, "bare_heat_gain_w": l.bare_heat_gain_w}
-                  for l in schedule.lines],
+        "lines": _line_data(schedule.lines) if line_data else None,
         "totals": {
             "heat_loss_w": t.heat_loss_w.to_dict(),
             "heat_gain_w": t.heat_gain_w.to_dict(),
