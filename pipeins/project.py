@@ -259,24 +259,39 @@ class _Positions:
     """Line numbers of table headers and keys (tomllib gives none): found in the text."""
 
     def __init__(self, text: str):
+        self.text = text
         self.headers: dict[tuple, int] = {}
-        self.keys: dict[tuple, int] = {}
+        self._keys: dict[tuple, int] | None = None  # found on the first problem (most files have none)
+        self._scan(keys=False)
+
+    def _scan(self, keys: bool) -> None:
+        found: dict[tuple, int] = {}
         counts: dict[tuple, int] = {}
         current: tuple = ()
-        for number, raw in enumerate(text.splitlines(), start=1):
-            m = _HEADER_RE.match(raw)
-            if m and not raw.lstrip().startswith("#"):
-                path = _split_path(m.group(2))
-                if m.group(1) == "[[":
-                    counts[path] = counts.get(path, 0) + 1
-                    path = path + (counts[path],)
-                current = path
-                self.headers.setdefault(current, number)
-                continue
-            k = _KEY_RE.match(raw)
-            if k:
-                key = k.group(1).strip("\"'")
-                self.keys.setdefault(current + (key,), number)
+        for number, raw in enumerate(self.text.splitlines(), start=1):
+            if raw.lstrip().startswith("["):  # only such a line can be a header
+                m = _HEADER_RE.match(raw)
+                if m:
+                    path = _split_path(m.group(2))
+                    if m.group(1) == "[[":
+                        counts[path] = counts.get(path, 0) + 1
+                        path = path + (counts[path],)
+                    current = path
+                    self.headers.setdefault(current, number)
+                    continue
+            if keys:
+                k = _KEY_RE.match(raw)
+                if k:
+                    key = k.group(1).strip("\"'")
+                    found.setdefault(current + (key,), number)
+        if keys:
+            self._keys = found
+
+    @property
+    def keys(self) -> dict[tuple, int]:
+        if self._keys is None:
+            self._scan(keys=True)
+        return self._keys
 
     def header(self, path: tuple) -> int:
         return self.headers.get(path, 0)
@@ -302,6 +317,9 @@ class _Reader:
         self.currency = ""
         self.code_paths: tuple = ()
         self.places: dict = {}  # ("lines", index) of a line-list row -> its place (pipeins.linelist)
+        # Line lists repeat the same texts ("50 m", "NPS 2") thousands of times: each distinct
+        # value is read once; what it gave (a value or the refusal) is replayed for the rest.
+        self._memo: dict = {}
 
     # -- reporting --------------------------------------------------------------------
     def problem(self, path: tuple, entry: str, key: str | None, message: str) -> None:
@@ -316,9 +334,30 @@ class _Reader:
         try:
             return func(*args, **kw)
         except InputError as exc:
-            for name, message in getattr(exc, "items", None) or [(exc.name, exc.message)]:
-                self.problem(path, entry, key, message)
+            self._refused(path, entry, key, exc)
             return None
+
+    def _refused(self, path, entry, key, exc: InputError) -> None:
+        for name, message in getattr(exc, "items", None) or [(exc.name, exc.message)]:
+            self.problem(path, entry, key, message)
+
+    def cached(self, path, entry, key, func, *args):
+        """:meth:`guard` for a pure *func* of hashable *args*: each distinct call runs once;
+        a repeat gives the same value, or the same problems at its own place."""
+        memo_key = (func, *((type(a), a) for a in args))
+        try:
+            hit = self._memo.get(memo_key)
+        except TypeError:  # an unhashable argument: no memo
+            return self.guard(path, entry, key, func, *args)
+        if hit is None:
+            try:
+                hit = (func(*args), None)
+            except InputError as exc:
+                hit = (None, exc)
+            self._memo[memo_key] = hit
+        if hit[1] is not None:
+            self._refused(path, entry, key, hit[1])
+        return hit[0]
 
     # -- typed values -----------------------------------------------------------------
     def check_keys(self, table: dict, kind: str, path: tuple, entry: str, required=()):
@@ -352,7 +391,7 @@ class _Reader:
         if param.kind not in ("count", "choice") and (isinstance(raw, bool) or not isinstance(raw, (str, int, float))):
             self.problem(path, entry, key, f"{key} must be a number or text with a unit, e.g. {key} = \"…\"")
             return default
-        result = self.guard(path, entry, key, parse_value, param.name, raw, self.units)
+        result = self.cached(path, entry, key, parse_value, param.name, raw, self.units)
         return default if result is None else result
 
     def values(self, table, kind, path, entry, keys) -> dict:
@@ -369,7 +408,16 @@ class _Reader:
         """The rules between inputs (:func:`pipeins.inputs.check_line`), each problem
         placed at the key of the parameter it names (``origin``: parameter → (path,
         entry, key))."""
-        for name, message in check_line(given):
+        try:
+            memo_key = (check_line, tuple((k, type(v), v) for k, v in given.items()))
+            found = self._memo.get(memo_key)
+        except TypeError:  # an unhashable value: no memo
+            memo_key, found = None, None
+        if found is None:
+            found = check_line(given)
+            if memo_key is not None:
+                self._memo[memo_key] = found
+        for name, message in found:
             if (name, message) in skip:
                 continue
             path, entry, key = origin.get(name) or fallback
@@ -773,7 +821,7 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
         schedule = service.schedule if service is not None else None
         if schedule is not None and not size_text.strip().upper().startswith("NPS"):
             schedule = None  # a steel schedule applies to NPS sizes only
-        size = r.guard(p, entry, "size", lookup_pipe, size_text, schedule)
+        size = r.cached(p, entry, "size", lookup_pipe, size_text, schedule)
     if "od" in table or "wall" in table:
         if size_text is not None:
             r.problem(p, entry, "od", "give a catalogue size or od with wall, not both")
@@ -811,7 +859,7 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
 
         for kind, n in fittings.items():
             if n:
-                r.guard(p, entry, kind + "s", equivalent_length_m, kind, size.outer_diameter_m)
+                r.cached(p, entry, kind + "s", equivalent_length_m, kind, size.outer_diameter_m)
     if (len(r.problems) > before or sname not in services or cname not in conditions or size is None
             or "length_m" not in v):
         return None
