@@ -195,7 +195,7 @@ class Service:
         return {k: v for k, v in kw.items() if v is not None}
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class Line:
     """One run of pipe: its service, size, length, location and bare fittings."""
 
@@ -480,27 +480,25 @@ class _Reader:
 def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> Project:
     """Read a project from TOML *text*; *file_name* names it in errors and *base_dir*
     anchors its relative paths.  Raises :class:`ProjectError` listing every problem."""
-    from .user_materials import materials_in_use, project_materials
-
-    materials = project_materials(text, file_name, base_dir)  # [project] materials_file, found first
-    with materials_in_use(materials[0]):
-        return replace(_parse_project(text, file_name, base_dir, materials[2]), materials=materials[0],
-                       materials_warnings=materials[1])
-
-
-def _parse_project(text: str, file_name: str, base_dir, materials_problem: str | None) -> Project:
     import tomllib
 
     from .fileio import load_toml
+    from .user_materials import materials_in_use, project_materials
 
     try:
-        data = load_toml(text, file_name)
+        data = load_toml(text, file_name)  # read once: the materials hook and the reader share it
     except tomllib.TOMLDecodeError as exc:
         message = str(exc)
         m = re.search(r"\(at line (\d+), column \d+\)", message)
         line = f"line {m.group(1)}: " if m else ""
         raise ProjectError([f"{file_name}: {line}not valid TOML: {message}"]) from None
+    materials = project_materials(text, file_name, base_dir, data)  # [project] materials_file, found first
+    with materials_in_use(materials[0]):
+        return replace(_parse_project(data, text, file_name, base_dir, materials[2]), materials=materials[0],
+                       materials_warnings=materials[1])
 
+
+def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_problem: str | None) -> Project:
     r = _Reader(text, file_name, Path(base_dir))
     for key in data:
         if key not in _TOP:

@@ -182,20 +182,21 @@ def materials_in_use(materials: dict | None = None, factors: DesignFactors | Non
         catalogue._HOOK = previous
 
 
-def project_materials(text: str, file_name: str, base_dir) -> tuple[dict, list[str], str | None]:
+def project_materials(text: str, file_name: str, base_dir, data: dict | None = None) -> tuple[dict, list[str], str | None]:
     """The user materials a project file names with ``[project] materials_file`` (a CSV of the
     shape of ``check --materials``, resolved relative to the project file).
 
     Returns ``(materials, warnings, problem)``: ``problem`` is the one-line message to report
     against the key (a missing or malformed file), else None; a project without the key, or
     whose TOML does not read (reported by the project reader), gives ``({}, [], None)``.
+    *data* is the file already read (``tomllib``), when the caller has it.
     """
     from pathlib import Path
 
     from .fileio import load_toml
 
     try:
-        head = load_toml(text, file_name).get("project")
+        head = (data if data is not None else load_toml(text, file_name)).get("project")
     except Exception:  # the project reader reports it, with its position
         return {}, [], None
     if not isinstance(head, dict) or "materials_file" not in head:
