@@ -134,13 +134,13 @@ _NARROW = frozenset(
 )
 
 
-def _plain_table(heads: list[str], rows: list[list[str]]) -> str | None:
+def _plain_table(heads: list[str], rows: list[list[str]]) -> list[str] | None:
     """The table as ``tabulate(rows, heads, tablefmt="simple", disable_numparse=True)``
     writes it, character for character, without importing tabulate: every column left
     aligned, cells stripped, as wide as its widest cell and at least its heading plus two,
     columns two spaces apart, a rule of dashes under the headings, trailing spaces cut.
-    None when a cell is out of that simple case (no rows, a line break, a character not in
-    :data:`_NARROW`): the caller uses tabulate then."""
+    Returns its lines (without line ends); None when a cell is out of that simple case (no
+    rows, a line break, a character not in :data:`_NARROW`): the caller uses tabulate then."""
     if not rows or not heads or any(len(row) != len(heads) for row in rows):
         return None
     columns = [[c.strip() for c in column] for column in zip(*rows)]
@@ -150,9 +150,8 @@ def _plain_table(heads: list[str], rows: list[list[str]]) -> str | None:
     widths = [max(len(h) + 2, max(map(len, column))) for h, column in zip(heads, columns)]
     lines = ["  ".join(h.ljust(w) for h, w in zip(heads, widths)).rstrip(),
              "  ".join("-" * w for w in widths).rstrip()]
-    padded = [[c.ljust(w) for c in column] for column, w in zip(columns, widths)]
-    lines += ["  ".join(row).rstrip() for row in zip(*padded)]
-    return "\n".join(lines)
+    lines += ["  ".join([c.ljust(w) for c, w in zip(row, widths)]).rstrip() for row in zip(*columns)]
+    return lines
 
 
 # Plain-ASCII spellings for a console that cannot show Unicode (and for --ascii).
@@ -210,8 +209,9 @@ def _text(report: Report, units: str, markdown: bool, ascii: bool = False) -> st
             if plain is None:
                 from tabulate import tabulate
 
-                plain = tabulate(rows, heads, tablefmt="simple", disable_numparse=True)
-            out.write(plain)
+                out.write(tabulate(rows, heads, tablefmt="simple", disable_numparse=True))
+            else:
+                out.write("\n".join(plain))
         out.write("\n")
         if table.note:
             out.write(f"{a(table.note)}\n")
