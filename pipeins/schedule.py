@@ -64,7 +64,7 @@ class ScheduleRow:
         return self.sizes[0] if len(self.sizes) == 1 else f"{self.sizes[0]} – {self.sizes[-1]}"
 
 
-@dataclass
+@dataclass(slots=True)
 class LineResult:
     """One line solved at its schedule thickness and bare (SI).
 
