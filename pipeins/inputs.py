@@ -123,9 +123,9 @@ PARAMS: tuple[Param, ...] = (
           0.0, None, True),
     Param("altitude_m", "--altitude", "altitude", _C, "length", "site altitude instead of air_pressure "
           "(standard atmosphere) [m]", "0 m", -500.0, 11_000.0),
-    Param("solar_w_m2", "--solar", None, (), "heat_flux", "solar irradiance on a surface normal to the sun "
+    Param("solar_w_m2", "--solar", "solar", _C, "heat_flux", "solar irradiance on a surface normal to the sun "
           "[W/m²] (absorbed on the projected area; not at night)", "none", 0.0, 1400.0),
-    Param("absorptance", "--absorptance", None, (), "number", "solar absorptance of the outer surface (0 to 1)",
+    Param("absorptance", "--absorptance", "absorptance", _C, "number", "solar absorptance of the outer surface (0 to 1)",
           "the finish's", 0.0, 1.0),
     Param("outer_h_w_m2k", "--outer-h", "outer_h", _C, "heat_transfer_coefficient",
           "fixed combined outer coefficient, replaces convection and radiation [W/(m²·K)]", "", 0.1, 1e4),
@@ -228,8 +228,6 @@ CLI_ONLY = {
     "--diameter": "a cylindrical vessel's diameter on the command line; the schedule lists pipes",
     "--heads": "a cylindrical vessel's heads on the command line; the schedule lists pipes",
     "--floor": "a vertical tank's floor on the command line; the schedule lists pipes",
-    "--solar": "sun on one checked or sized line or section; not yet a project-file input",
-    "--absorptance": "sun on one checked or sized line or section; not yet a project-file input",
     "--materials": "a user's materials file for one checked line (pipeins.user_materials); a project names its "
                    "own with [project] materials_file",
     "--valve": "fittings as objects on one line (pipeins.fittings); a project line counts valves (equivalent lengths)",
@@ -243,6 +241,9 @@ FILE_ONLY = {
     "name": "the project's name, shown in its schedule",
     "service": "a line names its service",
     "condition": "a line names its location",
+    "conditions": "a service or line sized under several design conditions (pipeins.design_conditions); the "
+                  "command line solves one",
+    "criteria_here": "the criteria a design condition takes when a line has several; the command line solves one",
     "tag": "a line's own name",
     "criteria": "the criteria a service is sized for; on the command line, the options given choose them",
     "thickness": "a line's fixed thickness; on the command line, check and cost take --layer",

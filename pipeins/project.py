@@ -83,9 +83,9 @@ def _param_keys(table: str) -> set:
 KEYS = {
     "project": {"name", "units", "lines_file", "lines_sheet", "materials_file"} | _param_keys("project"),
     "energy": _param_keys("energy"),
-    "conditions": _param_keys("conditions"),
-    "services": _param_keys("services") | {"criteria"},
-    "lines": _param_keys("lines") | {"service", "condition", "tag"},
+    "conditions": _param_keys("conditions") | {"criteria_here"},
+    "services": _param_keys("services") | {"criteria", "conditions"},
+    "lines": _param_keys("lines") | {"service", "condition", "conditions", "tag"},
     # the title block of the HTML and XLSX reports (pipeins.reports.html.TITLE_BLOCK_KEYS)
     "report": {"project", "number", "client", "revision", "date", "prepared_by", "checked_by"},
 }
@@ -139,14 +139,20 @@ class Condition:
     orientation: str = "horizontal"
     height_m: float | None = None
     outer_h_w_m2k: float | None = None
+    #: The criteria this condition takes when a line has several (None: the default rule of
+    #: :func:`pipeins.design_conditions.criteria_under`).
+    criteria_here: tuple | None = None
+    solar_w_m2: float | None = None     # sun [W/m²] on a surface normal to it
+    absorptance: float | None = None    # solar absorptance (None: the finish's)
 
     @property
     def spec_kw(self) -> dict:
         """The :class:`pipeins.line.LineSpec` fields this location sets beyond air, RH, wind,
         surroundings and pressure."""
         kw = {"orientation": self.orientation, "height_m": self.height_m}
-        if self.outer_h_w_m2k is not None:
-            kw["outer_h_w_m2k"] = self.outer_h_w_m2k
+        for name in ("outer_h_w_m2k", "solar_w_m2", "absorptance"):
+            if getattr(self, name) is not None:
+                kw[name] = getattr(self, name)
         return kw
 
 
@@ -173,6 +179,7 @@ class Service:
     pipe_material: str | None = None
     velocity_m_s: float | None = None
     inner_h_w_m2k: float | None = None
+    conditions: tuple = ()     # the conditions of its lines that name none
     base: str | None = None    # the service a line's overrides derive this one from
     thickness_m: float | None = None   # a line's given thickness: checked, not sized
     entry: str | None = None           # where a derived service comes from ("lines entry 3")
@@ -226,6 +233,9 @@ class Project:
     report: dict = field(default_factory=dict)  # [report]: title block texts by key
     materials: dict = field(default_factory=dict)  # materials_file: user materials by key (pipeins.user_materials)
     materials_warnings: list = field(default_factory=list)
+    #: A line's several conditions: the name it is scheduled under ("summer + winter") -> the
+    #: names of its conditions (pipeins.design_conditions).
+    condition_sets: dict = field(default_factory=dict)
 
     def where(self, file_line: int, entry: str, key: str | None = None) -> str:
         return _where(self.file_name, file_line, entry, key)
@@ -572,7 +582,9 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
         p, entry = ("conditions", cname), f'condition "{cname}"'
         r.check_keys(table, "conditions", p, entry, required=("air",))
         before = len(r.problems)
-        v = r.values(table, "conditions", p, entry, [k for k in KEYS["conditions"] if k in table])
+        v = r.values(table, "conditions", p, entry, [k for k in KEYS["conditions"] if k in table and
+                                                     k != "criteria_here"])
+        here = _criteria_list(r, table, "criteria_here", p, entry) if "criteria_here" in table else None
         origin = {_PARAM_OF[("conditions", k)]: (p, entry, k) for k in table if ("conditions", k) in _PARAM_OF}
         r.cross_check(v, origin, (p, entry, None))
         condition_values[cname] = (v, origin)
@@ -586,13 +598,18 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
             conditions[cname] = Condition(cname, v["air_temp_c"], v.get("rh_percent"), v.get("wind_m_s", 0.0),
                                           v.get("surroundings_temp_c"), pressure, r.pos.header(p),
                                           v.get("orientation", "horizontal"), v.get("height_m"),
-                                          v.get("outer_h_w_m2k"))
+                                          v.get("outer_h_w_m2k"), here, v.get("solar_w_m2"),
+                                          v.get("absorptance"))
 
+    r.conditions_read = conditions
     # [services.*]
     services: dict[str, Service] = {}
     service_values: dict[str, tuple] = {}
     for sname, table in _named_tables(r, data, "services", "service").items():
         service = _service(r, sname, table, energy, code, cost_table, service_values)
+        if service is not None and "conditions" in table:
+            service = replace(service, conditions=_condition_list(
+                r, table, ("services", sname), f'service "{sname}"', data.get("conditions", {})))
         if service is not None:
             services[sname] = service
 
@@ -638,7 +655,8 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
         counter[key] = counter.get(key, 0) + 1
         out.append(replace(line, tag=f"{line.service} {line.size.label} {line.condition} #{counter[key]}"))
     return Project(name, units, r.currency, Path(base_dir) / file_name, code, r.code_paths, energy, conditions,
-                   services, out, cost_table, file_name, {k: v for k, v in report_block.items() if v})
+                   services, out, cost_table, file_name, {k: v for k, v in report_block.items() if v},
+                   condition_sets=r.__dict__.get("condition_sets", {}))
 
 
 def load_project(path) -> Project:
@@ -674,7 +692,7 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
     r.check_keys(table, "services", p, entry, required=("material",))
     ok_before = len(r.problems)
     quantity_keys = [k for k in KEYS["services"] if k in table and k not in
-                     ("criteria", "code", "cost_table", "fluid", "material", "finish", "series", "schedule",
+                     ("criteria", "conditions", "code", "cost_table", "fluid", "material", "finish", "series", "schedule",
                       "pipe_material") and k not in KEYS["energy"]]
     v = r.values(table, "services", p, entry, quantity_keys)
     origin = {_PARAM_OF[("services", k)]: (p, entry, k) for k in table if ("services", k) in _PARAM_OF}
@@ -793,7 +811,10 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     p = ("lines", index)
     tag = table.get("tag") if isinstance(table.get("tag"), str) else ""
     entry = f"lines entry {index}" + (f' "{tag}"' if tag else "")
-    required = ("service", "length", "condition") + (() if "od" in table or "wall" in table else ("size",))
+    raw_service = raw_services.get(table.get("service")) if isinstance(table.get("service"), str) else None
+    several = "conditions" in table or (isinstance(raw_service, dict) and "conditions" in raw_service)
+    required = ("service", "length") + (() if several else ("condition",)) + (
+        () if "od" in table or "wall" in table else ("size",))
     r.check_keys(table, "lines", p, entry, required=required)
     before = len(r.problems)
     if "tag" in table:
@@ -807,7 +828,10 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     if cname is not None and cname not in raw_conditions:
         known = list(raw_conditions) or ["(none)"]
         r.problem(p, entry, "condition", f'unknown condition "{cname}"; {closest_names(cname, known)}')
-    own_keys = [k for k in KEYS["lines"] if k in table and k not in ("service", "condition", "tag", "size")]
+    names = _line_conditions(r, table, p, entry, services.get(sname), raw_conditions, cname)
+    cname = names[0] if names else cname
+    own_keys = [k for k in KEYS["lines"] if k in table and k not in ("service", "condition", "conditions", "tag",
+                                                                    "size")]
     v = r.values(table, "lines", p, entry, own_keys)
     origin = {_PARAM_OF[("lines", k)]: (p, entry, k) for k in table if ("lines", k) in _PARAM_OF}
     size_text = r.text_value(table, "size", p, entry)
@@ -862,7 +886,12 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
             or "length_m" not in v):
         return None
     sname = _line_service(services, sname, table, v, r.pos.header(p), entry)
-    cname = _line_condition(conditions, cname, table, v)
+    if names and any(n not in conditions for n in names):
+        return None
+    if len(names) > 1:  # several conditions: scheduled under their set (pipeins.design_conditions)
+        cname = _condition_set(r, conditions, [_line_condition(conditions, n, table, v) for n in names])
+    else:
+        cname = _line_condition(conditions, cname, table, v)
     return Line(index, tag, sname, size, v["length_m"], cname, fittings, r.pos.header(p))
 
 
@@ -907,4 +936,71 @@ def _line_condition(conditions: dict, cname: str, table: dict, v: dict) -> str:
         orientation = v.get("orientation", base.orientation)
         conditions[name] = replace(base, name=name, orientation=orientation,
                                    height_m=v.get("height_m", base.height_m if orientation == "vertical" else None))
+    return name
+
+
+# --------------------------------------------------------------------------- several conditions
+def _criteria_list(r: _Reader, table: dict, key: str, p: tuple, entry: str) -> tuple | None:
+    """A list of criterion names at *key* (None when refused)."""
+    items = table[key]
+    if not isinstance(items, list) or not items or not all(isinstance(x, str) for x in items):
+        r.problem(p, entry, key, f'{key} must be a list of criteria, e.g. {key} = ["condensation", "touch"]')
+        return None
+    bad = [x for x in items if x not in CRITERIA]
+    for x in bad:
+        r.problem(p, entry, key, f'unknown criterion "{x}"; {closest_names(x, CRITERIA)}')
+    return None if bad else tuple(items)
+
+
+def _condition_list(r: _Reader, table: dict, p: tuple, entry: str, raw_conditions) -> tuple:
+    """The names of a service's or line's ``conditions = [...]`` (unknown ones reported)."""
+    items = table["conditions"]
+    if not isinstance(items, list) or not items or not all(isinstance(x, str) and x for x in items):
+        r.problem(p, entry, "conditions", 'conditions must be a list of [conditions.NAME] names, e.g. '
+                                          'conditions = ["summer", "winter"]')
+        return ()
+    known = list(raw_conditions) or ["(none)"]
+    for x in items:
+        if x not in raw_conditions:
+            r.problem(p, entry, "conditions", f'unknown condition "{x}"; {closest_names(x, known)}')
+        elif items.count(x) > 1:
+            r.problem(p, entry, "conditions", f'condition "{x}" is listed twice')
+    return tuple(dict.fromkeys(items))
+
+
+def _line_conditions(r: _Reader, table: dict, p: tuple, entry: str, service, raw_conditions, cname) -> list:
+    """A line's conditions when it has a list (its own, or its service's when it names no
+    condition); [] for a line with one ``condition``.  A condition of the list that no
+    criterion of the service uses is refused."""
+    if "conditions" in table:
+        if "condition" in table:
+            r.problem(p, entry, "conditions", "give condition or conditions, not both")
+            return []
+        names, where = list(_condition_list(r, table, p, entry, raw_conditions)), (p, entry)
+    elif cname is None and service is not None and service.conditions:
+        names = list(service.conditions)
+        where = (("services", service.base or service.name), f'service "{service.base or service.name}"')
+    else:
+        return []
+    if service is not None and len(names) > 1:
+        from .design_conditions import criteria_under, why_unused
+
+        conditions = r.__dict__.get("conditions_read", {})
+        for n in names:
+            if n in conditions and not criteria_under(conditions[n], service.criteria):
+                r.problem(*where, "conditions", f'condition "{n}" is used by no criterion of service '
+                                                f'"{service.name}" ({", ".join(service.criteria)}): '
+                                                f"{why_unused(conditions[n])}; drop it or give it criteria_here")
+    return names
+
+
+def _condition_set(r: _Reader, conditions: dict, names: list) -> str:
+    """The name a line with several conditions is scheduled under ("summer + winter"): a
+    location with the first condition's surroundings (its heat flow and energy are reported
+    there), the set kept in ``Project.condition_sets``."""
+    name = " + ".join(names)
+    sets = r.__dict__.setdefault("condition_sets", {})
+    if name not in sets:
+        sets[name] = tuple(names)
+        conditions[name] = replace(conditions[names[0]], name=name)
     return name

@@ -69,8 +69,9 @@ def test_good_file_reads():
                  'project.toml: line 20 (lines entry 1): condition: unknown condition "rooom"; did you mean "room"?',
                  id="unknown-condition"),
     pytest.param('rh = 60', 'humidity = 60',
-                 'project.toml: line 7 (condition "room"): humidity: unknown key "humidity"; known: air, air_pressure, '
-                 'altitude, height, orientation, outer_h, rh, surroundings, wind', id="unknown-key"),
+                 'project.toml: line 7 (condition "room"): humidity: unknown key "humidity"; known: absorptance, air, '
+                 'air_pressure, altitude, criteria_here, height, orientation, outer_h, rh, solar, surroundings, wind',
+                 id="unknown-key"),
     pytest.param('valves = 1', 'valvs = 1',
                  'project.toml: line 21 (lines entry 1): valvs: unknown key "valvs"; did you mean "valves"?',
                  id="unknown-key-did-you-mean"),
