@@ -58,6 +58,8 @@ class ScheduleRow:
     thickness_m: float
     layers_m: tuple[float, ...]
     governing: str | None
+    #: The design condition that governs, where the lines have several (pipeins.design_conditions).
+    governing_condition: str | None = None
 
     @property
     def size_band(self) -> str:
@@ -261,7 +263,8 @@ def _compute_schedule(project: Project) -> Schedule:
                     problems.append(f"{where}: {size.label} in {condition.name}: {msg}")
                     continue
                 key = (sname, cname, size.label)
-                pick = (float(out.selected_m[i]), tuple(out.layer_split_m[i]), out.governing[i])
+                pick = (float(out.selected_m[i]), tuple(out.layer_split_m[i]), out.governing[i],
+                        sel.governing_condition[i] if hasattr(sel, "governing_condition") else None)
                 if service.thickness_m is not None and abs(pick[0] - service.thickness_m) > 1e-9:
                     problems.append(_fixed_thickness_miss(project, service, size, condition, pick))
                     continue
@@ -317,8 +320,16 @@ def _fixed_thickness_miss(project, service, size, condition, pick) -> str:
 def _select(project, service, condition, sizes, length):
     from .selection import select
 
-    spec = _spec(service, condition, length, with_rh="condensation" in service.criteria)
     economic = _basis(service, True) if "economic" in service.criteria else None
+    if condition.name in project.condition_sets:  # several design conditions
+        from .design_conditions import select_over_conditions
+
+        return select_over_conditions(
+            lambda c, with_rh: _spec(service, c, length, with_rh=with_rh),
+            [project.conditions[n] for n in project.condition_sets[condition.name]], service.criteria,
+            service.material, service.requirements, service.series, project.units, sizes=sizes, code=service.code,
+            economic=economic, code_paths=project.code_paths)
+    spec = _spec(service, condition, length, with_rh="condensation" in service.criteria)
     return select(spec, service.material, service.requirements, service.series, project.units, sizes=sizes,
                   code=service.code, economic=economic, code_paths=project.code_paths, add_inner_layer=False)
 
@@ -475,13 +486,15 @@ def _bands(project, chosen, groups) -> list[ScheduleRow]:
         material = lookup_material(service.material).name
         finish = service.finish or "–"
         for size in sizes:
-            thickness, split, governing = chosen[(sname, cname, size.label)]
+            thickness, split, governing, under = chosen[(sname, cname, size.label)]
             last = rows[-1] if rows else None
             if (last is not None and last.service == sname and last.condition == cname
-                    and last.thickness_m == thickness and last.layers_m == split and last.governing == governing):
+                    and last.thickness_m == thickness and last.layers_m == split and last.governing == governing
+                    and last.governing_condition == under):
                 last.sizes.append(size.label)
             else:
-                rows.append(ScheduleRow(sname, cname, [size.label], material, finish, thickness, split, governing))
+                rows.append(ScheduleRow(sname, cname, [size.label], material, finish, thickness, split, governing,
+                                        under))
     return rows
 
 

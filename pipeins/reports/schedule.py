@@ -31,10 +31,11 @@ def csv_files(report) -> list[tuple[str, Table]]:
     return [(CSV_NAMES[t.title], t) for t in report.tables]
 
 
-def _governing(key):
+def _governing(key, condition=None):
     from ..schedule import GOVERNING_LABELS
 
-    return GOVERNING_LABELS.get(key, "–") if key else "–"
+    text = GOVERNING_LABELS.get(key, "–") if key else "–"
+    return f"{text} ({condition})" if key and condition else text
 
 
 def _triple(figure, scale, digits):
@@ -148,8 +149,10 @@ def _basis_tables(schedule, units, cur):
         note="Heat losses are priced through the efficiency, heat gains through the COP; a gain with no "
              "COP is left unpriced, never priced as heating.")
     l_rows = []
+    sets = getattr(project, "condition_sets", {})   # a line's several conditions: each of them
+    shown = {m for _, cn in used for m in sets.get(cn, (cn,))}
     for name, c in project.conditions.items():
-        if not any(cn == name for _, cn in used):
+        if name not in shown:
             continue
         l_rows.append([name, c.air_temp_c, c.rh_percent, c.wind_m_s,
                        c.air_temp_c if c.surroundings_temp_c is None else c.surroundings_temp_c, c.pressure_pa])
@@ -223,7 +226,7 @@ def schedule_report(schedule, units: str = "si", line_data: bool = True) -> Repo
         Column("service"), Column("location"), Column("sizes"), Column("material"), Column("finish"),
         Column("thickness", "thickness"), Column("layers"), Column("governing requirement")],
         [[r.service, r.condition, r.size_band, r.material, r.finish, r.thickness_m, layers_text(r.layers_m, units),
-          _governing(r.governing)] for r in schedule.rows])
+          _governing(r.governing, r.governing_condition)] for r in schedule.rows])
 
     lines = Table("Lines", [
         Column("line"), Column("service"), Column("size"), Column("location"), Column("length", "length"),
@@ -256,7 +259,8 @@ def schedule_report(schedule, units: str = "si", line_data: bool = True) -> Repo
         "currency": cur,
         "schedule": [{"service": r.service, "condition": r.condition, "sizes": list(r.sizes),
                       "material": r.material, "finish": r.finish, "thickness_mm": round(r.thickness_m * 1000, 2),
-                      "layers_mm": [round(x * 1000, 2) for x in r.layers_m], "governing": r.governing}
+                      "layers_mm": [round(x * 1000, 2) for x in r.layers_m], "governing": r.governing,
+                      **({"governing_condition": r.governing_condition} if r.governing_condition else {})}
                      for r in schedule.rows],
         "lines": _line_data(schedule.lines) if line_data else None,
         "totals": {
