@@ -356,11 +356,46 @@ class LineSpec:
         return self.fluid_temp_c
 
     def fluid_name(self) -> str | None:
-        return "steam" if self.steam_pressure_pa is not None else self.fluid
+        if self.steam_pressure_pa is not None:
+            return "steam"
+        if self.fluid is None and self.section_kind == "duct":
+            return "air"  # the fluid of a duct is its air unless said otherwise
+        return self.fluid
+
+    def _flowing(self) -> bool:
+        return self.velocity_m_s is not None or self.flow is not None
+
+    def _duct_air_film(self, section, temp):
+        """The inside air film of a duct from ``velocity_m_s`` or ``flow`` (see
+        :func:`pipeins.physics.duct_inner.duct_inner_film`), on the inside dimensions."""
+        from .physics.duct_inner import duct_inner_film
+
+        if self.fluid not in (None, "air"):
+            raise InputError("fluid", f'"{self.fluid}" in a duct: the inside film of a duct is worked out for air '
+                                      "only; leave fluid out (air) or give inner_h_w_m2k")
+        wall = np.asarray(section.wall_m, dtype=float)
+        if section.kind == "round duct":
+            width, height = section.inner_diameter_m, None
+        else:
+            width = np.asarray(section.width_m, dtype=float) - 2 * wall
+            height = np.asarray(section.height_m, dtype=float) - 2 * wall
+        film = duct_inner_film(width, height, temp, velocity_m_s=self.velocity_m_s, flow=self.flow,
+                               pressure_pa=self.pressure_pa)
+        return film.h_w_m2k, tuple(film.notes)
 
     def build_fluid(self, pipe: Pipe) -> Fluid:
         temp = self.fluid_temperature_c()
-        if self.fluid and self.steam_pressure_pa is None:
+        kind = self.section_kind
+        if kind != "pipe" and self.inner_h_w_m2k is None and self._flowing():
+            if kind == "duct":
+                h, notes = self._duct_air_film(pipe, temp)
+                return Fluid(self._broadcast_temp(temp), h, "air", notes)
+            raise InputError("flow" if self.flow is not None else "velocity_m_s",
+                             f"a {kind} has no computed inside film; give the inside film coefficient "
+                             "inner_h_w_m2k instead")
+        if kind == "duct" and self.fluid not in (None, "air"):
+            raise InputError("fluid", f'"{self.fluid}" in a duct: a duct carries air; leave fluid out or give air')
+        if self.fluid and self.steam_pressure_pa is None and not (kind == "duct"):
             from .props.liquids import check_fluid_temp
 
             check_fluid_temp(self.fluid, temp)
@@ -373,10 +408,13 @@ class LineSpec:
             from .physics.inner import inner_film_notes
 
             notes = inner_film_notes(self.fluid, temp, pipe.inner_diameter_m, velocity)
+        return Fluid(self._broadcast_temp(temp), h, self.fluid_name() or "", notes)
+
+    def _broadcast_temp(self, temp):
         shape = self.shape()
         if np.shape(temp) != shape:  # every array input broadcasts, RH included
             temp = np.broadcast_to(np.asarray(temp, dtype=float), np.broadcast_shapes(np.shape(temp), shape))
-        return Fluid(temp, h, self.fluid_name() or "", notes)
+        return temp
 
     def build_surroundings(self) -> Surroundings:
         kind = self.section_kind

@@ -10,7 +10,8 @@ import numpy as np
 
 from .errors import InputError
 
-__all__ = ["section_extras", "build_vessel"]
+__all__ = ["section_extras", "build_vessel", "duct_heat_flow", "duct_mass_flow_kg_s", "duct_air_run",
+           "DuctTempChange", "HeatFluxCap", "worst_patch_flux_w_m2"]
 
 
 def _one(x):
@@ -73,7 +74,10 @@ def section_extras(spec, result, units: str):
 
     rows, data, warnings = [], {}, []
     q = _one(result.heat_flow)
-    if spec.section_kind == "duct" and spec.length_m is not None:
+    if spec.section_kind == "duct" and spec.length_m is not None and (spec.flow is not None
+                                                                       or spec.velocity_m_s is not None):
+        _duct_run_rows(spec, result, units, rows, data, warnings)
+    elif spec.section_kind == "duct" and spec.length_m is not None:
         heat = q * spec.length_m
         rows.append([f"heat {'loss' if heat >= 0 else 'gain'} over {fq(spec.length_m, 'length', units)}",
                      fq(abs(heat), "power", units)])
@@ -141,3 +145,98 @@ def _contents_rows(spec, result, units, rows, data, warnings):
             data["freeze_start_h"] = hold / 3600.0
             warnings.append("freeze hold is a lumped estimate for still, mixed contents; local codes and licensed "
                             "practice govern freeze protection")
+
+
+# -- the air along a duct run -----------------------------------------------------------
+
+def duct_heat_flow(section, layers, fluid, surroundings, surface):
+    """``q(temp_c) -> W/m``: the duct's heat flow per metre out of the air at the bulk air
+    temperature *temp_c* [°C], every patch of every case in one :func:`pipeins.solve.solve`.
+
+    The inside film stays the one of *fluid* (worked out at the entering air; over the few
+    kelvin a duct run changes, the film moves by well under 1 %)."""
+    from dataclasses import replace
+
+    from .solve import solve
+
+    def heat_flow(temp_c):
+        return solve(section, layers, replace(fluid, temp_c=temp_c), surroundings, surface).heat_flow
+
+    return heat_flow
+
+
+def duct_mass_flow_kg_s(spec, section, temp_c):
+    """Air mass flow [kg/s] of a duct line: from ``spec.flow`` (volume or mass), or from
+    ``spec.velocity_m_s`` over the inside cross-section."""
+    from .duct_run import air_mass_flow_kg_s
+
+    if spec.flow is not None:
+        flow = spec.flow
+    else:
+        from .physics.duct_inner import duct_area_m2
+
+        wall = np.asarray(section.wall_m, dtype=float)
+        if section.kind == "round duct":
+            area = duct_area_m2(section.inner_diameter_m)
+        else:
+            area = duct_area_m2(np.asarray(section.width_m, float) - 2 * wall,
+                                np.asarray(section.height_m, float) - 2 * wall)
+        flow = np.asarray(spec.velocity_m_s, dtype=float) * area  # m³/s
+    return air_mass_flow_kg_s(flow, temp_c, spec.pressure_pa)
+
+
+def duct_air_run(spec, result, segments: int = 20, ambient_fraction=None):
+    """The air along the duct run of a solved duct line (:func:`pipeins.duct_run.temperature_along_duct`)."""
+    from .duct_run import AMBIENT_FRACTION, temperature_along_duct
+
+    inputs = result.inputs
+    section, fluid, surroundings = inputs["pipe"], inputs["fluid"], inputs["surroundings"]
+    layers = list(inputs["layers"])
+    entering = np.asarray(fluid.temp_c, dtype=float)
+    mdot = duct_mass_flow_kg_s(spec, section, entering)
+    try:
+        return temperature_along_duct(duct_heat_flow(section, layers, fluid, surroundings, inputs["surface"]),
+                                      entering, mdot, spec.length_m, surroundings.air_temp_c,
+                                      radiant_temp_c=surroundings.radiant_temp_c, pressure_pa=spec.pressure_pa,
+                                      segments=segments,
+                                      ambient_fraction=AMBIENT_FRACTION if ambient_fraction is None
+                                      else ambient_fraction), mdot
+    except InputError as exc:
+        if exc.name == "flow" and spec.flow is None:
+            raise InputError("velocity_m_s", exc.message) from None
+        raise
+
+
+def _duct_run_rows(spec, result, units, rows, data, warnings):
+    """Leaving-air temperature, its change and the heat over the run (gain and loss apart)."""
+    from .units import format_quantity as fq
+
+    run, mdot = duct_air_run(spec, result)
+    entering = _one(result.inputs["fluid"].temp_c)
+    leaving, change, heat = _one(run.leaving_temp_c), _one(run.temp_change_k), _one(run.heat_flow_w)
+    rows += [["air mass flow", fq(_one(mdot), "mass_flow", units)],
+             ["leaving air temperature", fq(leaving, "temperature", units)],
+             ["air temperature change", fq(change, "temperature_difference", units, digits=2)],
+             [f"heat {'loss' if heat >= 0 else 'gain'} over {fq(spec.length_m, 'length', units)}",
+              fq(abs(heat), "power", units)]]
+    data.update(mass_flow_kg_s=_one(mdot), entering_temp_c=entering, leaving_temp_c=leaving,
+                temp_change_k=change, heat_flow_w=heat)
+    data["heat_loss_w" if heat >= 0 else "heat_gain_w"] = abs(heat)
+    warnings += list(run.notes)
+
+
+# -- sizing criteria of a duct ----------------------------------------------------------
+
+def _temp_change_base():
+    from .runs import TempChange
+
+    return TempChange
+
+
+def worst_patch_flux_w_m2(result):
+    """The largest |outer heat flux| [W/m²] over the patches of *result* (the whole's own
+    for a single patch)."""
+    if getattr(result, "patches", None):
+        return np.max(np.stack([np.abs(np.asarray(p.result.outer_heat_flux_w_m2, dtype=float))
+                                for p in result.patches]), axis=0)
+    return np.abs(np.asarray(result.outer_heat_flux_w_m2, dtype=float))
