@@ -33,6 +33,12 @@ class Requirements:
     contact_time_s: float | None = None
     dew_margin_k: float = DEFAULT_DEW_MARGIN_K
     max_heat_flow_w_per_m: float | None = None
+    #: Cap on the worst part's outer heat flux [W/m²] (:class:`pipeins.sections.HeatFluxCap`).
+    max_heat_flux_w_m2: float | None = None
+    #: A duct code minimum's location, service and climate zone (:mod:`pipeins.duct_codes`).
+    duct_location: str | None = None
+    duct_service: str | None = None
+    climate_zone: str | None = None
     min_reduction: float | None = None
     max_temp_change_k: float | None = None
     hold_time_s: float | None = None
@@ -125,14 +131,23 @@ def build_criteria(spec, req: Requirements, fluid_temp_c, air_temp_c, surface_ki
         notes.append(CONDENSATION_NOT_APPLICABLE)
     if req.max_heat_flow_w_per_m is not None or req.min_reduction is not None:
         criteria.append(HeatFlowCap(req.max_heat_flow_w_per_m, req.min_reduction))
+    if req.max_heat_flux_w_m2 is not None:
+        from .sections import HeatFluxCap
+
+        criteria.append(HeatFluxCap(req.max_heat_flux_w_m2))
     if req.max_temp_change_k is not None:
         from .runs import TempChange
 
         if req.max_temp_change_k <= 0:
             raise InputError("max_temp_change_k", "the temperature change limit must be greater than zero")
-        if spec.flow is None or spec.length_m is None or not spec.fluid:
+        if spec.section_kind == "duct":
+            from .sections import duct_temp_change
+
+            criteria.append(duct_temp_change(spec, req.max_temp_change_k))
+        elif spec.flow is None or spec.length_m is None or not spec.fluid:
             raise InputError("max_temp_change_k", "needs the fluid, its flow and length_m")
-        criteria.append(TempChange(req.max_temp_change_k, spec.fluid, flow=spec.flow, length_m=spec.length_m))
+        else:
+            criteria.append(TempChange(req.max_temp_change_k, spec.fluid, flow=spec.flow, length_m=spec.length_m))
     if req.hold_time_s is not None:
         from .freezing import FreezeHold
 

@@ -153,6 +153,15 @@ PARAMS: tuple[Param, ...] = (
           "cap on the magnitude of the heat flow [W/m]", "", 0.0, None, True),
     Param("min_reduction", "--min-reduction", "min_reduction", _S, "fraction",
           "least reduction against the bare line [%]", "", 0.0, 1.0, True),
+    Param("max_heat_flux_w_m2", "--max-heat-flux", None, (), "heat_flux",
+          "cap on the magnitude of the outer heat flux of the worst part, per m² of outer surface [W/m²]", "",
+          0.0, None, True),
+    Param("duct_location", "--duct-location", None, (), "choice", "where a duct runs, for a duct code minimum",
+          "", choices=("conditioned", "unconditioned", "outdoors", "envelope")),
+    Param("duct_service", "--duct-service", None, (), "choice", "a duct's service, for a duct code minimum",
+          "supply", choices=("supply", "return")),
+    Param("climate_zone", "--climate-zone", None, (), "text", "climate zone of a duct code minimum (e.g. 4, 5A)",
+          ""),
     Param("max_temp_change_k", "--max-temp-change", "max_temp_change", _S, "temperature_difference",
           "cap on the fluid temperature change along the run, with flow [K]", "", 0.0, None, True),
     Param("hold_time_s", "--hold-time", "hold_time", _S, "time", "still water stays above 0 °C this long [s]",
@@ -220,6 +229,11 @@ CLI_ONLY = {
     "--ageing-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--joints-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
+    "--max-heat-flux": "a per-m² cap of one line or duct sized on the command line; not yet a project-file input",
+    "--duct-location": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
+    "--duct-service": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
+    "--climate-zone": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
+    "--ducts": "a table's duct sizes; the project file lists its lines, each with its size",
     "--duct": "a duct checked, sized or tabulated on the command line; the schedule lists pipes",
     "--sheet": "the sheet-metal wall of a duct, face or vessel on the command line; the schedule lists pipes",
     "--face": "a flat face checked or sized on the command line; the schedule lists pipes",
@@ -529,7 +543,7 @@ LINE_PARAMS = ("pipe", "schedule", "outer_diameter_m", "wall_m", "pipe_material"
                "solar_w_m2", "absorptance")
 #: Parameters of the sizing requirements (:class:`pipeins.criteria.Requirements`).
 REQUIREMENT_PARAMS = ("touch", "touch_limit_c", "contact_time_s", "dew_margin_k", "max_heat_flow_w_per_m",
-                      "min_reduction", "max_temp_change_k", "hold_time_s", "ice_fraction",
+                      "max_heat_flux_w_m2", "duct_location", "duct_service", "climate_zone", "min_reduction", "max_temp_change_k", "hold_time_s", "ice_fraction",
                       "tracer_output_w_per_m", "safety_factor_percent")
 
 

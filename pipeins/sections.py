@@ -6,12 +6,17 @@ Numbers only; :mod:`pipeins.reports.section` words them.
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+
 import numpy as np
 
 from .errors import InputError
+from .model import Layer
+from .runs import TempChange
+from .sizing import Criterion, _in
 
 __all__ = ["section_extras", "build_vessel", "duct_heat_flow", "duct_mass_flow_kg_s", "duct_air_run",
-           "DuctTempChange", "HeatFluxCap", "worst_patch_flux_w_m2"]
+           "DuctTempChange", "HeatFluxCap", "worst_patch_flux_w_m2", "duct_code_outcome"]
 
 
 def _one(x):
@@ -168,11 +173,13 @@ def duct_heat_flow(section, layers, fluid, surroundings, surface):
 def duct_mass_flow_kg_s(spec, section, temp_c):
     """Air mass flow [kg/s] of a duct line: from ``spec.flow`` (volume or mass), or from
     ``spec.velocity_m_s`` over the inside cross-section."""
+    return _mass_flow(spec.flow, spec.velocity_m_s, section, temp_c, spec.pressure_pa)
+
+
+def _mass_flow(flow, velocity_m_s, section, temp_c, pressure_pa):
     from .duct_run import air_mass_flow_kg_s
 
-    if spec.flow is not None:
-        flow = spec.flow
-    else:
+    if flow is None:
         from .physics.duct_inner import duct_area_m2
 
         wall = np.asarray(section.wall_m, dtype=float)
@@ -181,8 +188,8 @@ def duct_mass_flow_kg_s(spec, section, temp_c):
         else:
             area = duct_area_m2(np.asarray(section.width_m, float) - 2 * wall,
                                 np.asarray(section.height_m, float) - 2 * wall)
-        flow = np.asarray(spec.velocity_m_s, dtype=float) * area  # m³/s
-    return air_mass_flow_kg_s(flow, temp_c, spec.pressure_pa)
+        flow = np.asarray(velocity_m_s, dtype=float) * area  # m³/s
+    return air_mass_flow_kg_s(flow, temp_c, pressure_pa)
 
 
 def duct_air_run(spec, result, segments: int = 20, ambient_fraction=None):
@@ -227,10 +234,86 @@ def _duct_run_rows(spec, result, units, rows, data, warnings):
 
 # -- sizing criteria of a duct ----------------------------------------------------------
 
-def _temp_change_base():
-    from .runs import TempChange
+def duct_temp_change(spec, max_change_k):
+    """The criterion "the duct air changes by at most *max_change_k* [K] over ``length_m``"
+    (:class:`DuctTempChange`); needs ``length_m`` and the flow (or the velocity)."""
+    if spec.length_m is None or (spec.flow is None and spec.velocity_m_s is None):
+        raise InputError("max_temp_change_k", "the air temperature change along a duct needs length_m and the "
+                                              "air flow (flow or velocity_m_s)")
+    return DuctTempChange(max_change_k, "air", spec.flow, spec.length_m, velocity_m_s=spec.velocity_m_s,
+                          pressure_pa=spec.pressure_pa)
 
-    return TempChange
+
+@dataclass
+class DuctTempChange(TempChange):
+    """Duct air temperature change along the run at most ``max_change_k`` [K].
+
+    As :class:`pipeins.runs.TempChange` for a pipe, with the duct section solved whole (every
+    face, every case and every trial thickness in one solve per Runge–Kutta stage) and the
+    air's heat capacity (:func:`pipeins.duct_run.temperature_along_duct`).  The march
+    inside the search never refuses a run that reaches the surroundings
+    (``ambient_fraction=0``): a thin trial layer may, the sized one then does not.
+    """
+
+    velocity_m_s: object = None
+    pressure_pa: object = 101_325.0
+    label = "air temperature change along the duct"
+
+    def margin(self, problem, result, thickness_m):
+        from .duct_run import temperature_along_duct
+
+        t = np.asarray(thickness_m, dtype=float)
+        t = np.broadcast_to(t, np.broadcast_shapes(t.shape, (problem.n_sizes, 1)))
+        layers = list(problem.fixed_layers) + [Layer(problem.material, np.where(t <= 0, 1e-9, t))]
+        inlet = np.asarray(problem.fluid.temp_c, dtype=float)
+        mdot = _mass_flow(self.flow, self.velocity_m_s, problem.pipe, inlet, self.pressure_pa)
+        q = duct_heat_flow(problem.pipe, layers, problem.fluid, problem.surroundings, problem.surface)
+        run = temperature_along_duct(q, inlet, mdot, self.length_m, problem.surroundings.air_temp_c,
+                                     radiant_temp_c=problem.surroundings.radiant_temp_c,
+                                     pressure_pa=self.pressure_pa, segments=self.segments,
+                                     ambient_fraction=0.0)
+        return self.max_change_k - np.abs(run.temp_change_k)
+
+    def describe(self, units="si"):
+        return "duct air " + super().describe(units).removeprefix("fluid ")
+
+@dataclass
+class HeatFluxCap(Criterion):
+    """|outer heat flux| of the worst part at or below ``max_w_m2`` [W/m²].
+
+    The cap applies to the part (a duct's top, sides or bottom; a vessel's shell or head)
+    whose outer heat flux is largest, not to the section's mean: a cap per m² of surface
+    is a statement about every square metre, and the mean would let the worst face
+    exceed it.  On a duct with one build-up all round the faces differ only by their
+    films, so the worst face asks a little more than the mean (safe side).
+    """
+
+    max_w_m2: float
+    key = "heat_flux"
+    label = "heat-flux cap"
+
+    def __post_init__(self):
+        if not self.max_w_m2 > 0:
+            raise InputError("max_heat_flux_w_m2", "the heat-flux cap must be greater than zero")
+
+    def margin(self, problem, result, thickness_m):
+        return (self.max_w_m2 - worst_patch_flux_w_m2(result)) / self.max_w_m2
+
+    def describe(self, units="si"):
+        return (f"|outer heat flux| of the worst part at most "
+                f"{_in(units, self.max_w_m2, 'heat_flux', f'{self.max_w_m2:g} W/m²')}")
+
+    def state(self, problem, result, index):
+        q = float(np.ravel(worst_patch_flux_w_m2(result))[index])
+        u = self.units
+        return (f"worst part's |heat flux| {_in(u, q, 'heat_flux', f'{q:.1f} W/m²')}, "
+                f"{100 * (self.max_w_m2 - q) / self.max_w_m2:.0f} % under the cap of "
+                f"{_in(u, self.max_w_m2, 'heat_flux', f'{self.max_w_m2:g} W/m²')}")
+
+    def miss(self, margin, thickness_m):
+        return (f"heat-flux cap cannot be met: with "
+                f"{_in(self.units, thickness_m, 'thickness', f'{thickness_m * 1000:.0f} mm')} the worst part's "
+                f"heat flux is still {-100 * margin:.1f} % above the cap")
 
 
 def worst_patch_flux_w_m2(result):
@@ -240,3 +323,33 @@ def worst_patch_flux_w_m2(result):
         return np.max(np.stack([np.abs(np.asarray(p.result.outer_heat_flux_w_m2, dtype=float))
                                 for p in result.patches]), axis=0)
     return np.abs(np.asarray(result.outer_heat_flux_w_m2, dtype=float))
+
+
+def duct_code_outcome(spec, req, rule_set: str, material, n_sizes: int, fluid_temp_c, air_temp_c):
+    """The code minimum of a duct as a :class:`~pipeins.sizing.CriterionOutcome` (key ``code``):
+    the least thickness of *material* whose flat-layer R-value t/k meets the rule's R
+    (:func:`pipeins.duct_codes.minimum_r_value`, :func:`pipeins.duct_codes.least_thickness`),
+    k at the 75 °F rating mean temperature the code's R-values are stated at; the same for
+    every size.  A lower bound on the pick, like a pipe code minimum."""
+    from .duct_codes import LOCATIONS, load_duct_rule_sets, least_thickness, minimum_r_value
+    from .sizing import CriterionOutcome
+
+    sets = load_duct_rule_sets()
+    if rule_set not in sets:
+        raise InputError("code", f'"{rule_set}" is not a duct rule set; for a duct use {" or ".join(sorted(sets))}')
+    if req.duct_location is None:
+        raise InputError("duct_location", f"a duct code minimum needs where the duct runs: {', '.join(LOCATIONS)}")
+    if req.climate_zone is None:
+        raise InputError("climate_zone", "a duct code minimum needs the climate zone, e.g. 4 or 5A")
+    difference = float(np.max(np.abs(np.asarray(fluid_temp_c, float) - np.asarray(air_temp_c, float))))
+    rule = minimum_r_value(rule_set, req.duct_location, req.duct_service or "supply", req.climate_zone, difference)
+    if not rule.covered:
+        required, message = np.full(n_sizes, np.nan), f"code minimum: not covered ({rule.reason})"
+    else:
+        thickness = float(least_thickness(rule.r_value_m2k_w, material).installed_thickness_m)
+        required, message = np.full(n_sizes, thickness), ""
+    outcome = CriterionOutcome("code", "code minimum", f"duct insulation of {rule_set}: {rule.reason}",
+                               required, np.ones(n_sizes, dtype=bool), [message] * n_sizes)
+    outcome.source = rule.source
+    outcome.r_value_m2k_w = rule.r_value_m2k_w
+    return outcome

@@ -111,7 +111,11 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
     problem = SizingProblem(pipe, fixed, material, fluid, surroundings, surface, limit, n)
     size_list = sizes or [spec.pipe_size()]
     extra, curves = [], None
-    if code is not None:
+    if code is not None and spec.section_kind == "duct":
+        from .sections import duct_code_outcome
+
+        extra.append(duct_code_outcome(spec, req, code, material, n, fluid.temp_c, surroundings.air_temp_c))
+    elif code is not None:
         extra.append(code_outcome(size_list, material, code, float(np.max(fluid.temp_c)), code_paths))
     if economic is not None:
         from .annual import economic_outcome

@@ -116,3 +116,107 @@ def test_leaving_air_matches_the_closed_form_exponential(run, units, length, flo
     # the heat over the run is the air's enthalpy rise: a gain, reported apart
     assert d["heat_gain_w"] == pytest.approx(mdot * cp * (leaving - 14.0), rel=2e-3)
     assert "heat_loss_w" not in d and d["heat_flow_w"] < 0
+
+
+# ----------------------------------------------------------------------------- criteria in size
+SIZE = ("size", "--duct", "600x400mm", "--fluid-temp", "13C", "--ambient-temp", "32C", "--rh", "70",
+        "--material", "k=0.040", "--length", "40m", "--flow", "1500cfm")
+
+
+def _required_m(d, key):
+    return next(c["required_mm"] for c in d["criteria"] if c["key"] == key) / 1000.0
+
+
+def _at(t, **more):
+    from pipeins.units import parse_quantity
+
+    return LineSpec(duct="600x400mm", fluid_temp_c=13.0, air_temp_c=32.0, rh_percent=70.0,
+                    layers=(("k=0.040", t),), length_m=40.0, flow=parse_quantity("1500 cfm", "flow"), **more)
+
+
+def _air_change(t):
+    from pipeins.sections import duct_air_run
+
+    spec = _at(t)
+    run, _ = duct_air_run(spec, spec.solve())
+    return abs(float(run.temp_change_k))
+
+
+def test_sized_for_the_air_temperature_change_meets_it_when_re_solved(run):
+    d = _json(run, *SIZE, "--max-temp-change", "1K")
+    t = _required_m(d, "temp_change")
+    assert _air_change(t) == pytest.approx(1.0, abs=2e-3)
+    assert _air_change(0.9 * t) > 1.0
+
+
+def test_heat_flux_cap_holds_on_the_worst_face_when_re_solved(run):
+    from pipeins.sections import worst_patch_flux_w_m2
+
+    d = _json(run, *SIZE, "--max-heat-flux", "8W/m2")
+    t = _required_m(d, "heat_flux")
+    result = _at(t).solve()
+    faces = [abs(float(p.result.outer_heat_flux_w_m2)) for p in result.patches]
+    assert float(worst_patch_flux_w_m2(result)) == pytest.approx(8.0, rel=2e-3) == max(faces)
+    assert abs(float(result.outer_heat_flux_w_m2)) < 8.0  # the mean is below: the worst face governs
+
+
+def test_heat_flow_cap_per_metre_holds_when_re_solved(run):
+    d = _json(run, *SIZE, "--max-heat-flow", "15W/m")
+    t = _required_m(d, "heat_flow")
+    assert abs(float(_at(t).solve().heat_flow_w_per_m)) == pytest.approx(15.0, rel=2e-3)
+
+
+def test_condensation_on_the_coldest_face_when_re_solved(run):
+    """Dew point of air at 32 °C, 70 % by psychrolib (ASHRAE Handbook Fundamentals, ch. 1)."""
+    import psychrolib
+
+    psychrolib.SetUnitSystem(psychrolib.SI)
+    dew = psychrolib.GetTDewPointFromRelHum(32.0, 0.70)
+    d = _json(run, *SIZE)
+    t = _required_m(d, "condensation")
+    coldest = min(float(p.result.surface_temp_c) for p in _at(t).solve().patches)
+    assert coldest == pytest.approx(dew + 1.0, abs=0.02)
+
+
+def test_touch_on_a_hot_duct_when_re_solved(run):
+    d = _json(run, "size", "--duct", "450mm", "--fluid-temp", "150C", "--ambient-temp", "20C",
+              "--material", "k=0.040", "--touch-limit", "45C")
+    t = _required_m(d, "surface_temp")
+    spec = LineSpec(duct="450mm", fluid_temp_c=150.0, air_temp_c=20.0, layers=(("k=0.040", t),))
+    assert float(spec.solve().surface_temp_c) == pytest.approx(45.0, abs=0.02)
+
+
+@pytest.mark.parametrize("location, zone, r_ip", [("outdoors", "5A", 12.0), ("unconditioned", "3", 6.0),
+                                                  ("outdoors", "2", 8.0)])
+def test_duct_code_minimum_meets_the_rule_r_value(run, location, zone, r_ip):
+    """R-values of IECC 2018 C403.11.1 (from memory); 1 h·ft²·°F/Btu = 0.1761102 m²·K/W
+    (NIST SP 811); R = t/k at the 75 °F rating mean temperature (ASTM C680 plane layer)."""
+    d = _json(run, *SIZE, "--code", "iecc-2018-c403", "--duct-location", location, "--climate-zone", zone)
+    t = _required_m(d, "code")
+    assert t / 0.040 >= r_ip * 0.1761102 * (1 - 1e-4)
+    assert t / 0.040 == pytest.approx(r_ip * 0.1761102, rel=1e-3)
+    assert d["selected_thickness_mm"] / 1000 >= t
+
+
+@pytest.mark.parametrize("extra, line", [
+    (("--code", "iecc-2018-c403", "--climate-zone", "5A"),
+     "Error: --duct-location: a duct code minimum needs where the duct runs: conditioned, unconditioned, "
+     "outdoors, envelope"),
+    (("--code", "iecc-2018-c403", "--duct-location", "outdoors"),
+     "Error: --climate-zone: a duct code minimum needs the climate zone, e.g. 4 or 5A"),
+    (("--code", "iecc-2018-c403", "--duct-location", "roof", "--climate-zone", "4"),
+     'Error: --duct-location: unknown duct location "roof"; use conditioned or unconditioned or outdoors or '
+     'envelope'),
+    (("--code", "ashrae-90.1-2019", "--duct-location", "outdoors", "--climate-zone", "4"),
+     'Error: --code: "ashrae-90.1-2019" is not a duct rule set; for a duct use iecc-2018-c403'),
+    (("--max-heat-flux", "-5W/m2"), None),
+])
+def test_bad_duct_sizing_input_is_one_line(run, tmp_path, extra, line):
+    target = tmp_path / "out.json"
+    code, out, err = run(*SIZE, *extra, "--output", str(target))
+    assert code == 2 and out == "" and len(err.splitlines()) == 1 and err.startswith("Error: ")
+    if line is not None:
+        assert err.splitlines() == [line]
+    else:
+        assert "--max-heat-flux" in err
+    assert list(tmp_path.iterdir()) == []

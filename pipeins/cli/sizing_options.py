@@ -19,6 +19,12 @@ SIZING_OPTIONS = [
     click.option("--dew-margin", help="Surface margin above the dew point on cold lines (default 1 K, "
                                       "common practice)."),
     click.option("--max-heat-flow", help="Cap on the magnitude of the heat flow, e.g. 30W/m."),
+    click.option("--max-heat-flux", help="Cap on the outer heat flux of the worst part (a duct's face), "
+                                         "per m² of outer surface, e.g. 15W/m2."),
+    click.option("--duct-location", help="With --code on a duct: where it runs (conditioned, unconditioned, "
+                                         "outdoors, envelope)."),
+    click.option("--duct-service", help="With --code on a duct: supply (default) or return."),
+    click.option("--climate-zone", help="With --code on a duct: the climate zone, e.g. 4 or 5A."),
     click.option("--min-reduction", help="Least reduction against the bare line, e.g. 90%."),
     click.option("--max-temp-change", help="Cap on the fluid temperature change over --length at --flow."),
     click.option("--hold-time", help="Still water must stay above 0 °C this long, e.g. 8h."),

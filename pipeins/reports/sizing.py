@@ -14,6 +14,7 @@ CRITERION_OPTIONS = {
     "surface_temp": "--touch-limit",
     "condensation": "--rh",
     "heat_flow": "--max-heat-flow",
+    "heat_flux": "--max-heat-flux",
     "temp_change": "--max-temp-change",
     "freeze": "--hold-time",
     "tracer": "--tracer-output",
@@ -21,7 +22,7 @@ CRITERION_OPTIONS = {
     "code": "--code",
     "service_limit": "--material",
 }
-ALL_KEYS = ("surface_temp", "condensation", "heat_flow", "temp_change", "freeze", "economic", "code",
+ALL_KEYS = ("surface_temp", "condensation", "heat_flow", "heat_flux", "temp_change", "freeze", "economic", "code",
             "service_limit")
 
 
