@@ -233,7 +233,6 @@ CLI_ONLY = {
     "--duct-location": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
     "--duct-service": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
     "--climate-zone": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
-    "--ducts": "a table's duct sizes; the project file lists its lines, each with its size",
     "--duct": "a duct checked, sized or tabulated on the command line; the schedule lists pipes",
     "--sheet": "the sheet-metal wall of a duct, face or vessel on the command line; the schedule lists pipes",
     "--face": "a flat face checked or sized on the command line; the schedule lists pipes",
