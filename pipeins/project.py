@@ -487,9 +487,11 @@ class _Reader:
         return self.guard(path, entry, "cost_table", CostTable.from_csv, full)
 
 
-def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> Project:
+def parse_project(text: str, file_name: str = "project.toml", base_dir=".", progress=None) -> Project:
     """Read a project from TOML *text*; *file_name* names it in errors and *base_dir*
-    anchors its relative paths.  Raises :class:`ProjectError` listing every problem."""
+    anchors its relative paths.  Raises :class:`ProjectError` listing every problem.
+    *progress*, when given, is called as ``progress("reading lines", done, total)`` every
+    thousand lines (a front end's progress bar; the library never prints)."""
     import tomllib
 
     from .fileio import load_toml
@@ -504,11 +506,12 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".") -> P
         raise ProjectError([f"{file_name}: {line}not valid TOML: {message}"]) from None
     materials = project_materials(text, file_name, base_dir, data)  # [project] materials_file, found first
     with materials_in_use(materials[0]):
-        return replace(_parse_project(data, text, file_name, base_dir, materials[2]), materials=materials[0],
+        return replace(_parse_project(data, text, file_name, base_dir, materials[2], progress), materials=materials[0],
                        materials_warnings=materials[1])
 
 
-def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_problem: str | None) -> Project:
+def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_problem: str | None,
+                   progress=None) -> Project:
     r = _Reader(text, file_name, Path(base_dir))
     for key in data:
         if key not in _TOP:
@@ -633,6 +636,8 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
     raw_conditions = data.get("conditions", {}) if isinstance(data.get("conditions"), dict) else {}
     seen: dict[str, int] = {}
     for index, table in enumerate(raw_lines, start=1):
+        if progress is not None and index % 1000 == 0:
+            progress("reading lines", index, len(raw_lines))
         # tags name lines: a repeated one is reported with the line's other problems
         tag = table.get("tag") if isinstance(table.get("tag"), str) else ""
         duplicate = seen.get(tag) if tag else None
@@ -659,13 +664,13 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
                    condition_sets=r.__dict__.get("condition_sets", {}))
 
 
-def load_project(path) -> Project:
+def load_project(path, progress=None) -> Project:
     """Read and check the project file at *path* (see :func:`parse_project`)."""
     from .fileio import read_text_input
 
     text = read_text_input(path, "PROJECT")
     path = Path(path)
-    return parse_project(text, path.name, path.parent)
+    return parse_project(text, path.name, path.parent, progress)
 
 
 def _named_tables(r: _Reader, data: dict, top: str, what: str) -> dict[str, dict]:

@@ -211,17 +211,21 @@ def _basis(service, with_cost: bool):
                        cost_table=service.cost_table if with_cost else None)
 
 
-def compute_schedule(project: Project) -> Schedule:
-    """The schedule of *project*, its user materials (``materials_file``) found first."""
+def compute_schedule(project: Project, progress=None) -> Schedule:
+    """The schedule of *project*, its user materials (``materials_file``) found first.
+
+    *progress*, when given, is called as ``progress(stage, done, total)`` as the sizing
+    (per service and location) and the line solves (per line) advance: a front end's
+    progress bar (the library never prints)."""
     from .user_materials import materials_in_use
 
     with materials_in_use(getattr(project, "materials", None)):
-        out = _compute_schedule(project)
+        out = _compute_schedule(project, progress or (lambda stage, done, total: None))
     out.warnings[:0] = [w for w in getattr(project, "materials_warnings", ()) if w not in out.warnings]
     return out
 
 
-def _compute_schedule(project: Project) -> Schedule:
+def _compute_schedule(project: Project, progress) -> Schedule:
     """The insulation schedule, per-line results and totals of *project* (see the module
     docstring).  Raises :class:`~pipeins.project.ProjectError` when a requirement cannot
     be met or an input is refused."""
@@ -233,7 +237,8 @@ def _compute_schedule(project: Project) -> Schedule:
 
     chosen: dict[tuple, tuple] = {}   # (service, condition, size label) -> (thickness, split, governing)
     criteria_used: dict[str, list[str]] = {}
-    for (sname, cname), lines in groups.items():
+    for number, ((sname, cname), lines) in enumerate(groups.items()):
+        progress("sizing", number, len(groups))
         service, condition = project.services[sname], project.conditions[cname]
         where = project.where(service.file_line, f'service "{sname}"')
         by_length = {}
@@ -275,7 +280,9 @@ def _compute_schedule(project: Project) -> Schedule:
         raise ProjectError(list(dict.fromkeys(problems)))
 
     results: list[LineResult] = []
+    progress("sizing", len(groups), len(groups))
     for (sname, cname), lines in groups.items():
+        progress("solving lines", len(results), len(project.lines))
         try:
             results += _solve_lines(project, project.services[sname], project.conditions[cname], lines, chosen,
                                     warnings)
@@ -283,6 +290,7 @@ def _compute_schedule(project: Project) -> Schedule:
             service = project.services[sname]
             entry = f'service "{sname}"'
             problems.append(f"{project.where(service.file_line, entry)}: {cname}: {in_words(exc.message, file_word)}")
+    progress("solving lines", len(project.lines), len(project.lines))
     if problems:
         raise ProjectError(problems)
     order = {line.tag: i for i, line in enumerate(project.lines)}
