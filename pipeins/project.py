@@ -96,6 +96,8 @@ _TOP = ("project", "energy", "conditions", "services", "lines", "report", "lines
 #: Line keys that give the line a build-up of its own, and those that give it a location of its own.
 _LINE_SERVICE_KEYS = ("material", "thickness", "finish", "emittance", "pipe_material")
 _LINE_CONDITION_KEYS = ("orientation", "height")
+#: The keys of a line read as its own values (service, condition(s), tag and size are read apart).
+_LINE_OWN_KEYS = frozenset(KEYS["lines"] - {"service", "condition", "conditions", "tag", "size"})
 
 
 class ProjectError(InputError):
@@ -417,7 +419,7 @@ class _Reader:
     def cross_check(self, given: dict, origin: dict, fallback: tuple, skip=()) -> None:
         """The rules between inputs (:func:`pipeins.inputs.check_line`), each problem
         placed at the key of the parameter it names (``origin``: parameter → (path,
-        entry, key))."""
+        entry, key), or a function that builds it when a problem needs it)."""
         try:
             memo_key = (check_line, tuple((k, type(v), v) for k, v in given.items()))
             found = self._memo.get(memo_key)
@@ -430,6 +432,8 @@ class _Reader:
         for name, message in found:
             if (name, message) in skip:
                 continue
+            if callable(origin):
+                origin = origin()
             path, entry, key = origin.get(name) or fallback
             self.problem(path, entry, key, message)
 
@@ -494,18 +498,20 @@ def parse_project(text: str, file_name: str = "project.toml", base_dir=".", prog
     thousand lines (a front end's progress bar; the library never prints)."""
     import tomllib
 
+    from .bulk import paused_gc
     from .fileio import load_toml
     from .user_materials import materials_in_use, project_materials
 
     try:
-        data = load_toml(text, file_name)  # read once: the materials hook and the reader share it
+        with paused_gc():
+            data = load_toml(text, file_name)  # read once: the materials hook and the reader share it
     except tomllib.TOMLDecodeError as exc:
         message = str(exc)
         m = re.search(r"\(at line (\d+), column \d+\)", message)
         line = f"line {m.group(1)}: " if m else ""
         raise ProjectError([f"{file_name}: {line}not valid TOML: {message}"]) from None
     materials = project_materials(text, file_name, base_dir, data)  # [project] materials_file, found first
-    with materials_in_use(materials[0]):
+    with materials_in_use(materials[0]), paused_gc():
         return replace(_parse_project(data, text, file_name, base_dir, materials[2], progress), materials=materials[0],
                        materials_warnings=materials[1])
 
@@ -835,10 +841,8 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
         r.problem(p, entry, "condition", f'unknown condition "{cname}"; {closest_names(cname, known)}')
     names = _line_conditions(r, table, p, entry, services.get(sname), raw_conditions, cname)
     cname = names[0] if names else cname
-    own_keys = [k for k in KEYS["lines"] if k in table and k not in ("service", "condition", "conditions", "tag",
-                                                                    "size")]
+    own_keys = [k for k in table if k in _LINE_OWN_KEYS]
     v = r.values(table, "lines", p, entry, own_keys)
-    origin = {_PARAM_OF[("lines", k)]: (p, entry, k) for k in table if ("lines", k) in _PARAM_OF}
     size_text = r.text_value(table, "size", p, entry)
     service = services.get(sname)
     size = None
@@ -877,7 +881,12 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     svals, sorigin = service_values.get(sname, ({}, {}))
     merged = {**cvals, **{k: x for k, x in svals.items() if k not in ("fluid_temp_c", "steam_pressure_pa")}, **v}
     already = _reported(r, sname, cname, cvals, svals)
-    r.cross_check(merged, {**corigin, **sorigin, **origin}, (p, entry, None), skip=already)
+
+    def origin():  # built only when a rule is broken
+        own = {_PARAM_OF[("lines", k)]: (p, entry, k) for k in table if ("lines", k) in _PARAM_OF}
+        return {**corigin, **sorigin, **own}
+
+    r.cross_check(merged, origin, (p, entry, None), skip=already)
     fittings = {}
     for key, kind in _FITTINGS.items():
         fittings[kind] = v.get(key, 0) if key in v else 0
