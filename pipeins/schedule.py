@@ -217,9 +217,10 @@ def compute_schedule(project: Project, progress=None) -> Schedule:
     *progress*, when given, is called as ``progress(stage, done, total)`` as the sizing
     (per service and location) and the line solves (per line) advance: a front end's
     progress bar (the library never prints)."""
+    from .bulk import paused_gc
     from .user_materials import materials_in_use
 
-    with materials_in_use(getattr(project, "materials", None)):
+    with materials_in_use(getattr(project, "materials", None)), paused_gc():
         out = _compute_schedule(project, progress or (lambda stage, done, total: None))
     out.warnings[:0] = [w for w in getattr(project, "materials_warnings", ()) if w not in out.warnings]
     return out

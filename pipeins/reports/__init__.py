@@ -185,6 +185,13 @@ def to_ascii(text: str) -> str:
 
 
 def _text(report: Report, units: str, markdown: bool, ascii: bool = False) -> str:
+    from ..bulk import paused_gc
+
+    with paused_gc():
+        return _text_of(report, units, markdown, ascii)
+
+
+def _text_of(report: Report, units: str, markdown: bool, ascii: bool) -> str:
     a = to_ascii if ascii else str
     double, single, bullet = ("=", "-", "*") if ascii else ("═", "─", "•")
     out = io.StringIO()

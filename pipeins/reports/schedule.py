@@ -220,6 +220,13 @@ def schedule_report(schedule, units: str = "si", line_data: bool = True) -> Repo
     With ``line_data=False`` the JSON payload leaves out the per-line entries
     (``data["lines"]`` is None): what the text, Markdown, CSV, HTML and XLSX outputs do
     not use, and the bulk of the memory of a long line list."""
+    from ..bulk import paused_gc
+
+    with paused_gc():
+        return _schedule_report(schedule, units, line_data)
+
+
+def _schedule_report(schedule, units: str, line_data: bool) -> Report:
     project = schedule.project
     cur = project.currency
     sched = Table("Insulation schedule", [
