@@ -130,7 +130,7 @@ def read_text_input(path, what: str) -> str:
                                "save it as UTF-8") from None
 
 
-_TOML_TOKEN = re.compile(r'"""(?:[^\\]|\\.)*?"""|\'\'\'.*?\'\'\'|"(?:[^"\\\n]|\\.)*"|\'[^\'\n]*\'|#[^\n]*|[\[\]{}]|\n',
+_TOML_TOKEN = re.compile(r'"""(?:[^\\]|\\.)*?"""|\'\'\'.*?\'\'\'|"(?:[^"\\\n]|\\.)*"|\'[^\'\n]*\'|#[^\n]*|[\[\]{}]',
                          re.DOTALL)
 
 
@@ -143,17 +143,15 @@ def toml_depth_problem(text: str) -> int | None:
     >>> toml_depth_problem('a = "' + "[" * 40 + '"') is None
     True
     """
-    depth, line = 0, 1
-    for m in _TOML_TOKEN.finditer(text):
+    depth = 0
+    for m in _TOML_TOKEN.finditer(text):  # strings and comments are tokens too: skipped whole
         token = m.group()
         if token in "[{":
             depth += 1
             if depth > MAX_TOML_DEPTH:
-                return line
+                return 1 + text.count("\n", 0, m.start())  # the line it is on
         elif token in "]}":
             depth = max(depth - 1, 0)
-        else:
-            line += token.count("\n")
     return None
 
 
