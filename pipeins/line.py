@@ -317,6 +317,10 @@ class LineSpec:
 
         if sizes is None and self.section_kind != "pipe":
             return self.build_section()
+        if self.section_kind == "duct":
+            from .sections import duct_rows
+
+            return duct_rows(self, [s.nominal for s in sizes])
         if sizes is None:
             sizes = self.pipe_sizes()
             if isinstance(self.pipe, str) or self.pipe is None:

@@ -220,3 +220,88 @@ def test_bad_duct_sizing_input_is_one_line(run, tmp_path, extra, line):
     else:
         assert "--max-heat-flux" in err
     assert list(tmp_path.iterdir()) == []
+
+
+# ----------------------------------------------------------------------------- the duct table
+TABLE = ("table", "--fluid-temp", "13C", "--ambient-temp", "32C", "--rh", "70", "--material", "k=0.040",
+         "--length", "40m", "--flow", "1.2kg/s")
+
+
+def test_duct_table_rows_equal_one_duct_sized_alone(run):
+    """One vectorised pass over the sizes gives, row by row, what size gives for each duct."""
+    d = _json(run, *TABLE, "--ducts", "300x200mm, 600x400mm, 1000x500mm", "--max-temp-change", "2K",
+              "--max-heat-flux", "10W/m2")
+    rows = d["rows"] if "rows" in d else d["sizes"]
+    assert [r["size"] for r in rows] == ["rectangular duct 300x200mm", "rectangular duct 600x400mm",
+                                         "rectangular duct 1000x500mm"]
+    for text, row in zip(("300x200mm", "600x400mm", "1000x500mm"), rows):
+        one = _json(run, "size", "--duct", text, *TABLE[1:], "--max-temp-change", "2K", "--max-heat-flux", "10W/m2")
+        for key in ("condensation", "heat_flux", "temp_change"):
+            assert row["required_thickness_mm"][key] == pytest.approx(_required_m(one, key) * 1000, abs=0.01)
+        assert row["selected_thickness_mm"] == one["selected_thickness_mm"]
+
+
+def test_round_duct_table_from_the_catalogue_range(run):
+    from pipeins.catalog.ducts import round_duct_sizes
+
+    d = _json(run, *TABLE, "--ducts", "round:200..800mm", "--code", "iecc-2018-c403", "--duct-location",
+              "unconditioned", "--climate-zone", "4")
+    rows = d["rows"] if "rows" in d else d["sizes"]
+    expected = [x for x in round_duct_sizes("mm") if 0.2 - 1e-9 <= x <= 0.8 + 1e-9]
+    assert len(rows) == len(expected) > 3
+    for row in rows:  # R-6 (IECC 2018 C403.11.1, from memory) = 1.0567 m²·K/W at k 0.040
+        assert row["required_thickness_mm"]["code"] == pytest.approx(6 * 0.1761102 * 0.040 * 1000, abs=0.01)
+
+
+@pytest.mark.parametrize("args, line", [
+    (("--ducts", "300x200mm, 450mm", "--max-heat-flux", "10W/m2"),
+     "Error: --ducts: one table holds round or rectangular ducts, not both"),
+    (("--ducts", "round:200..800", "--max-heat-flux", "10W/m2"),
+     'Error: --ducts: "round:200..800" is not a round-duct range; use e.g. round:200..800mm or round:6..24in'),
+    (("--ducts", "300x0mm", "--max-heat-flux", "10W/m2"),
+     'Error: --ducts: "300x0mm": every duct side must be greater than zero; use e.g. 600x400mm, 24x16in, 450mm '
+     'or 18in'),
+    (("--ducts", "300x200mm", "--sizes", "DN50", "--max-heat-flux", "10W/m2"),
+     "Error: --sizes: give the pipe sizes (--sizes) or the duct sizes (--ducts), one of them"),
+])
+def test_bad_duct_table_input_is_one_line(run, tmp_path, args, line):
+    target = tmp_path / "t.csv"
+    code, out, err = run(*TABLE, *args, "--format", "csv", "--output", str(target))
+    assert (code, out, err.splitlines()) == (2, "", [line])
+    assert list(tmp_path.iterdir()) == []
+
+
+# ----------------------------------------------------------------------------- every format, both unit systems
+FORMATS = [(u, c, f) for c in ("check", "size") for u, fmts in
+           (("si", ("text", "json", "csv", "markdown", "html", "xlsx")), ("us", ("text", "json", "xlsx")))
+           for f in fmts]
+
+
+@pytest.mark.parametrize("units, command, fmt", FORMATS)
+def test_duct_check_and_size_in_every_format(run, tmp_path, units, command, fmt):
+    duct = "600x400mm" if units == "si" else "24x16in"
+    args = [command, "--duct", duct, "--fluid-temp", "13C" if units == "si" else "55F",
+            "--ambient-temp", "32C" if units == "si" else "90F", "--rh", "70",
+            "--length", "40m" if units == "si" else "130ft", "--flow", "1.2kg/s" if units == "si" else "1500cfm",
+            "--units", units, "--format", fmt]
+    args += ["--layer", "mineral wool:25mm"] if command == "check" else ["--material", "mineral wool",
+                                                                          "--max-temp-change",
+                                                                    "1K" if units == "si" else "2F"]
+    if fmt == "xlsx":
+        target = tmp_path / "out.xlsx"
+        code, out, err = run(*args, "--output", str(target))
+        assert code == 0, err
+        from openpyxl import load_workbook
+
+        text = " ".join(str(c.value) for ws in load_workbook(target) for row in ws.iter_rows() for c in row
+                        if c.value is not None)
+    else:
+        code, text, err = run(*args)
+        assert code == 0, err
+    assert "leaving" in text.lower() or (fmt == "csv" and "rectangular duct" in text)
+    if fmt == "json":
+        d = json.loads(text)
+        check = d if command == "check" else d["result"]
+        assert "heat_flow_w_per_m" in json.dumps(check) and "patches" in json.dumps(check)
+    if units == "us" and fmt == "text":
+        assert "°F" in text

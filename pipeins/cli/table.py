@@ -10,8 +10,11 @@ from .sizing_options import parse_series, requirements_from_options, sizing_opti
 
 
 @click.command()
-@click.option("--sizes", required=True,
+@click.option("--sizes",
               help='Size range or list: "NPS 1/2..NPS 12", DN15..DN300, "copper L 1/2..4", "NPS 1, NPS 2".')
+@click.option("--ducts",
+              help='Duct sizes instead of pipes: "300x200mm, 600x400mm", round (the catalogue diameters) '
+                   'or round:200..800mm.')
 @click.option("--matrix", type=click.Choice(["heat-flow", "surface-temp"]),
               help="Instead: this quantity for every size at every thickness of the series.")
 @line_options
@@ -20,7 +23,7 @@ from .sizing_options import parse_series, requirements_from_options, sizing_opti
 @energy_options
 @output_options
 @plot_option
-def table(fmt, units, output, sizes, matrix, material, series, code, code_table, **opts):
+def table(fmt, units, output, sizes, ducts, matrix, material, series, code, code_table, **opts):
     """Thickness table per pipe size for one service.
 
     One row per size: the outside diameter, the least thickness each active criterion
@@ -45,8 +48,20 @@ def table(fmt, units, output, sizes, matrix, material, series, code, code_table,
 
     if opts.get("pipe") or opts.get("od") or opts.get("wall"):
         raise InputError("--sizes", "a table takes its pipes from --sizes, not --pipe/--od/--wall")
-    size_list = pipe_range(sizes, opts.get("schedule"))
-    opts = {**opts, "pipe": size_list[0].label}
+    if opts.get("duct"):
+        raise InputError("--ducts", "a table takes its ducts from --ducts, not --duct")
+    if (sizes is None) == (ducts is None):
+        raise InputError("--sizes", "give the pipe sizes (--sizes) or the duct sizes (--ducts), one of them")
+    if ducts is not None:
+        from ..line import LineSpec
+        from ..sections import duct_table_sizes
+
+        texts = duct_table_sizes(ducts, units)
+        size_list = [LineSpec(duct=t).section_size() for t in texts]
+        opts = {**opts, "duct": texts[0]}
+    else:
+        size_list = pipe_range(sizes, opts.get("schedule"))
+        opts = {**opts, "pipe": size_list[0].label}
     from ..inputs import Problems, collect
 
     items: list = []  # every problem of the command line at once
