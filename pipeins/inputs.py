@@ -230,6 +230,7 @@ CLI_ONLY = {
     "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--joints-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--max-heat-flux": "a per-m² cap of one line or duct sized on the command line; not yet a project-file input",
+    "--ducts": "a table's duct sizes; the project file lists its lines, each with its size",
     "--duct-location": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
     "--duct-service": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
     "--climate-zone": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
