@@ -305,3 +305,17 @@ def test_duct_check_and_size_in_every_format(run, tmp_path, units, command, fmt)
         assert "heat_flow_w_per_m" in json.dumps(check) and "patches" in json.dumps(check)
     if units == "us" and fmt == "text":
         assert "°F" in text
+
+
+def test_the_film_notes_travel_with_the_fluid():
+    """Re on D_h = 0.479 m at 0.05 m/s is about 1600 (CoolProp air at 14 °C): laminar."""
+    fluid = LineSpec(duct="600x400mm", fluid_temp_c=14.0, air_temp_c=30.0, layers=(("k=0.040", 0.025),),
+                     velocity_m_s=0.05).build_model()[2]
+    air = _coolprop_air(14.0)
+    assert air["D"] * 0.05 * (2 * 0.5984 * 0.3984 / (0.5984 + 0.3984)) / air["V"] < 2300
+    assert any("laminar air flow" in n for n in fluid.film_notes)
+
+
+def test_duct_table_names_its_size_column(run):
+    code, out, _ = run(*TABLE, "--ducts", "24x16in, 36x24in", "--units", "us")
+    assert code == 0 and "perimeter/π [in]" in out and "OD" not in out.split("Cautions")[0]

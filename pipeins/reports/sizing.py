@@ -164,7 +164,9 @@ def conditions_footer(selection, units: str) -> list[str]:
 def table_report(selection, units: str = "si") -> Report:
     out = selection.outcome
     keys = [c.key for c in out.criteria]
-    columns = [Column("size"), Column("OD", "diameter")]
+    kind = selection.sizes[0].kind if selection.sizes else ""
+    od_title = {"rectangular duct": "perimeter/π", "round duct": "duct diameter"}.get(kind, "OD")
+    columns = [Column("size"), Column(od_title, "diameter")]
     shown = [c for c in out.criteria if c.key != "service_limit"]  # a thickness per criterion
     has_inner = selection.inner_layer is not None
     columns += [Column(c.label, "thickness", 1) for c in shown]
