@@ -239,8 +239,8 @@ def duct_temp_change(spec, max_change_k):
     """The criterion "the duct air changes by at most *max_change_k* [K] over ``length_m``"
     (:class:`DuctTempChange`); needs ``length_m`` and the flow (or the velocity)."""
     if spec.length_m is None or (spec.flow is None and spec.velocity_m_s is None):
-        raise InputError("max_temp_change_k", "the air temperature change along a duct needs length_m and the "
-                                              "air flow (flow or velocity_m_s)")
+        raise InputError("max_temp_change_k", "the air temperature change along a duct needs length_m and the air "
+                                              "flow or velocity_m_s")
     return DuctTempChange(max_change_k, "air", spec.flow, spec.length_m, velocity_m_s=spec.velocity_m_s,
                           pressure_pa=spec.pressure_pa)
 

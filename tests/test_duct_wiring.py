@@ -319,3 +319,11 @@ def test_the_film_notes_travel_with_the_fluid():
 def test_duct_table_names_its_size_column(run):
     code, out, _ = run(*TABLE, "--ducts", "24x16in, 36x24in", "--units", "us")
     assert code == 0 and "perimeter/π [in]" in out and "OD" not in out.split("Cautions")[0]
+
+
+def test_duct_temperature_change_without_a_length_is_one_line(run):
+    code, out, err = run("size", "--duct", "450mm", "--fluid-temp", "13C", "--ambient-temp", "32C",
+                         "--material", "mineral wool", "--velocity", "5m/s", "--max-temp-change", "1K")
+    assert (code, out, err.splitlines()) == (2, "", [
+        "Error: --max-temp-change: the air temperature change along a duct needs --length and the air flow or "
+        "--velocity"])
