@@ -13,8 +13,19 @@ R_s = acosh(2z/D) / (2π k_s) [m·K/W] in series with the pipe wall and the insu
 is solved by the ordinary solver as a fixed outer coefficient h = 1 / (R_s · π D) to the
 ground temperature (no air film, no radiation), so every layer keeps its k(T).
 
-Twin pipes (supply and return side by side or in one casing) and their mutual influence
-are not covered here.
+Two pipes side by side (a supply and a return in one trench, centres a distance E apart
+at the same depth z) influence each other: the heat one sheds warms the soil round the
+other.  With each pipe's own resistance R_i (film, wall, insulation) and the soil's R_s as
+above, the mutual resistance of the pair is, by superposing a line source with its image
+in the ground surface (the zero-order multipole of Wallentén, 1991, from memory; the form
+EN 13941 uses for single pipes in one trench),
+
+    R_m = ln( sqrt(1 + (2z/E)²) ) / (2π k_s)
+
+and the two heat flows follow from (q1, q2) = M⁻¹ (T1 − Tg, T2 − Tg) with
+M = [[R_i1 + R_s, R_m], [R_m, R_i2 + R_s]]: :func:`twin_heat_flows`.  Pipes in one shared
+casing (a twin pre-insulated pipe) need the casing's own multipole solution and are not
+covered.
 """
 
 from __future__ import annotations
@@ -28,7 +39,7 @@ import numpy as np
 from .errors import InputError, closest_names
 from .tables import read_table
 
-__all__ = ["Soil", "lookup_soil", "list_soils", "shape_factor_per_m", "soil_resistance_mk_w",
+__all__ = ["twin_heat_flows", "mutual_resistance_mk_w", "Soil", "lookup_soil", "list_soils", "shape_factor_per_m", "soil_resistance_mk_w",
            "BuriedLine", "buried_spec", "solve_buried", "SOIL_K_RANGE_W_MK"]
 
 #: The soil conductivities taken as physical [W/(m·K)]: dry sand to saturated rock.
@@ -164,3 +175,40 @@ def solve_buried(spec, depth_m: float, ground_temp_c: float, soil_k_w_mk: float 
     result = buried.solve()
     return BuriedLine(float(depth_m), name, k, source, float(ground_temp_c), diameter, s, r, h,
                       float(np.ravel(result.heat_flow_w_per_m)[0]), float(np.ravel(result.surface_temp_c)[0]), result)
+
+
+def mutual_resistance_mk_w(depth_m, spacing_m, soil_k_w_mk):
+    """Mutual soil resistance of two pipes at centre depth z, centres E apart [m·K/W]:
+    ln(sqrt(1 + (2z/E)²)) / (2π k_s) (a line source and its image in the ground surface)."""
+    z, e = np.asarray(depth_m, dtype=float), np.asarray(spacing_m, dtype=float)
+    return np.log(np.sqrt(1.0 + (2.0 * z / e) ** 2)) / (2 * math.pi * np.asarray(soil_k_w_mk, dtype=float))
+
+
+def twin_heat_flows(r_own_mk_w, soil_r_mk_w, mutual_r_mk_w, delta_t_k):
+    """Heat flows [W/m] of two pipes in one trench from their own and the soil's resistances.
+
+    Parameters
+    ----------
+    r_own_mk_w : pair of float
+        Each pipe's film, wall and insulation resistance [m·K/W].
+    soil_r_mk_w : float
+        The soil resistance of one pipe alone, acosh(2z/D)/(2π k_s) [m·K/W].
+    mutual_r_mk_w : float
+        :func:`mutual_resistance_mk_w` [m·K/W].
+    delta_t_k : pair of float
+        Each fluid's temperature above the ground surface [K].
+
+    Returns
+    -------
+    tuple of float
+        (q1, q2) [W/m], positive out of each fluid.
+
+    >>> q1, q2 = twin_heat_flows((2.0, 2.0), 0.3, 0.1, (50.0, 50.0))
+    >>> round(q1, 4) == round(50.0 / 2.4, 4)
+    True
+    """
+    a, b = (float(r) + float(soil_r_mk_w) for r in r_own_mk_w)
+    m = float(mutual_r_mk_w)
+    det = a * b - m * m
+    t1, t2 = (float(t) for t in delta_t_k)
+    return (b * t1 - m * t2) / det, (a * t2 - m * t1) / det

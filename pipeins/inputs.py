@@ -226,6 +226,8 @@ CLI_ONLY = {
     "--soil-k": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
     "--soil": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
     "--ground-temp": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
+    "--twin-spacing": "two buried pipes in one trench, checked one pair at a time; not yet a project-file input",
+    "--return-temp": "two buried pipes in one trench, checked one pair at a time; not yet a project-file input",
     "--ageing-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--joints-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",

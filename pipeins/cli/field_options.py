@@ -11,6 +11,7 @@ its sections to the check report.  Every problem is an
 from __future__ import annotations
 
 import click
+import numpy as np
 
 __all__ = ["field_options", "fitting_options", "pop_field_options", "field_line", "add_field_sections",
            "parse_fittings", "FIELD_FLAGS", "FITTING_FLAGS"]
@@ -43,6 +44,9 @@ FIELD_OPTIONS = [
     click.option("--soil", help='Buried line: soil type instead of --soil-k, e.g. "moist sand" '
                                 "(tables/soils.csv)."),
     click.option("--ground-temp", help="Buried line: ground surface temperature, e.g. 8C."),
+    click.option("--twin-spacing", help="Buried line: a second pipe of the same build-up in the same trench, its "
+                                        "centre this far away (e.g. 0.5m), with --return-temp."),
+    click.option("--return-temp", help="Buried line: the second pipe's fluid temperature, e.g. 45C."),
     click.option("--materials", type=click.Path(), help="A CSV of your own insulation materials (declared "
                  "conductivity against mean temperature, the columns of tables/insulation_materials.csv); "
                  "their names are found before the catalogue's."),
@@ -52,7 +56,7 @@ FIELD_OPTIONS = [
 ] + FITTING_OPTIONS
 #: click destinations of the options above.
 FIELD_FLAGS = ("maintain_temp", "min_ambient", "safety_factor", "tracer_output", "buried", "soil_k", "soil",
-               "ground_temp", "materials", "ageing_factor", "moisture_factor", "joints_factor") + FITTING_FLAGS
+               "ground_temp", "twin_spacing", "return_temp", "materials", "ageing_factor", "moisture_factor", "joints_factor") + FITTING_FLAGS
 _WORDS = {"maintain_temp_c": "--maintain-temp", "safety_factor_percent": "--safety-factor",
           "tracer_output_w_per_m": "--tracer-output", "depth_m": "--buried", "soil_k_w_mk": "--soil-k",
           "soil": "--soil", "outer_h_w_m2k": "--outer-h", "ageing_percent": "--ageing-factor",
@@ -192,6 +196,44 @@ def field_line(spec, field: dict, units: str):
     return buried
 
 
+def _twin(report, spec, field, data, units, q) -> None:
+    """A second pipe in the trench (``--twin-spacing`` with ``--return-temp``): both heat flows."""
+    from dataclasses import replace
+
+    from ..errors import InputError
+
+    spacing, ret = q("twin_spacing", "length"), q("return_temp", "temperature")
+    if spacing is None and ret is None:
+        return
+    if spacing is None or ret is None:
+        raise InputError("--twin-spacing" if spacing is None else "--return-temp",
+                         "two pipes in one trench need both --twin-spacing and --return-temp")
+    casing = data["casing_diameter_m"]
+    if not spacing > casing:
+        raise InputError("--twin-spacing", f"the centres must be more than a casing diameter apart "
+                                           f"({casing * 1000:.0f} mm)")
+    from ..buried import buried_spec, mutual_resistance_mk_w, twin_heat_flows
+    from ..reports.field import twin_table
+
+    ground, k, depth = data["ground_temp_c"], data["soil_k_w_mk"], data["depth_m"]
+    supply_t = float(np.ravel(spec.fluid_temperature_c())[0])
+    back, *_ = buried_spec(replace(spec, fluid_temp_c=ret, steam_pressure_pa=None, outer_h_w_m2k=None), depth, k, ground)
+    alone = [(supply_t, data["heat_flow_w_per_m"], data["casing_temp_c"]),
+             (ret, float(np.ravel(back.solve().heat_flow_w_per_m)[0]), None)]
+    own = []
+    for t, qq, _ in alone:  # each pipe's own resistance, from its solve alone: R_i = ΔT/q − R_s
+        own.append((t - ground) / qq - data["soil_resistance_mk_w"] if qq else float("inf"))
+    r_m = float(mutual_resistance_mk_w(depth, spacing, k))
+    q1, q2 = twin_heat_flows(own, data["soil_resistance_mk_w"], r_m, (supply_t - ground, ret - ground))
+    twin = {"spacing_m": spacing, "return_temp_c": ret, "mutual_resistance_mk_w": r_m,
+            "own_resistance_mk_w": own, "supply_heat_flow_w_per_m": q1, "return_heat_flow_w_per_m": q2,
+            "alone_heat_flow_w_per_m": [alone[0][1], alone[1][1]],
+            "method": "each pipe's own resistance from its solve alone; the mutual soil resistance "
+                      "ln(sqrt(1 + (2z/E)²))/(2π k_s) of a line source and its image (Wallentén 1991, from memory)"}
+    report.tables.append(twin_table(twin, units))
+    report.data["twin"] = twin
+
+
 def add_field_sections(report, spec, field: dict, units: str) -> None:
     """Solve what the field options ask for and add the sections (and JSON keys) to *report*."""
     from ..errors import InputError
@@ -205,6 +247,7 @@ def add_field_sections(report, spec, field: dict, units: str) -> None:
         data["casing_temp_c"] = float(report.data["surface_temp_c"])
         report.tables.append(buried_table(data, units))
         report.data["buried"] = data
+        _twin(report, spec, field, data, units, q)
     if field.get("_materials") is not None:
         from ..reports.field import materials_table
 

@@ -238,3 +238,16 @@ def add_traced_alternative(report, selection, units: str):
                 report.warnings.append(text)
         report.data["warnings"] = report.warnings
     return report
+
+
+def twin_table(twin: dict, units: str) -> Table:
+    """Two pipes in one trench: each heat flow with the other's influence, and alone."""
+    from ..units import format_quantity as fq
+
+    rows = [["supply (this line)", twin["alone_heat_flow_w_per_m"][0], twin["supply_heat_flow_w_per_m"]],
+            [f"return at {fq(twin['return_temp_c'], 'temperature', units)}", twin["alone_heat_flow_w_per_m"][1],
+             twin["return_heat_flow_w_per_m"]]]
+    note = (f"centres {fq(twin['spacing_m'], 'length', units, digits=2)} apart; mutual soil resistance "
+            f"{twin['mutual_resistance_mk_w']:.4g} m·K/W; {twin['method']}; heat flow positive out of the fluid")
+    return Table("Two pipes in one trench", [Column("pipe"), Column("alone", "heat_flow_per_length"),
+                                             Column("beside the other", "heat_flow_per_length")], rows, note=note)
