@@ -86,11 +86,11 @@ PARAMS: tuple[Param, ...] = (
     Param("face", "--face", None, (), "choice", "a flat face by its outward normal: vertical (a wall), up (a top), "
           "down (an underside); film length --height (vertical) or --length (up, down)", "",
           choices=("vertical", "up", "down")),
-    Param("sphere_diameter_m", "--sphere", None, (), "diameter", "outside diameter of a spherical vessel [m]", "",
+    Param("sphere_diameter_m", "--sphere", None, (), "length", "outside diameter of a spherical vessel [m]", "",
           0.0, 100.0, True),
     Param("vessel", "--vessel", None, (), "choice", "a cylindrical vessel by its axis, with --diameter, --length "
           "and --heads", "", choices=("vertical", "horizontal")),
-    Param("vessel_diameter_m", "--diameter", None, (), "diameter", "outside diameter of a vessel shell [m]", "",
+    Param("vessel_diameter_m", "--diameter", None, (), "length", "outside diameter of a vessel shell [m]", "",
           0.0, 100.0, True),
     Param("heads", "--heads", None, (), "choice", "vessel heads", "flat", choices=("flat", "2:1", "hemispherical")),
     Param("floor", "--floor", None, (), "text", 'a vertical tank\'s flat floor, bare: "air" (open beneath) or '
@@ -604,6 +604,13 @@ def line_spec(raw: dict, units: str = "si", items: list | None = None):
         pressure = collect(own, "altitude_m", pressure_at_altitude_pa, altitude)
         if pressure is not None:
             values["pressure_pa"] = float(pressure)
+    if isinstance(values.get("floor"), str) and ":" in values["floor"]:  # ground:TEMP in the unit system
+        kind, _, temp = values["floor"].partition(":")
+        from .units import parse_quantity
+
+        value = collect(own, "floor", parse_quantity, temp.strip(), "temperature", "floor", units)
+        if value is not None:
+            values["floor"] = f"{kind}:{value!r}C"
     spec = None
     if len(own) == start:
         spec = collect(own, "pipe", LineSpec, rh_as_written=True, **values)

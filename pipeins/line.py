@@ -16,6 +16,7 @@ True
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass, replace
 from typing import Any
 
@@ -253,6 +254,9 @@ class LineSpec:
         if kind == "duct":
             from .catalog.ducts import parse_duct_size
 
+            if not re.search(r"[A-Za-z\"]", re.sub(r"(?<=\d)\s*[xX×]\s*(?=[\d.])", " ", str(self.duct))):
+                raise InputError("duct", f'"{self.duct}" has no unit; write it with one: "600x400mm", "24x16in", '
+                                         '"450mm"')
             size = parse_duct_size(self.duct)
             wall = 0.0008 if wall is None else wall
             if size.kind == "round":

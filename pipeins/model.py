@@ -124,10 +124,11 @@ class FlatWall:
         return Plane(self.length_m, self.face)
 
     def patches(self, surroundings):
-        """One patch: the face, taken as facing the sun (absorbing on its whole area)."""
+        """One patch: the face, taken as facing the sun (absorbing on its whole area) when it
+        faces up or sideways; a face looking down gets no sun."""
         from .geometry.section import single_patch
 
-        return single_patch("face", self.shape(surroundings), sun_factor=1.0)
+        return single_patch("face", self.shape(surroundings), sun_factor=0.0 if self.face == "bottom" else 1.0)
 
 
 @dataclass(frozen=True)
@@ -279,7 +280,8 @@ class VesselSection:
         text = (f"{self.orientation} cylindrical vessel, diameter {d}, shell length "
                 f"{fq(self.length_m, 'length', units, digits=2)}")
         if self.floor is not None:
-            return text + ", flat roof, floor on its foundation"
+            where = "floor on its foundation" if self.floor.kind == "ground" else "bare floor, open beneath"
+            return text + f", flat roof, {where}"
         return text + f", {self.heads} heads"
 
 

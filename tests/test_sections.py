@@ -290,3 +290,35 @@ def test_check_with_sun_reports_the_night_surface_and_its_sweating(run):
     assert sunny["surface_temp_c"] > plain["surface_temp_c"]        # by day the sun warms the jacket
     assert sunny["night_surface_temp_c"] == pytest.approx(plain["surface_temp_c"], abs=1e-9)  # at night: no sun
     assert any("at night" in w and "sweat" in w for w in sunny["warnings"])
+
+
+@pytest.mark.parametrize("args, word", [
+    (("--duct", "24x16", "--units", "us"), "--duct"),     # a bare duct size: the unit must be written
+    (("--duct", "600x400"), "--duct"),
+])
+def test_bare_duct_size_is_refused(run, args, word):
+    code, out, err = run("check", *args, "--fluid-temp", "40C", "--layer", "k=0.040:25mm")
+    assert code == 2 and out == "" and err.startswith(f"Error: {word}")
+
+
+def test_vessel_sizes_and_floor_temperature_follow_the_unit_system(run):
+    # --units us: bare diameter and length in feet, the ground temperature in °F (pint-free hand conversion)
+    code, out, err = run("check", "--vessel", "vertical", "--diameter", "10", "--length", "16", "--floor", "ground:40",
+                         "--fluid-temp", "100F", "--ambient-temp", "70F", "--layer", "mineral wool:2in",
+                         "--units", "us", "--format", "json")
+    assert code == 0, err
+    d = json.loads(out)
+    floor = next(p for p in d["patches"] if p["name"] == "floor")
+    assert "4.4" in floor["boundary"]  # 40 °F = 4.44 °C
+    code, out, _ = run("check", "--vessel", "vertical", "--diameter", "3.048m", "--length", "4.8768m",
+                       "--floor", "ground:4.444444444444445C", "--fluid-temp", "100F", "--ambient-temp", "70F",
+                       "--layer", "mineral wool:2in", "--format", "json")
+    assert json.loads(out)["heat_flow_w"] == pytest.approx(d["heat_flow_w"], rel=1e-9)
+
+
+def test_sun_does_not_reach_a_face_looking_down(run):
+    base = ("check", "--face", "down", "--length", "2m", "--fluid-temp", "40C", "--layer", "k=0.040:25mm",
+            "--format", "json")
+    code, a, _ = run(*base)
+    code, b, _ = run(*base, "--solar", "800", "--absorptance", "0.5")
+    assert json.loads(a)["surface_temp_c"] == json.loads(b)["surface_temp_c"]

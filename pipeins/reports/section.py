@@ -21,6 +21,7 @@ BASIS_KINDS = {"W/m": "heat_flow_per_length", "W/m²": "heat_flux", "W": "power"
 #: Display kind of a patch area by the section's basis.
 AREA_KINDS = {"W/m": "area_per_length", "W/m²": None, "W": "area"}
 _PER = {"W/m": "per metre of run", "W/m²": "per m² of face", "W": "for the whole vessel"}
+_PER_US = {"W/m": "per foot of run", "W/m²": "per ft² of face", "W": "for the whole vessel"}
 
 
 def _f(x):
@@ -41,6 +42,14 @@ def describe_section(spec, result, units: str) -> list[list[str]]:
     for patch in result.patches or ():
         if not patch.exposed and patch.note:
             rows.append([patch.name, patch.note])
+    floor = getattr(section, "floor", None)
+    if floor is not None and floor.kind != "ground":
+        rows.append(["floor", floor.assumption(section.diameter_m)])
+    if getattr(result.inputs["surroundings"], "solar_irradiance_w_m2", None) is not None:
+        rows.append(["sun direction", {"rectangular duct": "overhead on a horizontal run (the top takes it), normal "
+                                       "to one wide side of a vertical run",
+                                       "face": "normal to a face looking up or sideways; none on one looking down",
+                                       }.get(result.kind, "on the projected area; none on floors and undersides")])
     return rows
 
 
@@ -78,7 +87,7 @@ def section_report(spec, result, units: str = "si", extra_rows=(), extra_data=No
         Column("dew point", "temperature"),
     ], [[abs(q), abs(_f(result.outer_heat_flux_w_m2)), _f(result.surface_temp_c), _f(result.dew_point_c)]],
         note=f"heat {'loss out of' if loss else 'gain into'} the {'contents' if basis == 'W' else 'air' if 'duct' in result.kind else 'fluid'}, "
-             f"{_PER[basis]}; the governing surface is the {'hottest' if loss else 'coldest'} exposed part")
+             f"{_PER_US[basis] if units == 'us' else _PER[basis]}; the governing surface is the {'hottest' if loss else 'coldest'} exposed part")
     tables = [Table("Section", [Column("item"), Column("description")], describe_section(spec, result, units)), main]
     area_kind = AREA_KINDS[basis]
     if result.patches and len(result.patches) > 1:
