@@ -44,7 +44,8 @@ class Result:
     h_conv_w_m2k: np.ndarray
     h_rad_w_m2k: np.ndarray
     outer_diameter_m: np.ndarray | None
-    residual_w_per_m: float
+    #: Largest |q − q_out(Ts)| left at the reported surface temperature, in the unit of :attr:`basis`.
+    residual: float
     iterations: int
     dew_point_c: np.ndarray | None
     touch_limit_c: float | None
@@ -66,6 +67,13 @@ class Result:
     def heat_flow_w_per_m(self) -> np.ndarray:
         """Heat flow per metre of a pipe or duct run [W/m] (an error for another basis)."""
         return self._in_basis("W/m")
+
+    @property
+    def residual_w_per_m(self) -> float:
+        """:attr:`residual` of a pipe or duct run [W/m] (an error for another basis)."""
+        if self.basis != "W/m":
+            raise AttributeError(f"this result's residual is in {self.basis}: read .residual")
+        return self.residual
 
     @property
     def heat_flow_w(self) -> np.ndarray:
@@ -132,7 +140,7 @@ class Result:
             "touch_limit_c": self.touch_limit_c,
             "over_touch_limit": _plain(self.over_touch_limit),
             "iterations": self.iterations,
-            "residual_w_per_m": self.residual_w_per_m,
+            "residual" + HEAT_FLOW_KEYS[self.basis][len("heat_flow"):]: self.residual,
             "warnings": list(self.warnings),
             **({} if self.patches is None else {"kind": self.kind, "patches": [p.to_dict(self.basis)
                                                                                 for p in self.patches]}),
@@ -208,7 +216,8 @@ def section_result(section, patches, results, inputs, kind, basis, touch_limit_c
     return Result(
         heat_flow=q, outer_heat_flux_w_m2=q / area_all, surface_temp_c=surface,
         interface_temps_c=governing, h_conv_w_m2k=mean("h_conv_w_m2k"), h_rad_w_m2k=mean("h_rad_w_m2k"),
-        outer_diameter_m=None, residual_w_per_m=max(p.result.residual_w_per_m for p in parts),
+        outer_diameter_m=parts[0].result.outer_diameter_m if len(parts) == 1 else None,
+        residual=max(p.result.residual for p in parts),
         iterations=results[0].iterations, dew_point_c=dew_point, touch_limit_c=touch_limit_c,
         geometry=kind, warnings=warnings, inputs={**inputs, "patches": tuple(patches)}, basis=basis,
         patches=parts, kind=kind)

@@ -76,7 +76,7 @@ def solve(pipe: Pipe | FlatWall, layers: Sequence[Layer], fluid: Fluid, surround
     Every numeric input broadcasts against every other; the result's arrays have the
     broadcast shape.  See the module docstring for the method.  *touch_limit_c*, optional, is a
     surface-temperature limit the result compares against (``over_touch_limit``).
-    ``residual_w_per_m`` of the result is the largest |q − q_out(Ts)| at the reported
+    ``residual`` of the result is the largest |q − q_out(Ts)| at the reported
     surface temperature, by the linearisation q_out'·|G|.
 
     >>> from pipeins.catalog.materials import lookup_material
@@ -195,7 +195,7 @@ def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_
             h_conv_w_m2k=shaped(h_c, p),
             h_rad_w_m2k=shaped(h_r, p),
             outer_diameter_m=shaped(2 * np.broadcast_to(net.outer_radius_m, (m,))) if round_shape else None,
-            residual_w_per_m=float(np.max(residual[sl])) if m else 0.0,
+            residual=float(np.max(residual[sl])) if m else 0.0,
             iterations=iterations,
             dew_point_c=dew_point,
             touch_limit_c=touch_limit_c,

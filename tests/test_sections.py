@@ -322,3 +322,13 @@ def test_sun_does_not_reach_a_face_looking_down(run):
     code, a, _ = run(*base)
     code, b, _ = run(*base, "--solar", "800", "--absorptance", "0.5")
     assert json.loads(a)["surface_temp_c"] == json.loads(b)["surface_temp_c"]
+
+
+def test_json_names_follow_the_basis(run):
+    # a sphere's heat flow and residual are in W, and it keeps its outer diameter (50 mm on a 2 m sphere)
+    code, out, _ = run("check", "--sphere", "2m", "--fluid-temp", "80C", "--layer", "mineral wool:50mm",
+                       "--format", "json")
+    d = json.loads(out)
+    assert code == 0 and "heat_flow_w" in d and "residual_w" in d
+    assert "heat_flow_w_per_m" not in d and "residual_w_per_m" not in d
+    assert d["outer_diameter_m"] == pytest.approx(2.1, rel=1e-12)
