@@ -36,16 +36,14 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from .errors import InputError
+from .march import MAX_STEPS, march, substeps
 
 __all__ = ["DuctRunResult", "air_mass_flow_kg_s", "fixed_coefficient", "temperature_along_duct", "max_length_m",
            "required_coefficient_w_per_mk", "AMBIENT_FRACTION", "MAX_STEPS"]
 
-#: Upper bound on the Runge–Kutta steps of one run (all segments together).
-MAX_STEPS = 2000
 #: A run whose leaving air keeps less than this fraction of its entry difference to the
 #: surroundings has reached the surroundings: the flow is too small for the length.
 AMBIENT_FRACTION = 0.01
-_STEP_FRACTION = 0.5  # largest step, in relaxation lengths (as pipeins.runs)
 # Gauss–Legendre nodes for the quadratures in ln|T − T_a| (smooth integrands: 16 nodes give
 # machine precision for a constant conductance and about 1e-10 for k(T)-curved heat flows).
 _GL_NODES, _GL_WEIGHTS = np.polynomial.legendre.leggauss(16)
@@ -255,22 +253,8 @@ def temperature_along_duct(heat_flow_w_per_m, entering_temp_c, mass_flow_kg_s, l
 
     conductance = np.abs(heat_flow(t_in + 1.0) - np.broadcast_to(probe0, shape))
     relax = float(np.max(conductance * length / (mdot * cp_of(t_in))))  # run length in relaxation lengths
-    sub = min(max(1, math.ceil(relax / (_STEP_FRACTION * segments))), max(1, MAX_STEPS // segments))
-    h = length / (segments * sub)
-
-    temps, flows = [t_in], []
-    temp, total = t_in, np.zeros(shape)
-    for _ in range(segments):
-        for j in range(sub):
-            k1, q1 = slope(temp)
-            if j == 0:
-                flows.append(q1)
-            k2, q2 = slope(np.clip(temp + 0.5 * h * k1, floor, ceiling))
-            k3, q3 = slope(np.clip(temp + 0.5 * h * k2, floor, ceiling))
-            k4, q4 = slope(np.clip(temp + h * k3, floor, ceiling))
-            temp = np.clip(temp + h / 6 * (k1 + 2 * k2 + 2 * k3 + k4), floor, ceiling)
-            total = total + h / 6 * (q1 + 2 * q2 + 2 * q3 + q4)
-        temps.append(temp)
+    sub = substeps(relax, segments)
+    temps, flows, temp, total = march(slope, t_in, length, segments, sub, floor, ceiling, shape)
     flows.append(heat_flow(temp))
     _refuse_if_ambient(t_in, temp, ambient, mdot, length, float(ambient_fraction))
     fractions = np.linspace(0.0, 1.0, segments + 1).reshape((-1,) + (1,) * len(shape))

@@ -182,21 +182,22 @@ class PatchResult:
         return out
 
 
-def section_result(section, patches, results, inputs, kind, basis, touch_limit_c, dew_point) -> Result:
+def section_result(section, patches, results, inputs, kind, basis, touch_limit_c, dew_point, outer_areas) -> Result:
     """The whole of a section from its solved patches.
 
     Heat flow: the weighted sum of the patches.  Surface temperature: that of the patch
     that governs, the hottest exposed patch of a section losing heat and the coldest of
     one gaining it (its interface temperatures come with it).  Film coefficients: the
-    area-weighted means of the exposed patches.
+    area-weighted means of the exposed patches.  *outer_areas* is each patch's outer area per
+    patch unit, as the solver computed it.
     """
     total_t = sum(np.asarray(layer.thickness_m, dtype=float) for layer in inputs["layers"]) \
         if inputs["layers"] else 0.0
     shape = results[0].shape
     parts = []
-    for patch, res in zip(patches, results):
+    for patch, res, area in zip(patches, results, outer_areas):
         weight = np.broadcast_to(np.asarray(patch.weight_for(total_t), dtype=float), shape)
-        parts.append(PatchResult(patch.name, weight, _outer_area(res, weight), res,
+        parts.append(PatchResult(patch.name, weight, weight * area, res,
                                  patch.boundary is None, patch.boundary.note if patch.boundary else ""))
     q = sum(p.heat_flow for p in parts)
     exposed = [p for p in parts if p.exposed] or parts
@@ -221,12 +222,6 @@ def section_result(section, patches, results, inputs, kind, basis, touch_limit_c
         iterations=results[0].iterations, dew_point_c=dew_point, touch_limit_c=touch_limit_c,
         geometry=kind, warnings=warnings, inputs={**inputs, "patches": tuple(patches)}, basis=basis,
         patches=parts, kind=kind)
-
-
-def _outer_area(res: Result, weight):
-    """Outer area of a patch per section unit: the weight times its shape's outer area per patch unit."""
-    net = _network_of(res.inputs)
-    return weight * np.broadcast_to(np.asarray(net.outer_area, dtype=float), np.shape(weight))
 
 
 def film_warnings(result: "Result") -> list[str]:

@@ -23,17 +23,13 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from .errors import InputError
+from .march import MAX_STEPS, march, substeps
 from .model import Fluid, Layer, Surface
 from .sizing import Criterion
 
 __all__ = ["RunResult", "temperature_along_run", "mass_flow_kg_s", "condensate_kg_per_h",
            "run_extras", "TempChange", "MAX_STEPS"]
 
-#: Upper bound on the Runge–Kutta steps of one run (all segments together).
-MAX_STEPS = 2000
-# Largest step, as a fraction of the local relaxation length ṁ·c_p / (dq'/dT): 0.5
-# keeps the RK4 error per step below 3e-4 of the fluid-to-ambient difference.
-_STEP_FRACTION = 0.5
 
 
 @dataclass
@@ -230,23 +226,8 @@ def temperature_along_run(pipe, layers, fluid_name, inlet_temp_c, mass_flow_kg_s
     conductance = np.abs(probe[1] - probe[0])
     cp_in = fluid_properties(fluid_name, np.clip(t_in, low_c, high_c)).heat_capacity_j_kgk
     relax = float(np.max(conductance * length / (mdot * cp_in)))  # run length in relaxation lengths
-    sub = max(1, math.ceil(relax / (_STEP_FRACTION * segments)))
-    sub = min(sub, max(1, MAX_STEPS // segments))
-    h = length / (segments * sub)
-
-    temps, flows = [t_in], []
-    temp, total = t_in, np.zeros(shape)
-    for _ in range(segments):
-        for j in range(sub):
-            k1, q1 = slope(temp)
-            if j == 0:
-                flows.append(q1)
-            k2, q2 = slope(np.clip(temp + 0.5 * h * k1, floor, ceiling))
-            k3, q3 = slope(np.clip(temp + 0.5 * h * k2, floor, ceiling))
-            k4, q4 = slope(np.clip(temp + h * k3, floor, ceiling))
-            temp = np.clip(temp + h / 6 * (k1 + 2 * k2 + 2 * k3 + k4), floor, ceiling)
-            total = total + h / 6 * (q1 + 2 * q2 + 2 * q3 + q4)
-        temps.append(temp)
+    sub = substeps(relax, segments)
+    temps, flows, temp, total = march(slope, t_in, length, segments, sub, floor, ceiling, shape)
     flows.append(heat_flow(temp))
     fluid_temps = np.stack(temps)
     warnings = []

@@ -220,8 +220,7 @@ class Condensation(Criterion):
 
     def state(self, problem, result, index):
         if problem.sunny:
-            t = np.ravel(np.broadcast_to(result.interface_temps_c[-1] * 0 + _outer_thickness(result), result.shape))
-            result = problem.solve(t.reshape(result.shape), night=True)
+            result = problem.solve(np.broadcast_to(_outer_thickness(result), result.shape), night=True)
         ts, u = float(np.ravel(result.surface_temp_c)[index]), self.units
         dew = float(np.ravel(np.broadcast_to(result.dew_point_c, result.shape))[index])
         return (f"surface {_in(u, ts, 'temperature', f'{ts:.1f} °C')}, "

@@ -207,7 +207,8 @@ def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_
         ))
     if len(patches) == 1 and not hasattr(pipe, "kind"):
         return results[0]
-    return section_result(pipe, patches, results, inputs, kind, basis, touch_limit_c, dew_point)
+    areas = [shaped(cases["area"], p) for p in range(len(patches))]
+    return section_result(pipe, patches, results, inputs, kind, basis, touch_limit_c, dew_point, areas)
 
 
 def patches_of(section, surroundings) -> list:
