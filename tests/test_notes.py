@@ -1,0 +1,93 @@
+"""Structured notes (pipeins.notes) and their sentences (pipeins.reports.notes).
+
+US conversions checked against the exact definitions (NIST SP 811, 2008, Appendix B: the
+international foot is 0.3048 m, the inch 25.4 mm, t/°F = 1.8·t/°C + 32); the sentences
+themselves are this project's own wording.
+"""
+
+from __future__ import annotations
+
+import string
+
+import pytest
+
+from pipeins.notes import SEVERITIES, SI_UNITS, Note, note
+from pipeins.reports.notes import TEMPLATES, note_dict, notes_json, render, render_all
+
+#: One note per template code, with the fields its sentence cites (a new code needs one here).
+EXAMPLES = {
+    "run.freezes": note("run.freezes", freeze_c=(-0.3, "temperature")),
+    "run.needs_fluid": note("run.needs_fluid"),
+}
+
+
+def test_every_template_has_an_example_and_renders_in_si_and_us():
+    assert set(EXAMPLES) == set(TEMPLATES)
+    for code, example in EXAMPLES.items():
+        assert example.code == code
+        for units in ("si", "us"):
+            text = render(example, units)
+            assert text and "{" not in text and "}" not in text, (code, units, text)
+
+
+def test_every_placeholder_is_a_field_of_its_example():
+    for code, template in TEMPLATES.items():
+        for text in (template.values() if isinstance(template, dict) else [template]):
+            names = {name for _, name, _, _ in string.Formatter().parse(text) if name}
+            assert names <= set(EXAMPLES[code].fields()), code
+
+
+def test_note_is_frozen_hashable_and_deduplicates():
+    a = note("run.freezes", freeze_c=(0.0, "temperature"))
+    b = note("run.freezes", freeze_c=(0.0, "temperature"))
+    assert a == b and len(dict.fromkeys([a, b])) == 1
+    with pytest.raises(AttributeError):
+        a.code = "x"  # type: ignore[misc]
+
+
+def test_bad_severity_or_kind_is_refused():
+    with pytest.raises(ValueError):
+        Note("x", "alarm")
+    with pytest.raises(ValueError):
+        note("x", length=(1.0, "furlong"))
+    assert set(SEVERITIES) == {"warning", "note", "caution"}
+
+
+def test_si_template_matches_the_library_wording_and_us_converts():
+    n = note("run.freezes", freeze_c=(0.0, "temperature"))
+    assert render(n, "si") == ("the fluid cools to its freezing point (0.0 °C) along the run; "
+                               "beyond that point the result is not valid")
+    # NIST SP 811: t/°F = 1.8 t/°C + 32, so 0 °C is 32 °F
+    assert f"({1.8 * 0.0 + 32:.1f} °F)" in render(n, "us")
+
+
+def test_quantity_placeholders_si_format_and_us_digits():
+    TEMPLATES["test.length"] = "over {length:g|} and {t:|2} and {count:.0f} cases"
+    try:
+        n = note("test.length", length=(120.0, "length"), t=(0.0508, "thickness"), count=(3, "number"))
+        assert render(n, "si") == "over 120 m and 51 mm and 3 cases"
+        feet = 120.0 / 0.3048  # NIST SP 811: 1 ft = 0.3048 m exactly
+        # a thickness in inches shows one decimal more than asked (pipeins.units.format_quantity)
+        assert render(n, "us") == f"over {feet:.1f} ft and {0.0508 / 0.0254:.3f} in and 3 cases"
+    finally:
+        del TEMPLATES["test.length"]
+
+
+def test_json_object_has_si_values_units_and_text():
+    n = note("run.freezes", subject="service A", freeze_c=(-0.25, "temperature"))
+    d = note_dict(n, "us")
+    assert d["code"] == "run.freezes" and d["severity"] == "warning" and d["subject"] == "service A"
+    assert d["values"] == {"freeze_c": {"value": -0.25, "unit": "°C"}}
+    assert d["text"] == render(n, "us")
+    assert notes_json([n, n]) == [note_dict(n)]
+    assert all(isinstance(u, str) for u in SI_UNITS.values())
+
+
+def test_render_all_keeps_strings_and_order():
+    n = note("run.needs_fluid")
+    assert render_all(["a", n, "a", n], "si") == ["a", render(n)]
+
+
+def test_unknown_code_says_where_to_add_it():
+    with pytest.raises(KeyError, match="TEMPLATES"):
+        render(note("no.such.code"))
