@@ -32,7 +32,7 @@ __all__ = ["criteria_under", "ConditionsSelection", "select_over_conditions", "F
 #: Air temperature [°C] below which a condition takes the freeze criterion by default (0 °C,
 #: the freezing point of water at atmospheric pressure).
 FREEZE_AIR_C = 0.0
-_EVERYWHERE = ("code", "touch", "heat_flow", "temp_change", "economic")
+_EVERYWHERE = ("code", "touch", "heat_flow", "heat_flux", "temp_change", "economic")
 
 
 def criteria_under(condition, criteria) -> tuple[str, ...]:
@@ -64,6 +64,7 @@ def _requirements(req, under):
     return replace(req, touch=req.touch and "touch" in under,
                    max_heat_flow_w_per_m=req.max_heat_flow_w_per_m if "heat_flow" in under else None,
                    min_reduction=req.min_reduction if "heat_flow" in under else None,
+                   max_heat_flux_w_m2=req.max_heat_flux_w_m2 if "heat_flux" in under else None,
                    max_temp_change_k=req.max_temp_change_k if "temp_change" in under else None,
                    hold_time_s=req.hold_time_s if "freeze" in under else None)
 

@@ -68,6 +68,9 @@ _DESTS = {"--layer": "layers"}
 _C, _S, _L = ("conditions",), ("services",), ("lines",)
 _CL, _SL, _ALL = ("conditions", "lines"), ("services", "lines"), ("conditions", "services", "lines")
 _E = ("energy", "services")
+#: The tables of the sections other than a pipe run: flat faces and vessels (a duct is a [[lines]] run).
+_F, _V = ("faces",), ("vessels",)
+_LFV, _SLFV = ("lines", "faces", "vessels"), ("services", "lines", "faces", "vessels")
 
 PARAMS: tuple[Param, ...] = (
     # -- the pipe ------------------------------------------------------------------------
@@ -78,23 +81,26 @@ PARAMS: tuple[Param, ...] = (
     Param("wall_m", "--wall", "wall", _L, "thickness", "wall thickness with od [m]", "", 0.0, 1.0, True),
     Param("pipe_material", "--pipe-material", "pipe_material", _SL, "text", "pipe wall material",
           "by pipe kind (carbon steel, copper)"),
-    Param("length_m", "--length", "length", _L, "length", "run length [m]", "(required in the file)", 0.0, None, True),
+    Param("length_m", "--length", "length", _LFV, "length", "run length; a vessel's shell length, tangent to tangent; a horizontal face's film length [m]", "(required in the file for a run or a vessel)", 0.0, None, True),
     # -- sections other than a pipe -------------------------------------------------------
-    Param("duct", "--duct", None, (), "text", 'duct size: rectangular "600x400mm", "24x16in"; round "450mm"', ""),
-    Param("sheet", "--sheet", None, (), "text", "sheet metal of a duct, face or vessel wall: galvanised steel, "
+    Param("duct", "--duct", "duct", _L, "text", 'duct size: rectangular "600x400mm", "24x16in"; round "450mm"', ""),
+    Param("sheet", "--sheet", "sheet", _SLFV, "text", "sheet metal of a duct, face or vessel wall: galvanised steel, "
           "aluminium, stainless steel", "galvanised steel"),
-    Param("face", "--face", None, (), "choice", "a flat face by its outward normal: vertical (a wall), up (a top), "
+    Param("face", "--face", "face", _F, "choice", "a flat face by its outward normal: vertical (a wall), up (a top), "
           "down (an underside); film length --height (vertical) or --length (up, down)", "",
           choices=("vertical", "up", "down")),
-    Param("sphere_diameter_m", "--sphere", None, (), "length", "outside diameter of a spherical vessel [m]", "",
+    Param("sphere_diameter_m", "--sphere", "sphere", _V, "length", "outside diameter of a spherical vessel [m]", "",
           0.0, 100.0, True),
-    Param("vessel", "--vessel", None, (), "choice", "a cylindrical vessel by its axis, with --diameter, --length "
+    Param("vessel", "--vessel", "vessel", _V, "choice", "a cylindrical vessel by its axis, with --diameter, --length "
           "and --heads", "", choices=("vertical", "horizontal")),
-    Param("vessel_diameter_m", "--diameter", None, (), "length", "outside diameter of a vessel shell [m]", "",
+    Param("vessel_diameter_m", "--diameter", "diameter", _V, "length", "outside diameter of a vessel shell [m]", "",
           0.0, 100.0, True),
-    Param("heads", "--heads", None, (), "choice", "vessel heads", "flat", choices=("flat", "2:1", "hemispherical")),
-    Param("floor", "--floor", None, (), "text", 'a vertical tank\'s flat floor, bare: "air" (open beneath) or '
+    Param("heads", "--heads", "heads", _V, "choice", "vessel heads", "flat", choices=("flat", "2:1", "hemispherical")),
+    Param("floor", "--floor", "floor", _V, "text", 'a vertical tank\'s flat floor, bare: "air" (open beneath) or '
           '"ground:TEMP" (on its foundation to the ground at TEMP)', "an insulated bottom head"),
+    Param("area_m2", None, "area", _F, "area", "area of a flat face, insulated as one [m²]", "(required for a face)",
+          0.0, None, True),
+    Param("count", None, "count", _V, "count", "number of identical vessels", "1"),
     # -- the fluid -----------------------------------------------------------------------
     Param("fluid_temp_c", "--fluid-temp", "temperature", _S, "temperature", "fluid temperature [°C]",
           "(this or steam_pressure)"),
@@ -102,9 +108,9 @@ PARAMS: tuple[Param, ...] = (
           "saturated steam pressure, gauge or absolute said (10 barg, 150 psig) [Pa absolute]", "", 0.0, None, True),
     Param("fluid", "--fluid", "fluid", _S, "text", 'fluid: water, "30% ethylene glycol", a CoolProp name',
           "water (none for steam)"),
-    Param("velocity_m_s", "--velocity", "velocity", _S, "speed", "mean fluid velocity, for the inner film [m/s]",
+    Param("velocity_m_s", "--velocity", "velocity", _SL, "speed", "mean fluid velocity, for the inner film [m/s]",
           "", 0.0, None, True),
-    Param("flow", "--flow", "flow", _S, "flow", "fluid flow, mass or volume (5 m3/h, 1.2 kg/s, 20 gpm)", "",
+    Param("flow", "--flow", "flow", _SL, "flow", "fluid flow, mass or volume (5 m3/h, 1.2 kg/s, 20 gpm)", "",
           0.0, None, True),
     Param("inner_h_w_m2k", "--inner-h", "inner_h", _S, "heat_transfer_coefficient",
           "fixed inner film coefficient [W/(m²·K)]", "no inner film", 1.0, 1e5),
@@ -118,7 +124,7 @@ PARAMS: tuple[Param, ...] = (
     Param("wind_m_s", "--wind", "wind", _C, "speed", "wind speed [m/s]", "0 (still air)", 0.0, 100.0),
     Param("orientation", "--orientation", "orientation", _CL, "choice", "run orientation", "horizontal",
           choices=("horizontal", "vertical")),
-    Param("height_m", "--height", "height", _CL, "length", "height of a vertical run [m]", "", 0.0, 1000.0, True),
+    Param("height_m", "--height", "height", _CL + _F, "length", "height of a vertical run; a vertical face's height (its film length) [m]", "", 0.0, 1000.0, True),
     Param("pressure_pa", "--air-pressure", "air_pressure", _C, "pressure", "air pressure [Pa]", "101.325 kPa",
           0.0, None, True),
     Param("altitude_m", "--altitude", "altitude", _C, "length", "site altitude instead of air_pressure "
@@ -131,15 +137,15 @@ PARAMS: tuple[Param, ...] = (
           "fixed combined outer coefficient, replaces convection and radiation [W/(m²·K)]", "", 0.1, 1e4),
     # -- the build-up --------------------------------------------------------------------
     Param("layers", "--layer", None, (), "list", "insulation layers MATERIAL:THICKNESS, inner to outer"),
-    Param("material", "--material", "material", _SL, "text", 'the insulation (the layer sized): a catalogue '
+    Param("material", "--material", "material", _SLFV, "text", 'the insulation (the layer sized): a catalogue '
           'material or "k=0.040"', "(required for a service)"),
-    Param("thickness_m", None, "thickness", _L, "thickness", "a fixed thickness of the material instead of "
+    Param("thickness_m", None, "thickness", _LFV, "thickness", "a fixed thickness of the material instead of "
           "sizing it (must still meet the service's criteria) [m]", "sized", 0.0, 2.0, True),
     Param("series", "--series", "series", _S, "text", "thickness series name (see `pipeins list series`)",
           "the material's series"),
-    Param("finish", "--finish", "finish", _SL, "text", "outer finish from the catalogue",
+    Param("finish", "--finish", "finish", _SLFV, "text", "outer finish from the catalogue",
           "painted or plastic jacket (emittance 0.9)"),
-    Param("emittance", "--emittance", "emittance", _SL, "number", "outer surface emittance, instead of or "
+    Param("emittance", "--emittance", "emittance", _SLFV, "number", "outer surface emittance, instead of or "
           "over the finish's", "the finish's", 0.0, 1.0, True),
     # -- requirements --------------------------------------------------------------------
     Param("touch_limit_c", "--touch-limit", "touch_limit", _S, "temperature", "surface temperature limit [°C]",
@@ -153,14 +159,14 @@ PARAMS: tuple[Param, ...] = (
           "cap on the magnitude of the heat flow [W/m]", "", 0.0, None, True),
     Param("min_reduction", "--min-reduction", "min_reduction", _S, "fraction",
           "least reduction against the bare line [%]", "", 0.0, 1.0, True),
-    Param("max_heat_flux_w_m2", "--max-heat-flux", None, (), "heat_flux",
+    Param("max_heat_flux_w_m2", "--max-heat-flux", "max_heat_flux", _S, "heat_flux",
           "cap on the magnitude of the outer heat flux of the worst part, per m² of outer surface [W/m²]", "",
           0.0, None, True),
-    Param("duct_location", "--duct-location", None, (), "choice", "where a duct runs, for a duct code minimum",
+    Param("duct_location", "--duct-location", "duct_location", _SL, "choice", "where a duct runs, for a duct code minimum",
           "", choices=("conditioned", "unconditioned", "outdoors", "envelope")),
-    Param("duct_service", "--duct-service", None, (), "choice", "a duct's service, for a duct code minimum",
+    Param("duct_service", "--duct-service", "duct_service", _SL, "choice", "a duct's service, for a duct code minimum",
           "supply", choices=("supply", "return")),
-    Param("climate_zone", "--climate-zone", None, (), "text", "climate zone of a duct code minimum (e.g. 4, 5A)",
+    Param("climate_zone", "--climate-zone", "climate_zone", ("project", "services"), "text", "climate zone of a duct code minimum (e.g. 4, 5A)",
           ""),
     Param("max_temp_change_k", "--max-temp-change", "max_temp_change", _S, "temperature_difference",
           "cap on the fluid temperature change along the run, with flow [K]", "", 0.0, None, True),
@@ -231,19 +237,7 @@ CLI_ONLY = {
     "--ageing-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--joints-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
-    "--max-heat-flux": "a per-m² cap of one line or duct sized on the command line; not yet a project-file input",
     "--ducts": "a table's duct sizes; the project file lists its lines, each with its size",
-    "--duct-location": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
-    "--duct-service": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
-    "--climate-zone": "a duct code minimum of one duct sized on the command line; the schedule lists pipes",
-    "--duct": "a duct checked, sized or tabulated on the command line; the schedule lists pipes",
-    "--sheet": "the sheet-metal wall of a duct, face or vessel on the command line; the schedule lists pipes",
-    "--face": "a flat face checked or sized on the command line; the schedule lists pipes",
-    "--sphere": "a spherical vessel checked or sized on the command line; the schedule lists pipes",
-    "--vessel": "a cylindrical vessel checked or sized on the command line; the schedule lists pipes",
-    "--diameter": "a cylindrical vessel's diameter on the command line; the schedule lists pipes",
-    "--heads": "a cylindrical vessel's heads on the command line; the schedule lists pipes",
-    "--floor": "a vertical tank's floor on the command line; the schedule lists pipes",
     "--materials": "a user's materials file for one checked line (pipeins.user_materials); a project names its "
                    "own with [project] materials_file",
     "--valve": "fittings as objects on one line (pipeins.fittings); a project line counts valves (equivalent lengths)",
@@ -266,6 +260,8 @@ FILE_ONLY = {
     "units": "the project's unit system; --units on the command line",
     "lines_file": "a line list gives a project many lines; the command line describes one",
     "lines_sheet": "the sheet of a project's XLSX line list",
+    "area": "a flat face's area in a project's [[faces]]; check and size give the heat flow per m²",
+    "count": "identical vessels in a project's [[vessels]]; check and size solve one",
 }
 
 

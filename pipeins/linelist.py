@@ -267,8 +267,10 @@ def read_line_list(path, keys, columns: dict | None = None, sheet: str | None = 
             problems.append(f'{where(header_row)}: no column "{header}" (the [lines_columns] entry for {key}); '
                             f"the header row has {listed}")
     needed = ["service", "size", "length", "condition"]
-    if "od" in first_col or "wall" in first_col:
-        needed.remove("size")
+    if any(k in first_col for k in ("od", "wall", "duct", "face", "vessel", "sphere")):
+        needed.remove("size")  # a pipe by its dimensions, or a duct, face or vessel
+    if any(k in first_col for k in ("face", "vessel", "sphere")):
+        needed.remove("length")  # a face has its area, a vessel its count (the rows say what they need)
     for key in needed:
         if key not in first_col and key not in columns:
             listed = ", ".join(f'"{h}"' for h in headers if h)
@@ -306,14 +308,21 @@ def read_line_list(path, keys, columns: dict | None = None, sheet: str | None = 
     return out
 
 
+def row_keys() -> set:
+    """The keys a line-list column may fill: those of ``[[lines]]`` (pipes and ducts),
+    ``[[faces]]`` and ``[[vessels]]``; a row with a ``face`` (or ``area``) cell is read as a
+    face, one with a ``vessel`` or ``sphere`` cell as a vessel, any other as a run."""
+    from .project import KEYS
+
+    return set(KEYS["lines"]) | set(KEYS["faces"]) | set(KEYS["vessels"])
+
+
 def add_line_list(reader, head: dict, columns_table, raw_lines: list) -> list:
     """The project reader's hook: the ``[[lines]]`` entries of *raw_lines* followed by the
     rows of ``[project] lines_file``; each row's problems are placed at its file, sheet, row
     and column (``reader.places``).  Problems of the list itself go to ``reader.problems``."""
     from .inputs import PARAMS
     from .units import KINDS
-
-    from .project import KEYS
 
     path_key, entry = ("project",), "project"
     sheet = reader.text_value(head, "lines_sheet", path_key, entry)
@@ -329,8 +338,10 @@ def add_line_list(reader, head: dict, columns_table, raw_lines: list) -> list:
                         reader.problem(*place, 'ignore must be a list of column headers, e.g. ["Remarks"]')
                     else:
                         columns[key] = value
-                elif key not in KEYS["lines"]:
+                elif key not in row_keys():
                     from .errors import closest_names
+
+                    from .project import KEYS
 
                     reader.problem(*place, f'unknown line key "{key}"; '
                                            f'{closest_names(str(key), sorted(KEYS["lines"]))}')
@@ -343,10 +354,11 @@ def add_line_list(reader, head: dict, columns_table, raw_lines: list) -> list:
         return raw_lines
     if sheet is not None and FORMATS.get(full.suffix.lower()) != "xlsx":
         reader.problem(path_key, entry, "lines_sheet", "a sheet applies to an XLSX line list only")
-    quantity = {p.key: p.kind for p in PARAMS if p.key and "lines" in p.tables and p.kind in KINDS}
+    quantity = {p.key: p.kind for p in PARAMS if p.key and set(p.tables) & {"lines", "faces", "vessels"}
+                and p.kind in KINDS}
     name = str(head["lines_file"]).strip()
     try:
-        rows = read_line_list(full, KEYS["lines"], columns, sheet, name, quantity)
+        rows = read_line_list(full, row_keys(), columns, sheet, name, quantity)
     except InputError as exc:
         reader.problems.extend(getattr(exc, "problems", None) or [f"{name}: {exc.message}"])
         return raw_lines

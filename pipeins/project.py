@@ -68,7 +68,7 @@ __all__ = ["ProjectError", "Project", "Energy", "Condition", "Service", "Line", 
            "parse_project", "CRITERIA", "DEFAULT_HOURS_PER_YEAR", "KEYS"]
 
 #: Criteria a service may list, in report order.
-CRITERIA = ("code", "touch", "condensation", "heat_flow", "temp_change", "freeze", "economic")
+CRITERIA = ("code", "touch", "condensation", "heat_flow", "heat_flux", "temp_change", "freeze", "economic")
 #: Operating hours per year when none are given: all year (common practice for a first estimate).
 DEFAULT_HOURS_PER_YEAR = 8760.0
 _FITTINGS = {"valves": "valve", "flanges": "flange", "strainers": "strainer"}
@@ -86,18 +86,27 @@ KEYS = {
     "conditions": _param_keys("conditions") | {"criteria_here"},
     "services": _param_keys("services") | {"criteria", "conditions"},
     "lines": _param_keys("lines") | {"service", "condition", "conditions", "tag"},
+    "faces": _param_keys("faces") | {"service", "condition", "conditions", "tag"},
+    "vessels": _param_keys("vessels") | {"service", "condition", "conditions", "tag"},
     # the title block of the HTML and XLSX reports (pipeins.reports.html.TITLE_BLOCK_KEYS)
     "report": {"project", "number", "client", "revision", "date", "prepared_by", "checked_by"},
 }
 _KEYS = KEYS
 #: (table, key) -> the parameter it fills.
 _PARAM_OF = {(t, p.key): p.name for p in PARAMS if p.key for t in p.tables}
-_TOP = ("project", "energy", "conditions", "services", "lines", "report", "lines_columns")
-#: Line keys that give the line a build-up of its own, and those that give it a location of its own.
-_LINE_SERVICE_KEYS = ("material", "thickness", "finish", "emittance", "pipe_material")
+_TOP = ("project", "energy", "conditions", "services", "lines", "faces", "vessels", "report", "lines_columns")
+#: The tables of items: runs of pipe or duct, flat faces, vessels (and spheres).
+ITEM_TABLES = ("lines", "faces", "vessels")
+#: Line keys that give the line a build-up (or a service) of its own, and those that give it a
+#: location of its own (a run's; a face's height is its own size).
+_LINE_SERVICE_KEYS = ("material", "thickness", "finish", "emittance", "pipe_material", "sheet", "flow", "velocity",
+                      "duct_location", "duct_service")
 _LINE_CONDITION_KEYS = ("orientation", "height")
-#: The keys of a line read as its own values (service, condition(s), tag and size are read apart).
-_LINE_OWN_KEYS = frozenset(KEYS["lines"] - {"service", "condition", "conditions", "tag", "size"})
+#: The keys of an item read as its own values (service, condition(s), tag and size are read apart).
+_LINE_OWN_KEYS = {t: frozenset(KEYS[t] - {"service", "condition", "conditions", "tag", "size"}) for t in ITEM_TABLES}
+#: The keys that say what section a [[lines]] row of a line list is (a face or a vessel).
+_ROW_KINDS = {"face": "faces", "area": "faces", "vessel": "vessels", "sphere": "vessels", "diameter": "vessels",
+              "count": "vessels", "heads": "vessels", "floor": "vessels"}
 
 
 class ProjectError(InputError):
@@ -185,6 +194,8 @@ class Service:
     base: str | None = None    # the service a line's overrides derive this one from
     thickness_m: float | None = None   # a line's given thickness: checked, not sized
     entry: str | None = None           # where a derived service comes from ("lines entry 3")
+    sheet: str | None = None           # sheet metal of a duct, face or vessel wall
+    fluid_given: bool = True           # False: the fluid is the default (water; air in a duct)
 
     @property
     def fluid_temp_c(self) -> float:
@@ -200,22 +211,43 @@ class Service:
         """The :class:`pipeins.line.LineSpec` fields this service sets beyond fluid,
         temperature, flow and finish."""
         kw = {"emittance": self.emittance, "pipe_material": self.pipe_material,
-              "velocity_m_s": self.velocity_m_s, "inner_h_w_m2k": self.inner_h_w_m2k}
+              "velocity_m_s": self.velocity_m_s, "inner_h_w_m2k": self.inner_h_w_m2k, "sheet": self.sheet}
         return {k: v for k, v in kw.items() if v is not None}
 
 
 @dataclass(frozen=True, slots=True)
 class Line:
-    """One run of pipe: its service, size, length, location and bare fittings."""
+    """One item of the schedule: a run of pipe or duct (its length), a flat face (its area)
+    or a vessel (its count), with its service, size, location and bare fittings.
 
-    index: int                 # 1-based position among [[lines]]
+    ``kind`` is ``"pipe"``, ``"duct"``, ``"face"``, ``"vessel"`` or ``"sphere"``; ``section``
+    holds the :class:`pipeins.line.LineSpec` fields of a section other than a pipe, as
+    ``(field, value)`` pairs (``duct``; ``face`` with ``height_m`` or ``length_m``; ``vessel``
+    with ``vessel_diameter_m``, ``length_m``, ``heads``, ``floor``; ``sphere_diameter_m``).
+    ``length_m`` is the run length of a pipe or duct (None for a face or vessel)."""
+
+    index: int                 # 1-based position among [[lines]] (or [[faces]], [[vessels]])
     tag: str
     service: str
-    size: Any                  # pipeins.catalog.pipes.PipeSize
-    length_m: float
+    size: Any                  # pipeins.catalog.pipes.PipeSize (a section's: pipeins.line.LineSpec.section_size)
+    length_m: float | None
     condition: str
     fittings: dict = field(default_factory=dict)   # "valve"/"flange"/"strainer" -> count
     file_line: int = 0
+    kind: str = "pipe"
+    section: tuple = ()
+    area_m2: float | None = None   # a face's area [m²]
+    count: int | None = None       # a vessel line's number of identical vessels
+    table: str = "lines"           # the table it was given in
+
+    @property
+    def quantity(self) -> float:
+        """The line's amount in its own basis: length [m], area [m²] or count."""
+        if self.kind == "face":
+            return float(self.area_m2)
+        if self.kind in ("vessel", "sphere"):
+            return float(self.count)
+        return float(self.length_m)
 
 
 @dataclass
@@ -477,10 +509,23 @@ class _Reader:
         sets = self.guard(path, entry, "code", load_rule_sets, self.code_paths)
         if sets is None:
             return default
+        from .duct_codes import load_duct_rule_sets
+
+        sets = list(sets) + list(load_duct_rule_sets())  # pipe rule sets and duct rule sets
         if name not in sets:
-            self.problem(path, entry, "code", f'unknown rule set "{name}"; {closest_names(name, list(sets))}')
+            self.problem(path, entry, "code", f'unknown rule set "{name}"; {closest_names(name, sets)}')
             return default
         return name
+
+    def climate_zone_value(self, table, path, entry, default):
+        """The climate zone of a duct code minimum (checked as the duct rule sets read it)."""
+        zone = self.text_value(table, "climate_zone", path, entry)
+        if zone is None:
+            return default
+        from .duct_codes import parse_climate_zone
+
+        self.guard(path, entry, "climate_zone", parse_climate_zone, zone)
+        return zone
 
     def cost_table(self, table, path, entry):
         full = self.path_value(table, "cost_table", path, entry)
@@ -561,6 +606,7 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
     r.code_paths = tuple(code_paths)
     code = r.rule_set(head, path, "project", None)
     cost_table = r.cost_table(head, path, "project")
+    r.climate_zone = r.climate_zone_value(head, path, "project", None)
 
     # [report]: title-block texts (a TOML date is taken as written)
     report_block = {}
@@ -635,24 +681,35 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
     elif "lines_columns" in data:
         r.problems.append(f"{file_name}: [lines_columns] maps the columns of a line list; add lines_file to "
                           "[project]")
-    if not raw_lines and "lines_file" not in head:
+    items = [("lines", raw_lines)]
+    for top in ("faces", "vessels"):  # flat faces (by area) and vessels (by count) beside the runs
+        raw = data.get(top, [])
+        if not isinstance(raw, list) or not all(isinstance(x, dict) for x in raw):
+            r.problems.append(f"{file_name}: {top} must be [[{top}]] tables")
+            raw = []
+        items.append((top, raw))
+    if not any(raw for _, raw in items) and "lines_file" not in head:
         r.problems.append(f"{file_name}: no [[lines]]: add at least one line with service, size, length "
-                          "and condition")
+                          "and condition (or [[faces]], [[vessels]])")
     raw_services = data.get("services", {}) if isinstance(data.get("services"), dict) else {}
     raw_conditions = data.get("conditions", {}) if isinstance(data.get("conditions"), dict) else {}
-    seen: dict[str, int] = {}
-    for index, table in enumerate(raw_lines, start=1):
-        if progress is not None and index % 1000 == 0:
-            progress("reading lines", index, len(raw_lines))
-        # tags name lines: a repeated one is reported with the line's other problems
-        tag = table.get("tag") if isinstance(table.get("tag"), str) else ""
-        duplicate = seen.get(tag) if tag else None
-        if tag:
-            seen.setdefault(tag, index)
-        line = _line(r, index, table, services, conditions, raw_services, raw_conditions, service_values,
-                     condition_values, duplicate)
-        if line is not None:
-            lines.append(line)
+    seen: dict[str, str] = {}
+    for top, raw in items:
+        for index, table in enumerate(raw, start=1):
+            if progress is not None and index % 1000 == 0:
+                progress("reading lines", index, len(raw))
+            # tags name lines: a repeated one is reported with the line's other problems
+            tag = table.get("tag") if isinstance(table.get("tag"), str) else ""
+            duplicate = seen.get(tag) if tag else None
+            if tag:
+                seen.setdefault(tag, f"{top} entry {index}")
+            kind = top
+            if top == "lines" and ("lines", index) in r.places:  # a line-list row: the item its columns say
+                kind = next((t for k, t in _ROW_KINDS.items() if k in table), "lines")
+            line = _line(r, index, table, services, conditions, raw_services, raw_conditions, service_values,
+                         condition_values, duplicate, kind, (top, index))
+            if line is not None:
+                lines.append(line)
     if r.problems:
         raise ProjectError(r.problems)
     # automatic ids: "service size condition #n"
@@ -704,7 +761,7 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
     ok_before = len(r.problems)
     quantity_keys = [k for k in KEYS["services"] if k in table and k not in
                      ("criteria", "conditions", "code", "cost_table", "fluid", "material", "finish", "series", "schedule",
-                      "pipe_material") and k not in KEYS["energy"]]
+                      "pipe_material", "climate_zone") and k not in KEYS["energy"]]
     v = r.values(table, "services", p, entry, quantity_keys)
     origin = {_PARAM_OF[("services", k)]: (p, entry, k) for k in table if ("services", k) in _PARAM_OF}
     temp, steam = v.get("fluid_temp_c"), v.get("steam_pressure_pa")
@@ -743,6 +800,11 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
         from .catalog.materials import lookup_wall_material
 
         r.guard(p, entry, "pipe_material", lookup_wall_material, pipe_material)
+    if v.get("sheet") is not None:
+        from .catalog.ducts import lookup_sheet
+
+        r.guard(p, entry, "sheet", lookup_sheet, v["sheet"])
+    zone = r.climate_zone_value(table, p, entry, getattr(r, "climate_zone", None))
     series = r.text_value(table, "series", p, entry)
     if series is not None:
         from .catalog.series import series_names
@@ -766,19 +828,21 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
                     r.problem(p, entry, "criteria", f'unknown criterion "{item}"; {closest_names(item, CRITERIA)}')
                 else:
                     criteria.append(item)
-    max_q, reduction = v.get("max_heat_flow_w_per_m"), v.get("min_reduction")
+    max_q, reduction, max_flux = v.get("max_heat_flow_w_per_m"), v.get("min_reduction"), v.get("max_heat_flux_w_m2")
     flow, max_dt, hold = v.get("flow"), v.get("max_temp_change_k"), v.get("hold_time_s")
     scode = r.rule_set(table, p, entry, code)
     scost = r.cost_table(table, p, entry) if "cost_table" in table else cost_table
     senergy = r.energy_fields(table, p, entry, energy)
 
-    given = {"heat_flow": max_q is not None or reduction is not None, "temp_change": max_dt is not None,
+    given = {"heat_flow": max_q is not None or reduction is not None, "heat_flux": max_flux is not None,
+             "temp_change": max_dt is not None,
              "freeze": hold is not None, "code": scode is not None, "economic": scost is not None}
     if criteria is None:  # default: every criterion the service gives the data for
-        criteria = ["touch", "condensation"] + [k for k in ("heat_flow", "temp_change", "freeze", "code", "economic")
-                                                 if given[k]]
+        criteria = ["touch", "condensation"] + [k for k in ("heat_flow", "heat_flux", "temp_change", "freeze", "code",
+                                                            "economic") if given[k]]
     else:
-        needs = {"heat_flow": '"max_heat_flow" or "min_reduction"', "temp_change": '"max_temp_change"',
+        needs = {"heat_flow": '"max_heat_flow" or "min_reduction"', "heat_flux": '"max_heat_flux"',
+                 "temp_change": '"max_temp_change"',
                  "freeze": '"hold_time"', "code": '"code" (here or in [project])',
                  "economic": '"cost_table" (here or in [project])'}
         for key, what in needs.items():
@@ -792,8 +856,9 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
         if steam is not None:
             r.problem(p, entry, "max_temp_change", "condensing steam stays at its saturation temperature; "
                                                    "a temperature change applies to liquids")
-        elif flow is None:
-            r.problem(p, entry, "max_temp_change", 'the temperature change needs the key "flow"')
+        elif flow is None and v.get("velocity_m_s") is None:
+            r.problem(p, entry, "max_temp_change", 'the temperature change needs the key "flow" (or "velocity" '
+                                                   'for a duct)')
     if "freeze" in criteria and fluid is not None:
         from .props.liquids import normalise_fluid
 
@@ -807,31 +872,42 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
         dew_margin_k=v.get("dew_margin_k", DEFAULT_DEW_MARGIN_K),
         max_heat_flow_w_per_m=max_q if "heat_flow" in criteria else None,
         min_reduction=reduction if "heat_flow" in criteria else None,
+        max_heat_flux_w_m2=max_flux if "heat_flux" in criteria else None,
         max_temp_change_k=max_dt if "temp_change" in criteria else None,
         hold_time_s=hold if "freeze" in criteria else None,
         ice_fraction=v.get("ice_fraction", 0.0),
+        duct_location=v.get("duct_location"), duct_service=v.get("duct_service"), climate_zone=zone,
     )
     return Service(sname, fluid, temp, steam, material, finish, series, schedule, tuple(criteria), req, flow,
                    scode if "code" in criteria else None, senergy, scost, r.pos.header(p),
                    emittance=v.get("emittance"), pipe_material=pipe_material, velocity_m_s=v.get("velocity_m_s"),
-                   inner_h_w_m2k=v.get("inner_h_w_m2k"))
+                   inner_h_w_m2k=v.get("inner_h_w_m2k"), sheet=v.get("sheet"),
+                   fluid_given="fluid" in table or "steam_pressure" in table)
 
 
 def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict, raw_services, raw_conditions,
-          service_values, condition_values, duplicate: int | None) -> Line | None:
-    p = ("lines", index)
+          service_values, condition_values, duplicate: str | None, top: str = "lines",
+          path: tuple | None = None) -> Line | None:
+    """One item of *top* (``lines``, ``faces`` or ``vessels``): a run of pipe or duct, a flat
+    face, a vessel.  A line-list row is read as the item its columns describe."""
+    p = path or (top, index)
     tag = table.get("tag") if isinstance(table.get("tag"), str) else ""
-    entry = f"lines entry {index}" + (f' "{tag}"' if tag else "")
+    entry = f"{top} entry {index}" + (f' "{tag}"' if tag else "")
     raw_service = raw_services.get(table.get("service")) if isinstance(table.get("service"), str) else None
     several = "conditions" in table or (isinstance(raw_service, dict) and "conditions" in raw_service)
-    required = ("service", "length") + (() if several else ("condition",)) + (
-        () if "od" in table or "wall" in table else ("size",))
-    r.check_keys(table, "lines", p, entry, required=required)
+    if top == "faces":
+        required = ("service", "face", "area")
+    elif top == "vessels":
+        required = ("service",) + (() if "sphere" in table else ("vessel",))
+    else:
+        required = ("service", "length") + (() if "od" in table or "wall" in table or "duct" in table else ("size",))
+    required += () if several else ("condition",)
+    r.check_keys(table, top, p, entry, required=required)
     before = len(r.problems)
     if "tag" in table:
         r.text_value(table, "tag", p, entry)
     if duplicate is not None:
-        r.problem(p, entry, "tag", f'tag "{tag}" is already used by lines entry {duplicate}')
+        r.problem(p, entry, "tag", f'tag "{tag}" is already used by {duplicate}')
     sname = r.text_value(table, "service", p, entry)
     if sname is not None and sname not in raw_services:
         r.problem(p, entry, "service", f'unknown service "{sname}"; {closest_names(sname, list(raw_services) or ["(none)"])}')
@@ -841,19 +917,29 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
         r.problem(p, entry, "condition", f'unknown condition "{cname}"; {closest_names(cname, known)}')
     names = _line_conditions(r, table, p, entry, services.get(sname), raw_conditions, cname)
     cname = names[0] if names else cname
-    own_keys = [k for k in table if k in _LINE_OWN_KEYS]
-    v = r.values(table, "lines", p, entry, own_keys)
+    own_keys = [k for k in table if k in _LINE_OWN_KEYS[top]]
+    v = r.values(table, top, p, entry, own_keys)
     size_text = r.text_value(table, "size", p, entry)
     service = services.get(sname)
     size = None
-    if size_text is not None:
+    kind = {"faces": "face", "vessels": "sphere" if "sphere" in table else "vessel"}.get(top, "pipe")
+    if top == "lines" and "duct" in table:
+        kind = "duct"
+        for key in ("size", "od", "wall", "pipe_material", "valves", "flanges", "strainers"):
+            if key in table:
+                r.problem(p, entry, key, f"{key} belongs to a pipe; a duct line gives its duct size (and sheet)")
+    elif top == "lines":
+        for key in ("sheet", "duct_location", "duct_service"):
+            if key in table:
+                r.problem(p, entry, key, f"{key} belongs to a duct; give duct = \"600x400mm\" (or a round size)")
+    if size_text is not None and kind == "pipe":
         from .catalog.pipes import lookup_pipe
 
         schedule = service.schedule if service is not None else None
         if schedule is not None and not size_text.strip().upper().startswith("NPS"):
             schedule = None  # a steel schedule applies to NPS sizes only
         size = r.cached(p, entry, "size", lookup_pipe, size_text, schedule)
-    if "od" in table or "wall" in table:
+    if kind == "pipe" and ("od" in table or "wall" in table):
         if size_text is not None:
             r.problem(p, entry, "od", "give a catalogue size or od with wall, not both")
         elif "outer_diameter_m" in v and "wall_m" in v:
@@ -869,44 +955,113 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
         v["material"] = r.guard(p, entry, "material", material_in_si, v["material"], r.units, "material")
         if v["material"] is None:
             del v["material"]
-    for key in ("material", "finish", "pipe_material"):
+    for key in ("material", "finish", "pipe_material", "sheet"):
         if key in v:
+            from .catalog.ducts import lookup_sheet
             from .catalog.finishes import lookup_finish
             from .catalog.materials import lookup_material, lookup_wall_material
 
-            look = {"material": lookup_material, "finish": lookup_finish, "pipe_material": lookup_wall_material}[key]
+            look = {"material": lookup_material, "finish": lookup_finish, "pipe_material": lookup_wall_material,
+                    "sheet": lookup_sheet}[key]
             r.guard(p, entry, key, look, v[key])
     # the rules between inputs, over what this line gets from its location, its service and itself
     cvals, corigin = condition_values.get(cname, ({}, {}))
     svals, sorigin = service_values.get(sname, ({}, {}))
     merged = {**cvals, **{k: x for k, x in svals.items() if k not in ("fluid_temp_c", "steam_pressure_pa")}, **v}
+    if v.get("count", 1) == 0:
+        r.problem(p, entry, "count", "count must be 1 or more (leave the vessel out to count none)")
     already = _reported(r, sname, cname, cvals, svals)
 
     def origin():  # built only when a rule is broken
-        own = {_PARAM_OF[("lines", k)]: (p, entry, k) for k in table if ("lines", k) in _PARAM_OF}
+        own = {_PARAM_OF[(top, k)]: (p, entry, k) for k in table if (top, k) in _PARAM_OF}
         return {**corigin, **sorigin, **own}
 
     r.cross_check(merged, origin, (p, entry, None), skip=already)
     fittings = {}
-    for key, kind in _FITTINGS.items():
-        fittings[kind] = v.get(key, 0) if key in v else 0
+    for key, fitting in _FITTINGS.items():
+        fittings[fitting] = v.get(key, 0) if key in v else 0
     if size is not None and any(fittings.values()):
         from .catalog.fittings import equivalent_length_m
 
-        for kind, n in fittings.items():
+        for fitting, n in fittings.items():
             if n:
-                r.cached(p, entry, kind + "s", equivalent_length_m, kind, size.outer_diameter_m)
+                r.cached(p, entry, fitting + "s", equivalent_length_m, fitting, size.outer_diameter_m)
+    section = ()
+    if kind != "pipe" and len(r.problems) == before:
+        section, size = _section_of(r, p, entry, kind, table, v, service)
     if (len(r.problems) > before or sname not in services or cname not in conditions or size is None
-            or "length_m" not in v):
+            or (top == "lines" and "length_m" not in v)):
         return None
     sname = _line_service(services, sname, table, v, r.pos.header(p), entry)
     if names and any(n not in conditions for n in names):
         return None
     if len(names) > 1:  # several conditions: scheduled under their set (pipeins.design_conditions)
-        cname = _condition_set(r, conditions, [_line_condition(conditions, n, table, v) for n in names])
+        cname = _condition_set(r, conditions, [_line_condition(conditions, n, table, v, top) for n in names])
     else:
-        cname = _line_condition(conditions, cname, table, v)
-    return Line(index, tag, sname, size, v["length_m"], cname, fittings, r.pos.header(p))
+        cname = _line_condition(conditions, cname, table, v, top)
+    length = v["length_m"] if top == "lines" else None
+    return Line(index, tag, sname, size, length, cname, fittings, r.pos.header(p), kind, section,
+                v.get("area_m2"), v.get("count", 1) if top == "vessels" else None, top)
+
+
+#: The LineSpec fields of a section, by kind, from the item's values.
+_SECTION_FIELDS = {"duct": ("duct",), "face": ("face", "height_m", "length_m"),
+                   "vessel": ("vessel", "vessel_diameter_m", "length_m", "heads", "floor"),
+                   "sphere": ("sphere_diameter_m",)}
+
+
+def _section_of(r: _Reader, p, entry, kind: str, table: dict, v: dict, service) -> tuple:
+    """``(section fields, size row)`` of a duct, face, vessel or sphere item (size None when
+    refused): the fields as :class:`pipeins.line.LineSpec` takes them, the size row that
+    names it in the schedule (:meth:`pipeins.line.LineSpec.section_size`), labelled with the
+    dimensions as written."""
+    fields = {k: v[k] for k in _SECTION_FIELDS[kind] if k in v}
+    if kind == "face":  # the film length: a vertical face's height, a horizontal face's length
+        fields.pop("length_m" if fields.get("face") == "vertical" else "height_m", None)
+    if isinstance(fields.get("floor"), str):  # ground:TEMP, the temperature in the unit system
+        ground, _, temp = fields["floor"].partition(":")
+        if temp.strip():
+            from .units import parse_quantity
+
+            value = r.guard(p, entry, "floor", parse_quantity, temp.strip(), "temperature", "floor", r.units)
+            if value is None:
+                return (), None
+            fields["floor"] = f"{ground.strip()}:{value!r}C"
+    sheet = v.get("sheet", service.sheet if service is not None else None)
+    if kind == "duct" and service is not None:
+        if service.steam_pressure_pa is not None or (service.fluid_given and service.fluid not in ("air", None)):
+            r.problem(p, entry, "service", f'a duct carries air; service "{service.name}" has '
+                                           f'{"steam" if service.fluid is None else service.fluid}: give the duct '
+                                           'a service with fluid = "air" (or no fluid)')
+            return (), None
+    key = {"duct": "duct", "face": "face", "vessel": "vessel", "sphere": "sphere"}[kind]
+    size = r.cached(p, entry, key, _section_size, tuple(sorted(fields.items())), sheet)
+    if size is None:
+        return (), None
+    from dataclasses import replace as _replace
+
+    return tuple(sorted(fields.items())), _replace(size, label=_section_label(kind, table))
+
+
+def _section_size(fields: tuple, sheet):
+    from .line import LineSpec
+
+    return LineSpec(sheet=sheet, **dict(fields)).section_size()
+
+
+def _section_label(kind: str, table: dict) -> str:
+    """A section's name in the schedule, with its dimensions as written."""
+    w = lambda k: str(table[k]).strip()  # noqa: E731
+    if kind == "duct":
+        return f"duct {w('duct')}"
+    if kind == "sphere":
+        return f"sphere {w('sphere')}"
+    if kind == "face":
+        film = f"{w('height')} high" if table.get("face") == "vertical" else f"film length {w('length')}"
+        return f"face {table['face']}, {film}"
+    heads = table.get("heads", "flat")
+    floor = f", floor {w('floor')}" if "floor" in table else ""
+    return f"{table['vessel']} vessel {w('diameter')} x {w('length')}, {heads} heads{floor}"
 
 
 def _reported(r: _Reader, sname, cname, cvals: dict, svals: dict) -> set:
@@ -935,14 +1090,18 @@ def _line_service(services: dict, sname: str, table: dict, v: dict, file_line: i
             base, name=name, material=v.get("material", base.material), finish=v.get("finish", base.finish),
             emittance=v.get("emittance", base.emittance), pipe_material=v.get("pipe_material", base.pipe_material),
             series=(v["thickness_m"],) if "thickness_m" in v else base.series, file_line=file_line, base=sname,
-            thickness_m=v.get("thickness_m", base.thickness_m), entry=entry)
+            thickness_m=v.get("thickness_m", base.thickness_m), entry=entry, sheet=v.get("sheet", base.sheet),
+            flow=v.get("flow", base.flow), velocity_m_s=v.get("velocity_m_s", base.velocity_m_s),
+            requirements=replace(base.requirements,
+                                 duct_location=v.get("duct_location", base.requirements.duct_location),
+                                 duct_service=v.get("duct_service", base.requirements.duct_service)))
     return name
 
 
-def _line_condition(conditions: dict, cname: str, table: dict, v: dict) -> str:
+def _line_condition(conditions: dict, cname: str, table: dict, v: dict, top: str = "lines") -> str:
     """The location a line is scheduled in: its own, or one derived with the line's
-    orientation and height."""
-    if not any(k in table for k in _LINE_CONDITION_KEYS):
+    orientation and height (a run's; a face's height is its size)."""
+    if top != "lines" or not any(k in table for k in _LINE_CONDITION_KEYS):
         return cname
     base = conditions[cname]
     name = f"{cname} ({_written(table, _LINE_CONDITION_KEYS)})"

@@ -107,6 +107,31 @@ class LineResult:
     bare_cooling_co2_kg: float | None
     installed_cost: float | None
     installed_cost_note: str = ""
+    #: The section: "pipe", "duct", "face", "vessel" or "sphere", and the basis of its heat
+    #: flow per unit ("W/m" per metre of run, "W/m²" per m² of face, "W" per vessel).
+    kind: str = "pipe"
+    basis: str = "W/m"
+    #: A face's area [m²]; a vessel line's count of identical vessels.
+    area_m2: float | None = None
+    count: int | None = None
+    #: Heat flow per m² of a face [W/m²], per vessel [W], at the schedule thickness and bare
+    #: (a face or vessel has None in ``heat_flow_w_per_m``).
+    heat_flow_w_per_m2: float | None = None
+    bare_heat_flow_w_per_m2: float | None = None
+    heat_flow_w_each: float | None = None
+    bare_heat_flow_w_each: float | None = None
+    #: The part whose surface temperature governs (a duct's or vessel's worst face).
+    governing_surface: str | None = None
+
+    @property
+    def quantity(self) -> float:
+        """The amount in the line's basis: length [m], area [m²] or count."""
+        return {"W/m": self.length_m, "W/m²": self.area_m2, "W": self.count}[self.basis]
+
+    @property
+    def heat_flow_per_unit(self) -> float:
+        """Heat flow per unit of the line's basis (W/m, W/m² or W per vessel)."""
+        return {"W/m": self.heat_flow_w_per_m, "W/m²": self.heat_flow_w_per_m2, "W": self.heat_flow_w_each}[self.basis]
 
     @property
     def heat_loss_w(self) -> float:
@@ -184,18 +209,27 @@ def _size_order(size) -> tuple:
     return ({"steel": 0, "copper": 1, "metric": 2}.get(size.kind, 3), size.outer_diameter_m)
 
 
-def _spec(service, condition, length_m=None, with_rh=True):
+def _spec(service, condition, length_m=None, with_rh=True, section=None):
+    """The LineSpec of a service in a location; *section* adds a duct's, face's or vessel's
+    fields (a duct's fluid is its air)."""
     from .line import LineSpec
 
+    fluid = service.fluid
+    if section and "duct" in section:
+        fluid = None  # the air of the duct (a service for ducts says air or nothing)
     kw = dict(fluid_temp_c=service.temp_c, steam_pressure_pa=service.steam_pressure_pa,
-              fluid=service.fluid, flow=service.flow if service.fluid else None,
+              fluid=fluid, flow=service.flow if service.fluid else None,
               air_temp_c=condition.air_temp_c, surroundings_temp_c=condition.surroundings_temp_c,
               rh_percent=condition.rh_percent if with_rh else None, wind_m_s=condition.wind_m_s,
               pressure_pa=condition.pressure_pa, finish=service.finish, length_m=length_m)
     if service.requirements.touch_limit_c is not None:
         kw["touch_limit_c"] = service.requirements.touch_limit_c
     kw.update(condition.spec_kw)   # orientation, height, fixed outer coefficient
-    kw.update(service.spec_kw)     # emittance, pipe material, velocity, inner film
+    kw.update(service.spec_kw)     # emittance, pipe material, velocity, inner film, sheet
+    if section:
+        kw.update(section)  # a face or vessel has its own facing or axis (LineSpec.build_surroundings)
+    else:
+        kw.pop("sheet", None)  # a pipe's wall is its pipe material
     return LineSpec(rh_as_written=True, **kw)
 
 
@@ -245,11 +279,11 @@ def _compute_schedule(project: Project, progress) -> Schedule:
         by_length = {}
         for line in lines:
             key = line.length_m if "temp_change" in service.criteria else None
-            by_length.setdefault(key, []).append(line)
-        for length, members in by_length.items():
+            by_length.setdefault((_sizing_group(line), key), []).append(line)
+        for (group, length), members in by_length.items():
             sizes = sorted({l.size.label: l.size for l in members}.values(), key=_size_order)
             try:
-                sel = _select(project, service, condition, sizes, length)
+                sel = _select(project, service, condition, sizes, length, members[0])
             except InputError as exc:
                 problems.append(f"{where}: {condition.name}: {in_words(exc.message, file_word)}")
                 continue
@@ -285,8 +319,13 @@ def _compute_schedule(project: Project, progress) -> Schedule:
     for (sname, cname), lines in groups.items():
         progress("solving lines", len(results), len(project.lines))
         try:
-            results += _solve_lines(project, project.services[sname], project.conditions[cname], lines, chosen,
-                                    warnings)
+            pipes = [l for l in lines if l.kind == "pipe"]
+            if pipes:
+                results += _solve_lines(project, project.services[sname], project.conditions[cname], pipes, chosen,
+                                        warnings)
+            if len(pipes) < len(lines):
+                results += _solve_sections(project, project.services[sname], project.conditions[cname],
+                                           [l for l in lines if l.kind != "pipe"], chosen, warnings)
         except InputError as exc:
             service = project.services[sname]
             entry = f'service "{sname}"'
@@ -326,19 +365,40 @@ def _fixed_thickness_miss(project, service, size, condition, pick) -> str:
             f"{GOVERNING_LABELS.get(pick[2], pick[2])}; the sizing picks {picks}")
 
 
-def _select(project, service, condition, sizes, length):
+def _sizing_group(line) -> tuple:
+    """Lines sized in one call: every pipe size of a service and location; every duct size of
+    one shape (round or rectangular); each face or vessel by itself (its own geometry)."""
+    if line.kind == "pipe":
+        return ("pipe",)
+    if line.kind == "duct":
+        return ("duct", line.size.kind)
+    return (line.kind, line.section)
+
+
+def _section_kw(line) -> dict:
+    """The LineSpec fields of a line's section (none for a pipe)."""
+    return dict(line.section)
+
+
+def _select(project, service, condition, sizes, length, line=None):
+    """Size *sizes* of one sizing group (:func:`_sizing_group`) with the service's criteria,
+    by :func:`pipeins.selection.select`, as ``size`` does for the same section."""
     from .selection import select
 
     economic = _basis(service, True) if "economic" in service.criteria else None
+    section = _section_kw(line) if line is not None else {}
+    kind = getattr(line, "kind", "pipe")
+    if kind not in ("pipe", "duct"):
+        sizes = None  # a face or vessel: one section, its own geometry
     if condition.name in project.condition_sets:  # several design conditions
         from .design_conditions import select_over_conditions
 
         return select_over_conditions(
-            lambda c, with_rh: _spec(service, c, length, with_rh=with_rh),
+            lambda c, with_rh: _spec(service, c, length, with_rh=with_rh, section=section),
             [project.conditions[n] for n in project.condition_sets[condition.name]], service.criteria,
             service.material, service.requirements, service.series, project.units, sizes=sizes, code=service.code,
             economic=economic, code_paths=project.code_paths)
-    spec = _spec(service, condition, length, with_rh="condensation" in service.criteria)
+    spec = _spec(service, condition, length, with_rh="condensation" in service.criteria, section=section)
     return select(spec, service.material, service.requirements, service.series, project.units, sizes=sizes,
                   code=service.code, economic=economic, code_paths=project.code_paths, add_inner_layer=False)
 
@@ -431,6 +491,112 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
     return out
 
 
+def _solve_sections(project, service, condition, lines, chosen, warnings) -> list[LineResult]:
+    """Ducts, faces and vessels of one service and location, solved at their schedule
+    thickness and bare: every duct of one shape in one solve (a row per duct), each face or
+    vessel section once.  The line's heat flow is its heat flow per unit (W/m, W/m², W)
+    times its quantity (length, area, count)."""
+    from .bare import bare_surface as bare_surface_of
+    from .catalog.materials import lookup_material
+    from .model import Layer
+    from .solve import solve
+
+    material = lookup_material(service.material)
+    groups: dict = {}
+    for line in lines:
+        groups.setdefault(("duct", line.size.kind) if line.kind == "duct" else (line.kind, line.size.label),
+                          []).append(line)
+    solved = []   # (line, q, q_bare, surface temp, governing part, bare surface, thickness)
+    for key, members in groups.items():
+        spec = _spec(service, condition, section=_section_kw(members[0]))
+        if key[0] == "duct":
+            sizes = [l.size for l in members]
+            pipe, _, fluid, surroundings, surface = spec.build_model(sizes, insulated=True)
+            thickness = np.array([chosen[(l.service, l.condition, l.size.label)][0] for l in members])[:, None]
+        else:
+            pipe, _, fluid, surroundings, surface = spec.build_model(insulated=True)
+            thickness = np.full((1, 1), chosen[(members[0].service, members[0].condition, members[0].size.label)][0])
+            fluid = _column(fluid)
+        layers = [Layer(material, np.where(thickness > 0, thickness, 1e-9))] if np.any(thickness > 0) else []
+        result = solve(pipe, layers, fluid, surroundings, surface)
+        bare_surface = bare_surface_of(pipe, surface)
+        bare = solve(pipe, [], fluid, surroundings, bare_surface)
+        warnings += [f'service "{service.name}" in {condition.name}: {w}' for w in dict.fromkeys(result.warnings)]
+        q = np.ravel(np.broadcast_to(result.heat_flow, thickness.shape))
+        q_bare = np.ravel(np.broadcast_to(bare.heat_flow, thickness.shape))
+        ts = np.ravel(np.broadcast_to(result.surface_temp_c, thickness.shape))
+        parts = _governing_parts(result, thickness.shape)
+        for i, line in enumerate(members):
+            j = i if key[0] == "duct" else 0
+            solved.append((line, float(q[j]), float(q_bare[j]), float(ts[j]), parts[j], bare_surface,
+                           float(thickness[j, 0]), result.basis))
+    n = len(solved)
+    quantity = np.array([l.quantity for l, *_ in solved])
+    heat = np.array([x[1] for x in solved]) * quantity
+    heat_bare = np.array([x[2] for x in solved]) * quantity
+    dew_margin = [None] * n
+    if condition.rh_percent is not None and service.fluid_temp_c < condition.air_temp_c:
+        from .props.humid import dew_point_c
+
+        dew = float(dew_point_c(float(condition.air_temp_c), float(condition.rh_percent), float(condition.pressure_pa)))
+        dew_margin = [x[3] - dew for x in solved]
+    basis = _basis(service, False)
+    money = _line_money(heat, heat_bare, basis)
+    gaining = (heat < 0) | (heat_bare < 0)
+    if basis.cop is None and gaining.any():
+        tags = ", ".join(f'"{x[0].tag}"' for x, g in zip(solved, gaining) if g)
+        warnings.append(f'service "{service.name}" gains heat with no chiller COP (give cop in [energy] or the '
+                        f"service): {tags} left out of the energy, cost and CO2 columns")
+    priced = [not g for g in gaining.tolist()] if basis.cop is None else [True] * n
+    table = service.cost_table or project.cost_table
+    out = []
+    for i, (line, qi, qb, tsi, part, bare_surface, t, unit) in enumerate(solved):
+        figures = [money[duty][case][key][i] if priced[i] else None
+                   for duty in ("heating", "cooling") for key in ("energy_j", "cost", "co2_kg")
+                   for case in ("insulated", "bare")]
+        installed, note = None, ""
+        if table is not None:
+            note = (f"{table.name} prices insulation per metre of pipe by size; the {line.kind} "
+                    f"{line.size.label} is not in it")
+        per = {"W/m": {}, "W/m²": {"heat_flow_w_per_m2": qi, "bare_heat_flow_w_per_m2": qb},
+               "W": {"heat_flow_w_each": qi, "bare_heat_flow_w_each": qb}}[unit]
+        run = unit == "W/m"
+        out.append(LineResult(
+            line.tag, line.service, line.size.label, line.condition, line.length_m if run else None, t,
+            qi if run else None, qb if run else None, 0.0, float(heat[i]), float(heat_bare[i]), tsi,
+            None if dew_margin[i] is None else float(dew_margin[i]), None, bare_surface.name,
+            float(bare_surface.emittance), priced[i], *figures, installed, note,
+            kind=line.kind, basis=unit, area_m2=line.area_m2, count=line.count, governing_surface=part, **per))
+    return out
+
+
+def _column(fluid):
+    """A fluid whose film coefficient has the (1, 1) shape of one section's row."""
+    from dataclasses import replace
+
+    if fluid.film_coefficient_w_m2k is None:
+        return fluid
+    return replace(fluid, film_coefficient_w_m2k=np.reshape(fluid.film_coefficient_w_m2k, (1, 1)))
+
+
+def _governing_parts(result, shape) -> list:
+    """Per case, the name of the part whose surface temperature governs (None for one part)."""
+    patches = getattr(result, "patches", None)
+    n = int(np.prod(shape))
+    if not patches or len(patches) < 2:
+        return [None] * n
+    ts = np.ravel(np.broadcast_to(result.surface_temp_c, shape))
+    names = [None] * n
+    for p in patches:
+        if not p.exposed:
+            continue
+        temps = np.ravel(np.broadcast_to(p.result.surface_temp_c, shape))
+        for i in range(n):
+            if names[i] is None and temps[i] == ts[i]:
+                names[i] = p.name
+    return names
+
+
 def _line_money(heat, heat_bare, basis) -> dict:
     """``{duty: {"insulated"|"bare": {"energy_j"|"cost"|"co2_kg": list}}}`` per line; a line
     that gains heat with no COP gets zeros here (the caller leaves it unpriced)."""
@@ -492,12 +658,18 @@ def _bands(project, chosen, groups) -> list[ScheduleRow]:
     for (sname, cname), lines in groups.items():
         service = project.services[sname]
         sizes = sorted({l.size.label: l.size for l in lines}.values(), key=_size_order)
+        kinds = {l.size.label: l.kind for l in lines}
         material = lookup_material(service.material).name
         finish = service.finish or "–"
+        last_kind = None
         for size in sizes:
             thickness, split, governing, under = chosen[(sname, cname, size.label)]
             last = rows[-1] if rows else None
-            if (last is not None and last.service == sname and last.condition == cname
+            # a band runs over pipe sizes or over duct sizes of one shape; a face or vessel is a row
+            band = kinds[size.label] if kinds[size.label] == "pipe" else (
+                ("duct", size.kind) if kinds[size.label] == "duct" else None)
+            same_band, last_kind = band is not None and band == last_kind, band
+            if (last is not None and same_band and last.service == sname and last.condition == cname
                     and last.thickness_m == thickness and last.layers_m == split and last.governing == governing
                     and last.governing_condition == under):
                 last.sizes.append(size.label)

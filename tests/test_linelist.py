@@ -111,8 +111,8 @@ GOOD = "tag,service,size,length,condition\nA1,hot,NPS 2,10,room\n"
 
 @pytest.mark.parametrize("text, columns, lines", [
     ("tag,service,size,length,condition,Insulation\nA1,hot,NPS 2,10,room,x\n", "",
-     ['Error: l.csv: row 1, column "Insulation": unknown column; did you mean "orientation"? (rename it, map it '
-      'in [lines_columns], or leave it out with [lines_columns] ignore = ["Insulation"])']),
+     ['Error: l.csv: row 1, column "Insulation": unknown column; did you mean "orientation" or "duct_location"? '
+      '(rename it, map it in [lines_columns], or leave it out with [lines_columns] ignore = ["Insulation"])']),
     ("tag,service,size,length\nA1,hot,NPS 2,10\n", "",
      ['Error: l.csv: row 1: no "condition" column; the header row has "tag", "service", "size", "length" '
       '(name a column "condition" or map one in [lines_columns])']),

@@ -9,7 +9,8 @@ from pipeins.project import KEYS
 
 DOC = pathlib.Path(__file__).resolve().parents[1] / "docs" / "project-file.md"
 HEADINGS = {"project": "### [project]", "energy": "### [energy]", "conditions": "### [conditions.NAME]",
-            "services": "### [services.NAME]", "lines": "### [[lines]]", "report": "### [report]"}
+            "services": "### [services.NAME]", "lines": "### [[lines]]", "faces": "### [[faces]]",
+            "vessels": "### [[vessels]]", "report": "### [report]"}
 
 
 def _section(table: str) -> str:

@@ -22,8 +22,9 @@ from .sizing import layers_text
 __all__ = ["schedule_report", "csv_files", "CSV_NAMES"]
 
 #: File name of each table when the report is written as CSV files into a folder.
-CSV_NAMES = {"Insulation schedule": "schedule.csv", "Lines": "lines.csv", "Totals": "totals.csv",
-             "Investment": "investment.csv", "Services": "services.csv", "Locations": "locations.csv"}
+CSV_NAMES = {"Insulation schedule": "schedule.csv", "Lines": "lines.csv", "Faces": "faces.csv",
+             "Vessels": "vessels.csv", "Totals": "totals.csv", "Investment": "investment.csv",
+             "Services": "services.csv", "Locations": "locations.csv"}
 
 
 def csv_files(report) -> list[tuple[str, Table]]:
@@ -195,6 +196,14 @@ def _clean(v):
     return v
 
 
+#: LineResult fields a pipe's JSON entry leaves out (its entry is as it always was).
+SECTION_KEYS = frozenset({"kind", "basis", "area_m2", "count", "heat_flow_w_per_m2", "bare_heat_flow_w_per_m2",
+                          "heat_flow_w_each", "bare_heat_flow_w_each", "governing_surface"})
+#: Fields that a section's entry carries only where they apply.
+_BY_BASIS = frozenset({"area_m2", "count", "heat_flow_w_per_m2", "bare_heat_flow_w_per_m2", "heat_flow_w_each",
+                       "bare_heat_flow_w_each", "governing_surface"})
+
+
 def _line_data(lines) -> list[dict]:
     """The JSON entry of every line: its fields (floats rounded to 1e-9, never NaN or inf)
     and its heat loss and gain apart."""
@@ -204,13 +213,57 @@ def _line_data(lines) -> list[dict]:
     from ..schedule import LineResult
 
     names = tuple(f.name for f in fields(LineResult))
-    get = attrgetter(*names)
+    pipe_names = tuple(n for n in names if n not in SECTION_KEYS)
+    get, get_pipe = attrgetter(*names), attrgetter(*pipe_names)
     out = []
     for l in lines:
-        entry = dict(zip(names, map(_clean, get(l))))
+        if l.kind == "pipe":  # a pipe's entry as it always was
+            entry = dict(zip(pipe_names, map(_clean, get_pipe(l))))
+        else:  # a section's: the keys of its basis (no per-metre figure on a face or vessel)
+            entry = {k: v for k, v in zip(names, map(_clean, get(l))) if v is not None or k not in _BY_BASIS}
+            if l.basis != "W/m":
+                for key in ("length_m", "fittings_length_m", "heat_flow_w_per_m", "bare_heat_flow_w_per_m"):
+                    entry.pop(key, None)
         entry.update(heat_loss_w=l.heat_loss_w, bare_heat_loss_w=l.bare_heat_loss_w, heat_gain_w=l.heat_gain_w,
                      bare_heat_gain_w=l.bare_heat_gain_w)
         out.append(entry)
+    return out
+
+
+def _part(line) -> str:
+    return line.governing_surface or "–"
+
+
+_SECTION_NOTE = ("Heat flow positive = lost by the contents, negative = gained; the line's heat flow is the heat "
+                 "flow per unit times the quantity. The surface is the governing part's (the hottest exposed "
+                 "part of a section losing heat, the coldest of one gaining it); the bare line is the bare "
+                 "wall or sheet.")
+
+
+def _section_tables(schedule) -> list:
+    """The faces (per m², by area) and the vessels (per vessel, by count), where there are any."""
+    faces = [l for l in schedule.lines if l.basis == "W/m²"]
+    vessels = [l for l in schedule.lines if l.basis == "W"]
+    out = []
+    if faces:
+        out.append(Table("Faces", [
+            Column("face"), Column("service"), Column("section"), Column("location"), Column("area", "area"),
+            Column("thickness", "thickness"), Column("heat flow", "heat_flux"), Column("heat flow, face", "power"),
+            Column("bare heat flow, face", "power"), Column("surface", "temperature"),
+            Column("above dew point", "temperature_difference")],
+            [[l.tag, l.service, l.size, l.condition, l.area_m2, l.thickness_m, l.heat_flow_w_per_m2, l.heat_flow_w,
+              l.bare_heat_flow_w, l.surface_temp_c, l.dew_point_margin_k] for l in faces],
+            note=_SECTION_NOTE + " A face's heat flow is per m² of its area."))
+    if vessels:
+        out.append(Table("Vessels", [
+            Column("vessel"), Column("service"), Column("section"), Column("location"), Column("count"),
+            Column("thickness", "thickness"), Column("heat flow, each", "power"), Column("heat flow, line", "power"),
+            Column("bare heat flow, line", "power"), Column("surface", "temperature"),
+            Column("governing part"), Column("above dew point", "temperature_difference")],
+            [[l.tag, l.service, l.size, l.condition, l.count, l.thickness_m, l.heat_flow_w_each, l.heat_flow_w,
+              l.bare_heat_flow_w, l.surface_temp_c, _part(l), l.dew_point_margin_k] for l in vessels],
+            note=_SECTION_NOTE + " A vessel's heat flow is per vessel, shell and heads (or roof and floor) "
+                                 "together; the line's is that times the count."))
     return out
 
 
@@ -235,19 +288,26 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
         [[r.service, r.condition, r.size_band, r.material, r.finish, r.thickness_m, layers_text(r.layers_m, units),
           _governing(r.governing, r.governing_condition)] for r in schedule.rows])
 
+    runs = [l for l in schedule.lines if l.basis == "W/m"]
+    ducts = any(l.kind == "duct" for l in runs)
     lines = Table("Lines", [
         Column("line"), Column("service"), Column("size"), Column("location"), Column("length", "length"),
         Column("thickness", "thickness"), Column("heat flow", "heat_flow_per_length"),
         Column("bare fittings", "length"), Column("heat flow, line", "power"),
         Column("bare heat flow, line", "power"), Column("surface", "temperature"),
-        Column("above dew point", "temperature_difference"), Column("outlet", "temperature")],
+        Column("above dew point", "temperature_difference"), Column("outlet", "temperature")]
+        + ([Column("governing face")] if ducts else []),
         [[l.tag, l.service, l.size, l.condition, l.length_m, l.thickness_m, l.heat_flow_w_per_m,
           l.fittings_length_m or None, l.heat_flow_w, l.bare_heat_flow_w, l.surface_temp_c, l.dew_point_margin_k,
-          l.outlet_temp_c] for l in schedule.lines],
+          l.outlet_temp_c] + ([_part(l)] if ducts else []) for l in runs],
         note="Heat flow positive = lost by the fluid, negative = gained. Bare fittings are counted as "
-             "that length of bare pipe; the bare line is the pipe's own surface with no insulation.")
+             "that length of bare pipe; the bare line is the pipe's own surface with no insulation."
+             + (" A duct's heat flow is per metre of run over all its faces, its surface the governing face's "
+                "(the coldest of a duct gaining heat, the hottest of one losing it); a duct's bare line is its "
+                "bare sheet." if ducts else ""))
 
-    tables = [sched, lines, _totals_table(schedule, units, cur)]
+    tables = [sched] + ([lines] if runs or not schedule.lines else []) + _section_tables(schedule)
+    tables += [_totals_table(schedule, units, cur)]
     t = schedule.totals
     if t.payback_lines or t.lines_left_out:
         tables.append(_investment_table(schedule, cur))
