@@ -968,6 +968,9 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     cvals, corigin = condition_values.get(cname, ({}, {}))
     svals, sorigin = service_values.get(sname, ({}, {}))
     merged = {**cvals, **{k: x for k, x in svals.items() if k not in ("fluid_temp_c", "steam_pressure_pa")}, **v}
+    for key in ("face", "vessel"):  # a refused facing or axis still says what the item is
+        if key in table and key not in merged:
+            merged[key] = str(table[key])
     if v.get("count", 1) == 0:
         r.problem(p, entry, "count", "count must be 1 or more (leave the vessel out to count none)")
     already = _reported(r, sname, cname, cvals, svals)
@@ -1034,9 +1037,16 @@ def _section_of(r: _Reader, p, entry, kind: str, table: dict, v: dict, service) 
                                            f'{"steam" if service.fluid is None else service.fluid}: give the duct '
                                            'a service with fluid = "air" (or no fluid)')
             return (), None
-    key = {"duct": "duct", "face": "face", "vessel": "vessel", "sphere": "sphere"}[kind]
-    size = r.cached(p, entry, key, _section_size, tuple(sorted(fields.items())), sheet)
-    if size is None:
+    memo_key = (_section_size, tuple(sorted(fields.items())), sheet)
+    if memo_key not in r._memo:
+        try:
+            r._memo[memo_key] = (_section_size(*memo_key[1:]), None)
+        except InputError as exc:
+            r._memo[memo_key] = (None, exc)
+    size, refused = r._memo[memo_key]
+    if refused is not None:  # placed at the key of the input it names (floor, heads …), else the section's
+        named = file_word(refused.name)
+        r.problem(p, entry, named if named in table else kind, refused.message)
         return (), None
     from dataclasses import replace as _replace
 

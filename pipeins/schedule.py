@@ -39,6 +39,7 @@ GOVERNING_LABELS = {
     "surface_temp": "touch safety",
     "condensation": "condensation control",
     "heat_flow": "heat-flow cap",
+    "heat_flux": "heat-flux cap (per m² of outer surface)",
     "temp_change": "temperature change",
     "freeze": "freeze protection",
     "economic": "lifetime cost (economic thickness)",
@@ -293,7 +294,7 @@ def _compute_schedule(project: Project, progress) -> Schedule:
                 text = f"{GOVERNING_LABELS.get(c.key, c.label)}: {c.description}"
                 if text not in criteria_used[sname]:
                     criteria_used[sname].append(text)
-            warnings += [f'service "{sname}": {n}' for n in sel.notes]
+            warnings += [f'service "{sname}": {n}' for n in sel.notes if not _unasked(n, service)]
             for i, size in enumerate(sizes):
                 if not out.feasible[i] and service.thickness_m is not None:
                     problems.append(_fixed_thickness_miss(project, service, size, condition, None))
@@ -346,6 +347,13 @@ def _compute_schedule(project: Project, progress) -> Schedule:
                         f"{len(results)} lines; left out: " + "; ".join(notes))
     cautions = _cautions(project, groups)
     return Schedule(project, rows, results, totals, list(dict.fromkeys(warnings)), cautions, criteria_used)
+
+
+def _unasked(note: str, service) -> bool:
+    """A note on a criterion the service does not ask for: the schedule solves without the RH
+    where condensation is not among its criteria, so "condensation not checked … give the RH"
+    would ask for what the file already has."""
+    return "condensation" not in service.criteria and note.startswith("condensation not checked")
 
 
 def _unpriced_reason(line) -> str:

@@ -253,7 +253,7 @@ def _section_tables(schedule) -> list:
             Column("above dew point", "temperature_difference")],
             [[l.tag, l.service, l.size, l.condition, l.area_m2, l.thickness_m, l.heat_flow_w_per_m2, l.heat_flow_w,
               l.bare_heat_flow_w, l.surface_temp_c, l.dew_point_margin_k] for l in faces],
-            note=_SECTION_NOTE + " A face's heat flow is per m² of its area."))
+            note=_SECTION_NOTE + " A face's heat flow is per unit area of the face."))
     if vessels:
         out.append(Table("Vessels", [
             Column("vessel"), Column("service"), Column("section"), Column("location"), Column("count"),
@@ -302,7 +302,7 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
           l.outlet_temp_c] + ([_part(l)] if ducts else []) for l in runs],
         note="Heat flow positive = lost by the fluid, negative = gained. Bare fittings are counted as "
              "that length of bare pipe; the bare line is the pipe's own surface with no insulation."
-             + (" A duct's heat flow is per metre of run over all its faces, its surface the governing face's "
+             + (" A duct's heat flow is per unit length of run over all its faces, its surface the governing face's "
                 "(the coldest of a duct gaining heat, the hottest of one losing it); a duct's bare line is its "
                 "bare sheet." if ducts else ""))
 
