@@ -27,12 +27,28 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
-__all__ = ["criteria_under", "ConditionsSelection", "select_over_conditions", "FREEZE_AIR_C"]
+__all__ = ["criteria_under", "ConditionsSelection", "select_over_conditions", "FREEZE_AIR_C", "CommandCondition",
+           "governing_selection"]
 
 #: Air temperature [°C] below which a condition takes the freeze criterion by default (0 °C,
 #: the freezing point of water at atmospheric pressure).
 FREEZE_AIR_C = 0.0
-_EVERYWHERE = ("code", "touch", "heat_flow", "heat_flux", "temp_change", "economic")
+_EVERYWHERE = ("code", "touch", "heat_flow", "heat_flux", "temp_change", "economic", "tracer")
+
+
+@dataclass(frozen=True)
+class CommandCondition:
+    """A design condition given on the command line (``--condition``): what
+    :func:`criteria_under` reads of a project's :class:`pipeins.project.Condition` (name, air
+    [°C], relative humidity [%] or None, wind [m/s], the criteria it takes or None) and its
+    settings as written (option destination → text)."""
+
+    name: str
+    air_temp_c: float
+    rh_percent: float | None = None
+    wind_m_s: float = 0.0
+    criteria_here: tuple | None = None
+    settings: dict = field(default_factory=dict)
 
 
 def criteria_under(condition, criteria) -> tuple[str, ...]:
@@ -66,7 +82,8 @@ def _requirements(req, under):
                    min_reduction=req.min_reduction if "heat_flow" in under else None,
                    max_heat_flux_w_m2=req.max_heat_flux_w_m2 if "heat_flux" in under else None,
                    max_temp_change_k=req.max_temp_change_k if "temp_change" in under else None,
-                   hold_time_s=req.hold_time_s if "freeze" in under else None)
+                   hold_time_s=req.hold_time_s if "freeze" in under else None,
+                   tracer_output_w_per_m=getattr(req, "tracer_output_w_per_m", None) if "tracer" in under else None)
 
 
 @dataclass
@@ -94,7 +111,7 @@ class _Warnings:
 
 
 def select_over_conditions(spec_of, conditions, criteria, material, req, series=None, units="si", sizes=None,
-                           code=None, economic=None, code_paths=()):
+                           code=None, economic=None, code_paths=(), skip_unsized=False):
     """Size *sizes* under every condition of *conditions* and combine (see the module docstring).
 
     Parameters
@@ -107,19 +124,34 @@ def select_over_conditions(spec_of, conditions, criteria, material, req, series=
     material, req, series, units, sizes, code, economic, code_paths
         As :func:`pipeins.selection.select` (*economic* and *code* apply only under the
         conditions that take them).
+    skip_unsized : bool
+        True: a condition under which none of its criteria applies to the line (a cold line's
+        touch check in winter) is left out with a note; only when every condition is, the
+        first one's error is raised.  False (the schedule): that error is raised at once.
     """
+    from .errors import InputError
     from .selection import select
 
-    selections = {}
+    selections, skipped, first_error = {}, [], None
     for cond in conditions:
         under = criteria_under(cond, criteria) if len(conditions) > 1 else tuple(criteria)
         if not under:
             continue
         spec = spec_of(cond, "condensation" in under)
-        selections[cond.name] = select(spec, material, _requirements(req, under), series, units, sizes=sizes,
-                                       code=code if "code" in under else None,
-                                       economic=economic if "economic" in under else None,
-                                       code_paths=code_paths, add_inner_layer=False)
+        try:
+            selections[cond.name] = select(spec, material, _requirements(req, under), series, units, sizes=sizes,
+                                           code=code if "code" in under else None,
+                                           economic=economic if "economic" in under else None,
+                                           code_paths=code_paths, add_inner_layer=False)
+        except InputError as exc:
+            if not (skip_unsized and exc.message.startswith("no sizing criterion applies")):
+                raise
+            first_error = first_error or exc
+            skipped.append(f"{cond.name}: {exc.message.split(';')[0]}; nothing is sized under it")
+    if not selections:
+        if first_error is None:
+            raise InputError("conditions", "no condition takes any of the criteria")
+        raise first_error
     names = list(selections)
     outs = [selections[c].outcome for c in names]
     n = len(outs[0].selected_m)
@@ -139,6 +171,8 @@ def select_over_conditions(spec_of, conditions, criteria, material, req, series=
     for i in range(n):
         best = float(np.max(picks[:, i]))
         tied = [j for j in range(len(outs)) if picks[j, i] >= best - 1e-12]
+        if not feasible[i]:   # the condition (first listed) under which it cannot be met governs
+            tied = [next(j for j, o in enumerate(outs) if not o.feasible[i])]
 
         def own_requirement(j):
             key = outs[j].governing[i]
@@ -165,6 +199,13 @@ def select_over_conditions(spec_of, conditions, criteria, material, req, series=
                       result=_Warnings(w for o in outs for w in o.result.warnings),
                       not_applicable=list(dict.fromkeys(x for o in outs for x in o.not_applicable)),
                       active=[a for o in outs for a in o.active])
-    notes = list(dict.fromkeys((f"{c}: {x}" if len(outs) > 1 else x) for c in names for x in selections[c].notes))
+    notes = list(dict.fromkeys([(f"{c}: {x}" if len(outs) > 1 else x) for c in names for x in selections[c].notes]
+                               + skipped))
     required_m = {k: np.where(np.isfinite(v), v, np.nan) for k, v in required_m.items()}
     return ConditionsSelection(outcome, gov_cond, required_m, required_under, selections, notes)
+
+
+def governing_selection(combined: ConditionsSelection, index: int = 0):
+    """The :class:`pipeins.selection.Selection` of the condition that governs size *index*
+    (its pick is the combined pick, so its check is the check at the selected thickness)."""
+    return combined.selections[combined.governing_condition[index]]

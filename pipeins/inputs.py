@@ -224,6 +224,8 @@ CLI_ONLY = {
     "--profile": "an operating profile of one line; a project service runs at one temperature",
     "--plot": "an extra chart file beside one command's output; the schedule's formats carry their charts",
     "--ascii": "how the console draws one command's text output (plain ASCII rules); not part of a project",
+    "--condition": "several design conditions of one line sized on the command line; a project file names its "
+                   "[conditions.NAME] tables and a service's or line's conditions list",
     "--tracer-output": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
     "--safety-factor": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
     "--maintain-temp": "heat tracing of one line (pipeins.tracing); not yet a project-file input",

@@ -7,6 +7,7 @@ import click
 from .options import emit, line_options, output_options, plot_option, spec_from_options
 from .energy_options import basis_from_options, code_options, energy_options
 from .sizing_options import parse_series, requirements_from_options, sizing_options
+from .condition_options import condition_option
 
 
 @click.command()
@@ -18,6 +19,7 @@ from .sizing_options import parse_series, requirements_from_options, sizing_opti
 @click.option("--matrix", type=click.Choice(["heat-flow", "surface-temp"]),
               help="Instead: this quantity for every size at every thickness of the series.")
 @line_options
+@condition_option
 @sizing_options
 @code_options
 @energy_options
@@ -31,6 +33,8 @@ def table(fmt, units, output, sizes, ducts, matrix, material, series, code, code
     and surface temperature at that thickness. With --matrix, the heat flow per metre (or
     the surface temperature) of every size at every thickness of the series instead, as
     handbooks print it. Every table ends with the design conditions and the cautions.
+    With two or more --condition options (as on `pipeins size`), each size is sized under
+    every condition and a condition column names the one that governs it.
 
     \b
     Example:
@@ -64,16 +68,35 @@ def table(fmt, units, output, sizes, ducts, matrix, material, series, code, code
         opts = {**opts, "pipe": size_list[0].label}
     from ..inputs import Problems, collect
 
+    from .condition_options import parse_conditions
+
+    conditions = parse_conditions(opts.pop("condition", ()))
+    if conditions and matrix:
+        raise InputError("--matrix", "a matrix is of one condition; drop --condition or --matrix")
     items: list = []  # every problem of the command line at once
     spec = spec_from_options(opts, units, items)
     req = requirements_from_options(opts, units, items)
     basis = collect(items, "price", basis_from_options, opts, units)
+    under = None
+    if conditions:
+        from .condition_options import conditions_from_options
+
+        start = len(items)
+        under = conditions_from_options(conditions, opts, units, items)
+        under = under if len(items) == start else None
     if items:
         raise Problems(items)
     economic = basis if basis is not None and basis.cost_table is not None else None
     material = material_in_si(material, units, "--material")
-    selection = select(spec, material, req, parse_series(series, units), units, sizes=size_list, code=code,
-                       economic=economic, code_paths=code_table)
+    combined = None
+    if under is not None:
+        from .condition_options import select_under_conditions
+
+        combined, selection = select_under_conditions(under, material, req, parse_series(series, units), units,
+                                                      code, economic, code_table, sizes=size_list)
+    else:
+        selection = select(spec, material, req, parse_series(series, units), units, sizes=size_list, code=code,
+                           economic=economic, code_paths=code_table)
     if matrix:
         report = matrix_report(selection, matrix.replace("-", "_"), units)
     else:
@@ -84,5 +107,9 @@ def table(fmt, units, output, sizes, ducts, matrix, material, series, code, code
                 raise InputError(CRITERION_OPTIONS.get(failed.key, "--series"),
                                  f"{failed.messages[-1]} (largest size {selection.sizes[-1].label}); no size can meet it")
         report = table_report(selection, units)
+        if combined is not None:
+            from ..reports.conditions import add_table_conditions
+
+            add_table_conditions(report, combined, [c for c, _ in under], units)
     report.charts = table_charts(selection, report)
     emit(report, fmt, units, output)
