@@ -24,8 +24,7 @@ EN 13941 uses for single pipes in one trench),
 
 and the two heat flows follow from (q1, q2) = M⁻¹ (T1 − Tg, T2 − Tg) with
 M = [[R_i1 + R_s, R_m], [R_m, R_i2 + R_s]]: :func:`twin_heat_flows`.  Pipes in one shared
-casing (a twin pre-insulated pipe) need the casing's own multipole solution and are not
-covered.
+casing (a twin pre-insulated pipe) are :mod:`pipeins.twin_casing` (the multipole method).
 """
 
 from __future__ import annotations

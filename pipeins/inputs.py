@@ -235,6 +235,8 @@ CLI_ONLY = {
     "--soil": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
     "--ground-temp": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
     "--twin-spacing": "two buried pipes in one trench, checked one pair at a time; not yet a project-file input",
+    "--twin-casing": "a supply and a return in one buried casing (pipeins.twin_casing), checked one pair at a time",
+    "--casing-insulation": "the insulation of a twin casing (pipeins.twin_casing), checked one pair at a time",
     "--return-temp": "two buried pipes in one trench, checked one pair at a time; not yet a project-file input",
     "--ageing-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",

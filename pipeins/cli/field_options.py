@@ -47,6 +47,11 @@ FIELD_OPTIONS = [
     click.option("--twin-spacing", help="Buried line: a second pipe of the same build-up in the same trench, its "
                                         "centre this far away (e.g. 0.5m), with --return-temp."),
     click.option("--return-temp", help="Buried line: the second pipe's fluid temperature, e.g. 45C."),
+    click.option("--twin-casing", help="Buried line: the supply (this pipe) and a return of the same size in ONE "
+                                       "casing of this outer diameter, e.g. 250mm, centres --twin-spacing apart, "
+                                       "filled with --casing-insulation (multipole method)."),
+    click.option("--casing-insulation", help='With --twin-casing: the casing\'s insulation, e.g. '
+                                             '"polyisocyanurate foam" (a catalogue or --materials name).'),
     click.option("--materials", type=click.Path(), help="A CSV of your own insulation materials (declared "
                  "conductivity against mean temperature, the columns of tables/insulation_materials.csv); "
                  "their names are found before the catalogue's."),
@@ -56,7 +61,7 @@ FIELD_OPTIONS = [
 ] + FITTING_OPTIONS
 #: click destinations of the options above.
 FIELD_FLAGS = ("maintain_temp", "min_ambient", "safety_factor", "tracer_output", "buried", "soil_k", "soil",
-               "ground_temp", "twin_spacing", "return_temp", "materials", "ageing_factor", "moisture_factor", "joints_factor") + FITTING_FLAGS
+               "ground_temp", "twin_spacing", "return_temp", "twin_casing", "casing_insulation", "materials", "ageing_factor", "moisture_factor", "joints_factor") + FITTING_FLAGS
 _WORDS = {"maintain_temp_c": "--maintain-temp", "safety_factor_percent": "--safety-factor",
           "tracer_output_w_per_m": "--tracer-output", "depth_m": "--buried", "soil_k_w_mk": "--soil-k",
           "soil": "--soil", "outer_h_w_m2k": "--outer-h", "ageing_percent": "--ageing-factor",
@@ -170,7 +175,8 @@ def field_line(spec, field: dict, units: str):
 
     q = _reader(field, units)
     depth = q("buried", "length")
-    given = [n for n in ("soil_k", "soil", "ground_temp") if field.get(n) is not None]
+    given = [n for n in ("soil_k", "soil", "ground_temp", "twin_casing", "casing_insulation")
+             if field.get(n) is not None]
     if depth is None:
         if given:
             raise InputError(_flag(given[0]), "is a buried-line input: give --buried DEPTH too")
@@ -183,6 +189,11 @@ def field_line(spec, field: dict, units: str):
         raise InputError("--ground-temp", "a buried line needs the ground surface temperature")
     from ..buried import buried_spec, lookup_soil
 
+    if field.get("twin_casing") is not None or field.get("casing_insulation") is not None:
+        from .twin_casing_options import centred_in_casing
+
+        field["_unburied"] = spec
+        spec = centred_in_casing(spec, field, units)
     try:
         soil = lookup_soil(field["soil"]) if field.get("soil") is not None else None
         k = soil.conductivity_w_mk if soil is not None else k
@@ -247,7 +258,12 @@ def add_field_sections(report, spec, field: dict, units: str) -> None:
         data["casing_temp_c"] = float(report.data["surface_temp_c"])
         report.tables.append(buried_table(data, units))
         report.data["buried"] = data
-        _twin(report, spec, field, data, units, q)
+        if field.get("_unburied") is not None:
+            from .twin_casing_options import add_twin_casing
+
+            add_twin_casing(report, field["_unburied"], field, data, units)
+        else:
+            _twin(report, spec, field, data, units, q)
     if field.get("_materials") is not None:
         from ..reports.field import materials_table
 

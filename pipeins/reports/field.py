@@ -64,8 +64,8 @@ def buried_table(data: dict, units: str) -> Table:
     ]
     note = ("The soil is a resistance acosh(2z/D)/(2π·k) in series with the insulation, to an isothermal ground "
             "surface (cylinder in a semi-infinite medium, Incropera et al., Table 4.1); the Results above hold it "
-            "as a fixed outer coefficient to the ground temperature (no air film, no radiation). Single pipe only: "
-            "twin pipes and neighbouring lines are not modelled. Soil conductivity varies with moisture: use a "
+            "as a fixed outer coefficient to the ground temperature (no air film, no radiation). Neighbouring lines are "
+            "not modelled unless given (--twin-spacing, --twin-casing). Soil conductivity varies with moisture: use a "
             "site survey where the heat flow matters.")
     return _rows_table("Buried line", rows, note)
 
