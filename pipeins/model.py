@@ -288,7 +288,8 @@ class VesselSection:
 @dataclass(frozen=True)
 class Layer:
     """One insulation layer: a catalogue material (see :mod:`pipeins.catalog.materials`)
-    and its thickness [m] (scalar or array)."""
+    and its thickness [m] (scalar or array), nominal for a wrap (see
+    :attr:`installed_thickness_m`)."""
 
     material: Any
     thickness_m: Any
@@ -297,6 +298,15 @@ class Layer:
         t = np.asarray(self.thickness_m, dtype=float)
         if np.any(~np.isfinite(t) | (t <= 0)):
             raise InputError("thickness_m", f"thickness of {self.material.name} must be greater than zero")
+
+    @property
+    def installed_thickness_m(self):
+        """The thickness the solver uses [m]: :attr:`thickness_m` as given (the nominal
+        thickness a product is sold by), less the compression of a wrap as installed
+        (``material.compression_percent``; duct wrap 25 %, common practice), the same
+        for every other material."""
+        fraction = getattr(self.material, "installed_fraction", 1.0)
+        return self.thickness_m if fraction == 1.0 else np.asarray(self.thickness_m, dtype=float) * fraction
 
 
 class BareLayer(Layer):

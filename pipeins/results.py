@@ -191,7 +191,7 @@ def section_result(section, patches, results, inputs, kind, basis, touch_limit_c
     area-weighted means of the exposed patches.  *outer_areas* is each patch's outer area per
     patch unit, as the solver computed it.
     """
-    total_t = sum(np.asarray(layer.thickness_m, dtype=float) for layer in inputs["layers"]) \
+    total_t = sum(np.asarray(layer.installed_thickness_m, dtype=float) for layer in inputs["layers"]) \
         if inputs["layers"] else 0.0
     shape = results[0].shape
     parts = []
@@ -259,4 +259,4 @@ def _network_of(inputs):
     shape = inputs.get("shape") or pipe.shape(inputs["surroundings"])
     columns = {k: np.asarray(v, dtype=float) for k, v in shape.columns().items()}
     columns["wall"] = np.asarray(pipe.wall_m, dtype=float)
-    return shape.network(columns, [np.asarray(layer.thickness_m, dtype=float) for layer in layers])
+    return shape.network(columns, [np.asarray(layer.installed_thickness_m, dtype=float) for layer in layers])

@@ -353,7 +353,8 @@ def duct_code_outcome(spec, req, rule_set: str, material, n_sizes: int, fluid_te
     the least thickness of *material* whose flat-layer R-value t/k meets the rule's R
     (:func:`pipeins.duct_codes.minimum_r_value`, :func:`pipeins.duct_codes.least_thickness`),
     k at the 75 °F rating mean temperature the code's R-values are stated at; the same for
-    every size.  A lower bound on the pick, like a pipe code minimum."""
+    every size.  A lower bound on the pick, like a pipe code minimum.  For a wrap the
+    thickness is the nominal one whose installed thickness (less the compression) meets the R."""
     from .duct_codes import LOCATIONS, load_duct_rule_sets, least_thickness, minimum_r_value
     from .sizing import CriterionOutcome
 
@@ -369,7 +370,10 @@ def duct_code_outcome(spec, req, rule_set: str, material, n_sizes: int, fluid_te
     if not rule.covered:
         required, message = np.full(n_sizes, np.nan), f"code minimum: not covered ({rule.reason})"
     else:
-        thickness = float(least_thickness(rule.r_value_m2k_w, material).installed_thickness_m)
+        # a wrap is sized by its nominal thickness: the one whose installed thickness gives the R
+        thickness = float(least_thickness(rule.r_value_m2k_w, material,
+                                          compression_percent=getattr(material, "compression_percent", 0.0)
+                                          ).nominal_thickness_m)
         required, message = np.full(n_sizes, thickness), ""
     outcome = CriterionOutcome("code", "code minimum", f"duct insulation of {rule_set}: {rule.reason}",
                                required, np.ones(n_sizes, dtype=bool), [message] * n_sizes)

@@ -55,14 +55,16 @@ class Selection:
         return float(np.ravel(np.broadcast_to(temps, self.outcome.result.shape))[index])
 
 
-def series_for(material, series: str | tuple | None, units: str = "si") -> tuple[str, tuple[float, ...]]:
+def series_for(material, series: str | tuple | None, units: str = "si",
+               section_kind: str = "pipe") -> tuple[str, tuple[float, ...]]:
     """(name, thicknesses in m) of the series to pick from: a name, an explicit tuple of
-    thicknesses [m], or the material family's default series in the unit system."""
+    thicknesses [m], or the material family's default series in the unit system (on a duct,
+    the duct series: :func:`pipeins.catalog.series.default_series`)."""
     from .catalog.series import default_series, thickness_series_m
 
     if series is None:
         family = material.family if material.family != "generic" else "pipe_section"
-        name = default_series(family, units)
+        name = default_series(family, units, section_kind)
         return name, thickness_series_m(name)
     if isinstance(series, str):
         return series, thickness_series_m(series)
@@ -92,7 +94,7 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
     from .criteria import build_criteria
 
     material = lookup_material(material_name, option="--material")
-    name, series_m = series_for(material, series, units)
+    name, series_m = series_for(material, series, units, spec.section_kind)
     pipe, fixed, fluid, surroundings, surface = spec.build_model(sizes, insulated=True)
     n = 1 if sizes is None else len(sizes)
     if sizes is None and hasattr(pipe, "kind"):  # a duct, face or vessel: its scalars broadcast

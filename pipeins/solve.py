@@ -113,7 +113,7 @@ def _solve(pipe, layers, fluid, surroundings, surface, touch_limit_c, rtol, max_
             raw.update(air=patch.boundary.temp_c, rad=patch.boundary.temp_c, hfix=patch.boundary.coefficient_w_m2k,
                        wind=0.0, sun=0.0)
         for j, layer in enumerate(layers):
-            raw[f"t{j}"] = layer.thickness_m if patch.insulated else 0.0
+            raw[f"t{j}"] = layer.installed_thickness_m if patch.insulated else 0.0
         raws.append({k: np.asarray(v, dtype=float) for k, v in raw.items()})
     shape_of_cases = np.broadcast_shapes(*(a.shape for raw in raws for a in raw.values()))
     flat = [{k: np.broadcast_to(a, shape_of_cases).ravel() for k, a in raw.items()} for raw in raws]

@@ -53,6 +53,10 @@ class InsulationMaterial:
         Density [kg/m³] (nan for a ``k=`` layer).
     source : str
         Where the numbers come from.
+    compression_percent : float
+        The thickness a blanket wrap loses as installed [%] (duct wrap: 25 %, common
+        practice); 0 for everything else.  A layer of a wrap is given and sold by its
+        nominal thickness and solved at its installed one (:attr:`installed_fraction`).
     """
 
     key: str
@@ -63,6 +67,33 @@ class InsulationMaterial:
     max_temp_c: float
     density_kg_m3: float
     source: str
+    compression_percent: float = 0.0
+
+    @property
+    def is_wrap(self) -> bool:
+        """Whether the material is a wrap compressed as installed (catalogue flag)."""
+        return self.compression_percent > 0
+
+    @property
+    def installed_fraction(self) -> float:
+        """Installed thickness over nominal thickness: 1 − compression/100 (1 for all but a wrap)."""
+        return 1.0 - self.compression_percent / 100.0
+
+    def installed_thickness_m(self, nominal_thickness_m):
+        """Installed thickness [m] of a layer sold as *nominal_thickness_m* [m]."""
+        if not self.is_wrap:
+            return nominal_thickness_m
+        import numpy as np
+
+        return np.asarray(nominal_thickness_m, dtype=float) * self.installed_fraction
+
+    def nominal_thickness_m(self, installed_thickness_m):
+        """Nominal thickness [m] of a layer installed as *installed_thickness_m* [m] (to 0.1 µm)."""
+        if not self.is_wrap:
+            return installed_thickness_m
+        import numpy as np
+
+        return np.round(np.asarray(installed_thickness_m, dtype=float) / self.installed_fraction, 7)
 
 
 @dataclass(frozen=True)
@@ -121,6 +152,7 @@ def _insulation() -> dict[str, InsulationMaterial]:
             max_temp_c=float(first["max_temp_c"]),
             density_kg_m3=float(first["density_kg_m3"]),
             source="; ".join(sources),
+            compression_percent=float(first.get("compression_percent") or 0.0),
         )
     return out
 

@@ -14,7 +14,15 @@ from pipeins.errors import near_hint
 from pipeins.errors import InputError
 from pipeins.tables import read_table
 
-__all__ = ["series_names", "thickness_series_m", "default_series", "series_families"]
+__all__ = ["series_names", "thickness_series_m", "default_series", "series_families", "DUCT_FAMILY",
+           "OWN_SERIES_ON_DUCTS"]
+
+#: The family of duct wrap and duct board, and of the series a duct takes by default.
+DUCT_FAMILY = "duct"
+#: Families whose own series a duct keeps (sheet and blanket sold in those thicknesses for
+#: ducts too); a material made for pipes (sections, blocks, a ``k=`` layer) takes the duct series
+#: on a duct.
+OWN_SERIES_ON_DUCTS = ("duct", "elastomeric", "aerogel")
 
 _UNIT_M = {"mm": 0.001, "in": 0.0254}
 _UNIT_SYSTEMS = {"si": "mm", "us": "in", "ip": "in"}
@@ -74,10 +82,13 @@ def thickness_series_m(name: str) -> tuple[float, ...]:
     return tuple(sorted(round(v, 9) for v in _series()[key]["values"]))
 
 
-def default_series(family: str, units: str = "si") -> str:
+def default_series(family: str, units: str = "si", section_kind: str = "pipe") -> str:
     """Name of the mm (``units="si"``) or inch (``units="us"``, also ``"ip"``) series of a family.
 
-    A ``generic`` family (constant-k layer) uses the pipe-section series.
+    A ``generic`` family (constant-k layer) uses the pipe-section series.  On a duct
+    (*section_kind* ``"duct"``) every family but those of :data:`OWN_SERIES_ON_DUCTS` takes the
+    duct series (``mm_duct``: 25, 38, 50, 75 mm; ``in_duct``: 1, 1.5, 2, 3 in; duct wrap and
+    duct board, common practice): pipe sections are not sold for ducts.
 
     Raises
     ------
@@ -90,11 +101,15 @@ def default_series(family: str, units: str = "si") -> str:
     'mm_elastomeric'
     >>> default_series("block", "us")
     'in_block'
+    >>> default_series("pipe_section", "us", "duct"), default_series("elastomeric", "si", "duct")
+    ('in_duct', 'mm_elastomeric')
     """
     system = str(units).strip().lower()
     if system not in _UNIT_SYSTEMS:
         raise InputError("--units", f'unknown unit system "{units}"; use si or us')
     fam = "pipe_section" if family == "generic" else str(family).strip().lower()
+    if section_kind == "duct" and fam not in OWN_SERIES_ON_DUCTS:
+        fam = DUCT_FAMILY
     name = f"{_UNIT_SYSTEMS[system]}_{fam}"
     if name not in _series():
         raise InputError("series", f'no thickness series for material family "{family}"; '

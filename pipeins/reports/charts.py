@@ -87,7 +87,7 @@ def profile_data(result) -> dict:
     od = _f(pipe.outer_diameter_m)
     diameters = [od - 2 * _f(pipe.wall_m), od]
     for layer in layers:
-        diameters.append(diameters[-1] + 2 * _f(layer.thickness_m))
+        diameters.append(diameters[-1] + 2 * _f(layer.installed_thickness_m))
     names = ["bore", "pipe outside"] + [f"outside layer {j}" for j in range(1, len(layers) + 1)]
     return {
         "names": names,

@@ -39,7 +39,11 @@ def describe_line(spec, result, units: str) -> list[list[str]]:
     rows.append(["fluid", f"{what}; {film}"])
     if layers:
         for j, layer in enumerate(layers, 1):
-            rows.append([f"layer {j}", f"{layer.material.name}, {fq(_f(layer.thickness_m), 'thickness', units)}"])
+            text = f"{layer.material.name}, {fq(_f(layer.thickness_m), 'thickness', units)}"
+            if getattr(layer.material, "is_wrap", False):  # a wrap: nominal as sold, installed as solved
+                text += (f" nominal, {fq(_f(layer.installed_thickness_m), 'thickness', units, 2 if units == 'si' else None)} installed "
+                         f"({layer.material.compression_percent:g} % compression)")
+            rows.append([f"layer {j}", text])
     else:
         rows.append(["layers", "none (bare pipe)" if not hasattr(pipe, "kind") else f"none (bare {pipe.kind})"])
     if surface.fixed_coefficient_w_m2k is not None:
@@ -81,7 +85,10 @@ def spec_summary(spec, result) -> dict:
         "outer_diameter_m": _f(getattr(pipe, "outer_diameter_m", None)),
         "wall_m": _f(pipe.wall_m),
         "wall_material": pipe.wall_material,
-        "layers": [{"material": l.material.name, "thickness_m": _f(l.thickness_m)}
+        "layers": [{"material": l.material.name, "thickness_m": _f(l.thickness_m),
+                    **({"installed_thickness_m": _f(l.installed_thickness_m),
+                        "compression_percent": l.material.compression_percent}
+                       if getattr(l.material, "is_wrap", False) else {})}
                    for l in result.inputs["layers"]],
         "fluid_temp_c": _f(result.inputs["fluid"].temp_c),
         "air_temp_c": _f(result.inputs["surroundings"].air_temp_c),
@@ -111,7 +118,7 @@ def check_report(spec, result, units: str = "si", extra_rows=(), extra_data=None
     od = _f(pipe.outer_diameter_m)
     diameters = [od - 2 * _f(pipe.wall_m), od]
     for layer in layers:
-        diameters.append(diameters[-1] + 2 * _f(layer.thickness_m))
+        diameters.append(diameters[-1] + 2 * _f(layer.installed_thickness_m))
     names = ["bore", "pipe outside"] + [f"outside layer {j} ({l.material.name})" for j, l in enumerate(layers, 1)]
     temps = [_f(t) for t in result.interface_temps_c]
     wall = Table("Temperatures through the wall", [Column("position"), Column("diameter", "diameter"),

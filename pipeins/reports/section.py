@@ -111,7 +111,7 @@ def section_report(spec, result, units: str = "si", extra_rows=(), extra_data=No
         f"outside layer {j} ({l.material.name})" for j, l in enumerate(layers, 1)]
     thick = [0.0, _f(result.inputs["pipe"].wall_m)]
     for layer in layers:
-        thick.append(thick[-1] + _f(layer.thickness_m))
+        thick.append(thick[-1] + _f(layer.installed_thickness_m))  # as installed (a wrap compressed)
     tables.append(Table("Temperatures through the build-up (governing part)",
                         [Column("position"), Column("depth from the inner face", "thickness"),
                          Column("temperature", "temperature")],

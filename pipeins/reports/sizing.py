@@ -98,10 +98,19 @@ def size_report(selection, check, units: str = "si") -> Report:
                  _criteria_rows(selection, 0, units))
     gov = out.governing[0]
     gov_label = next((c.label for c in out.criteria if c.key == gov), "–")
-    pick = Table("Selection", [Column("material"), Column("series"), Column("selected", "thickness"),
-                               Column("layers"), Column("governing")],
-                 [[selection.material.name, selection.series_name, out.selected_m[0],
-                   layers_text(out.layer_split_m[0], units), gov_label]])
+    wrap = getattr(selection.material, "is_wrap", False)
+    pick = Table("Selection", [Column("material"), Column("series"),
+                               Column("selected, nominal" if wrap else "selected", "thickness")]
+                 + ([Column("installed", "thickness", 2)] if wrap else [])
+                 + [Column("layers"), Column("governing")],
+                 [[selection.material.name, selection.series_name, out.selected_m[0]]
+                  + ([selection.material.installed_thickness_m(out.selected_m[0])] if wrap else [])
+                  + [layers_text(out.layer_split_m[0], units), gov_label]],
+                 note=(f"a wrap is sold by its nominal thickness and installed "
+                       f"{selection.material.compression_percent:g} % thinner (compression, common practice); "
+                       "every criterion is judged at the installed thickness" if wrap else ""))
+    if wrap:
+        crit.note = "thicknesses nominal (as sold); each criterion is met at the installed thickness"
     tables = [crit, pick]
     from ..units import format_quantity
 
@@ -119,6 +128,10 @@ def size_report(selection, check, units: str = "si") -> Report:
     if touch is not None:
         footer.append(f"touch limit {touch.limit_c:g} °C: {touch.source}")
     footer.append(f"least thickness found to 0.01 mm; commercial pick from {selection.series_name}")
+    if wrap:
+        footer.append(f"wrap compression {selection.material.compression_percent:g} % as installed (common "
+                      "practice: duct wrap is rated at 25 % compression); thicknesses are nominal, the installed "
+                      "thickness is nominal × (1 − compression)")
     data = {
         "required_thickness_mm": required_mm(selection, 0),
         "selected_thickness_mm": _mm(out.selected_m[0]),
@@ -133,6 +146,9 @@ def size_report(selection, check, units: str = "si") -> Report:
         "inner_layer": inner,
         "result": check.data,
     }
+    if wrap:  # the nominal thickness is the one selected (and sold); the installed one is solved
+        data["installed_thickness_mm"] = _mm(selection.material.installed_thickness_m(out.selected_m[0]))
+        data["compression_percent"] = selection.material.compression_percent
     warnings = list(dict.fromkeys(list(selection.notes) + list(out.messages[0]) + list(check.warnings)))
     data["warnings"] = warnings
     cautions = _cautions(selection)
