@@ -14,7 +14,8 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
-from .annual import DUTIES, EconomicCurve, EnergyBasis, annual_figures, economic_curve, split_figures
+from .annual import (DUTIES, PER_UNIT, EconomicCurve, EnergyBasis, annual_figures, economic_curve, split_figures,
+                     surface_area_m2)
 from .economics import simple_payback_years
 from .errors import InputError
 
@@ -44,6 +45,8 @@ class CostStudy:
     payback_years: float | None = None
     curve: EconomicCurve | None = None
     warnings: list[str] = field(default_factory=list)
+    #: The surface a table per m² is priced on [m² per m of run, per vessel]; None per metre.
+    area_m2_per_unit: float | None = None
 
     @property
     def saving(self) -> dict | None:
@@ -101,9 +104,13 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
         raise InputError("--face", "cost prices a run (W/m) or a whole vessel (W); a face's heat flow is per m²: "
                                    "check it and multiply by the face's area")
     whole = kind in ("sphere", "vessel")  # priced for the whole vessel: its heat flow is in W
-    if whole and (fittings or basis.cost_table is not None):
-        raise InputError("--cost-table" if basis.cost_table is not None else "--valves",
-                         "a vessel is priced on its heat flow alone: no fittings or installed-cost table per metre")
+    if whole and fittings:
+        raise InputError("--valves", "a vessel is priced on its heat flow alone: no fittings")
+    table = basis.cost_table
+    if table is not None and kind != "pipe" and not table.per_area:
+        raise InputError("--cost-table", f"{table.name} prices per metre of pipe by size; a {kind} is priced per m² "
+                                         "of its surface: give a table with thickness_mm and cost_per_m2 "
+                                         "(or cost_per_ft2)")
     length = 1.0 if (spec.length_m is None or whole) else float(spec.length_m)
     if length < 0:
         raise InputError("--length", "the run length must be zero or more")
@@ -138,19 +145,23 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
     if fit_len and spec.layers:
         study.warnings.append(f"bare fittings count as {fit_len:.1f} m of bare pipe; insulating them "
                               "(removable covers) saves most of their share")
-    table = basis.cost_table
     if table is not None and spec.layers:
-        total_t = sum(float(np.max(l[1])) for l in spec.layers)
-        study.installed_cost = float(table.cost_per_m(size.label, total_t)) * length
+        total_t = sum(float(np.max(l[1])) for l in spec.layers)  # nominal: as sold and priced
+        area = None
+        if table.per_area:  # per m² of the section's surface before insulating
+            area = float(np.ravel(surface_area_m2(pipe, fluid, air, surface))[0])
+        study.area_m2_per_unit = area
+        study.installed_cost = float(np.ravel(table.installed_cost(size.label, total_t, area))[0]) * length
         saving = study.annual_cost(study.saving)
         if saving is not None:
             study.payback_years = float(simple_payback_years(study.installed_cost, saving))
-        study.curve = _curve(spec, basis, size, pipe, fluid, air, surface, length, fit_len, q_bare)
+        study.curve = _curve(spec, basis, size, pipe, fluid, air, surface, area)
     return study
 
 
-def _curve(spec, basis, size, pipe, fluid, air, surface, length, fit_len, q_bare) -> EconomicCurve:
-    """Economic curve of the outer layer's material over the table's thicknesses."""
+def _curve(spec, basis, size, pipe, fluid, air, surface, area_m2_per_unit=None) -> EconomicCurve:
+    """Economic curve of the outer layer's material over the table's thicknesses, per unit of
+    the section (per metre of a run, per vessel)."""
     from .catalog.materials import lookup_material
     from .model import Layer
     from .solve import solve
@@ -162,5 +173,6 @@ def _curve(spec, basis, size, pipe, fluid, air, surface, length, fit_len, q_bare
     outer = Layer(lookup_material(spec.layers[-1][0]),
                   thicknesses if np.ndim(fluid.temp_c) == 0 else thicknesses[:, None])
     r = solve(pipe, fixed + [outer], fluid, air, surface)
-    q = np.asarray(r.heat_flow_w_per_m)  # signed, per metre; fittings do not change with thickness
-    return economic_curve(size.label, thicknesses, annual_figures(q, basis)["cost"], basis)
+    q = np.asarray(r.heat_flow)  # signed, per unit of the basis; fittings do not change with thickness
+    return economic_curve(size.label, thicknesses, annual_figures(q, basis)["cost"], basis, PER_UNIT[r.basis],
+                          area_m2_per_unit)

@@ -33,6 +33,7 @@ __all__ = [
     "annual_cost",
     "annual_co2_kg",
     "CostTable",
+    "ANY_SIZE",
     "simple_payback_years",
     "EconomicResult",
     "economic_thickness",
@@ -270,25 +271,48 @@ def _size_key(label: str) -> str:
     return "".join(str(label).split()).lower()
 
 
+#: Square metres per square foot (exact: 0.3048² m²).
+_M2_PER_FT2 = 0.09290304
+#: The cost columns a table may have: per metre of pipe by size, or per area of surface.
+_COST_COLUMNS = {"cost_per_m": ("per m", 1.0), "cost_per_m2": ("per m²", 1.0), "cost_per_ft2": ("per m²", 1 / _M2_PER_FT2)}
+_THICKNESS_COLUMNS = {"thickness_mm": 1.0, "thickness_in": 25.4}
+#: The key of the rows of an area table that serve every size (no size, or a blank one).
+ANY_SIZE = ""
+
+
 @dataclass(frozen=True, eq=False)
 class CostTable:
-    """Installed insulation cost per metre by pipe size and thickness, read from a user CSV.
+    """Installed insulation cost by thickness, read from a user CSV: per metre of pipe by
+    pipe size, or per square metre (or square foot) of the insulated surface.
 
-    The CSV has columns ``size`` (a label such as ``NPS 3`` or ``DN80``, matched ignoring case
-    and spaces, so ``DN 80`` finds ``DN80``), ``thickness_mm``, ``cost_per_m`` and optionally ``currency`` (one
-    currency for the whole file) and ``source``; lines starting with ``#`` are comments.
-    Costs are looked up, never interpolated: a missing size or thickness is an error.
+    The CSV has a thickness column (``thickness_mm`` or ``thickness_in``) and one cost column:
+
+    * ``cost_per_m`` with a ``size`` column (a label such as ``NPS 3`` or ``DN80``, matched
+      ignoring case and spaces, so ``DN 80`` finds ``DN80``): installed cost per metre of pipe;
+    * ``cost_per_m2`` or ``cost_per_ft2``: installed cost per unit area of the section's own
+      surface before insulating (the sheet of a duct, the shell and heads of a vessel, a face;
+      the trade prices duct wrap and board, and vessel insulation, by the area covered).  A
+      ``size`` column is optional: rows without a size serve every size.
+
+    Optionally ``currency`` (one currency for the whole file) and ``source``; lines starting
+    with ``#`` are comments.  Costs are looked up, never interpolated: a missing size or
+    thickness is an error.
 
     >>> demo = Path(__file__).resolve().parents[1] / "examples" / "costs_demo.csv"
     >>> table = CostTable.from_csv(demo)
-    >>> table.currency, float(table.cost_per_m("nps  4", 0.050))
-    ('EUR', 44.85)
+    >>> table.currency, float(table.cost_per_m("nps  4", 0.050)), table.basis
+    ('EUR', 44.85, 'per m')
+    >>> ducts = CostTable.from_csv(demo.parent / "costs_duct_demo.csv")
+    >>> ducts.basis, float(ducts.cost_per_m2("any duct", 0.050))
+    ('per m²', 31.8)
     """
 
     name: str
     currency: str
     _costs: dict = field(repr=False)  # size key -> {thickness_mm rounded to 1e-3: cost}
     _labels: dict = field(repr=False)  # size key -> label as written
+    #: ``"per m"`` (per metre of pipe, by size) or ``"per m²"`` (per m² of the section's surface).
+    basis: str = "per m"
 
     @classmethod
     def from_csv(cls, path) -> "CostTable":
@@ -299,19 +323,28 @@ class CostTable:
 
         text = read_text_input(path, "--cost-table")
         reader = csv_rows(text)
-        missing = [c for c in ("size", "thickness_mm", "cost_per_m") if c not in (reader.fieldnames or ())]
-        if missing:
-            raise InputError("--cost-table", f"{name} needs the columns size, thickness_mm, cost_per_m; missing {', '.join(missing)}")
+        fields = tuple(reader.fieldnames or ())
+        cost_cols = [c for c in _COST_COLUMNS if c in fields]
+        thick_cols = [c for c in _THICKNESS_COLUMNS if c in fields]
+        if len(cost_cols) != 1 or len(thick_cols) != 1:
+            raise InputError("--cost-table", f"{name} needs a thickness column (thickness_mm or thickness_in) and one "
+                                             "cost column: cost_per_m (per metre of pipe, with size), cost_per_m2 or "
+                                             "cost_per_ft2 (per area of surface); it has "
+                                             f"{', '.join(fields) if fields else 'no columns'}")
+        cost_col, thick_col = cost_cols[0], thick_cols[0]
+        basis, to_si = _COST_COLUMNS[cost_col]
+        if basis == "per m" and "size" not in fields:
+            raise InputError("--cost-table", f"{name} needs the columns size, thickness_mm, cost_per_m; missing size")
         costs: dict[str, dict[float, float]] = {}
         labels: dict[str, str] = {}
         currencies = set()
         for number, row in enumerate(reader, start=1):
             where = f"{name} row {number}"
-            label = " ".join((row["size"] or "").split())
-            if not label:
+            label = " ".join((row.get("size") or "").split())
+            if not label and basis == "per m":
                 raise InputError("--cost-table", f"{where}: size is blank")
             values = []
-            for column in ("thickness_mm", "cost_per_m"):
+            for column in (thick_col, cost_col):
                 text_value = (row[column] or "").strip()
                 try:
                     value = float(text_value)
@@ -320,18 +353,24 @@ class CostTable:
                 if not (np.isfinite(value) and value >= 0):
                     raise InputError("--cost-table", f'{where}: {column} "{text_value}" must be a number ≥ 0')
                 values.append(value)
-            thickness_mm = round(values[0], 3)
-            key = _size_key(label)
+            thickness_mm = round(values[0] * _THICKNESS_COLUMNS[thick_col], 3)
+            key = _size_key(label) if label else ANY_SIZE
             if thickness_mm in costs.get(key, {}):
-                raise InputError("--cost-table", f"{where}: a second row for {label} at {thickness_mm:g} mm")
-            costs.setdefault(key, {})[thickness_mm] = values[1]
-            labels.setdefault(key, label)
+                raise InputError("--cost-table", f"{where}: a second row for {label or 'every size'} at "
+                                                 f"{thickness_mm:g} mm")
+            costs.setdefault(key, {})[thickness_mm] = values[1] * to_si
+            labels.setdefault(key, label or "every size")
             currencies.add((row.get("currency") or "").strip())
         if not costs:
             raise InputError("--cost-table", f"{name} has no rows")
         if len(currencies) > 1:
             raise InputError("--cost-table", f"{name} mixes currencies {', '.join(sorted(currencies))}; use one")
-        return cls(name, currencies.pop(), costs, labels)
+        return cls(name, currencies.pop(), costs, labels, basis)
+
+    @property
+    def per_area(self) -> bool:
+        """Whether the costs are per m² of surface (not per metre of pipe)."""
+        return self.basis == "per m²"
 
     @property
     def sizes(self) -> tuple[str, ...]:
@@ -340,16 +379,21 @@ class CostTable:
 
     def _row(self, size_label: str) -> dict[float, float]:
         key = _size_key(size_label)
-        if key not in self._costs:
-            raise InputError("--cost-table", f"{self.name} has no row for {size_label}; {closest_names(str(size_label), self.sizes)}")
-        return self._costs[key]
+        if key in self._costs:
+            return self._costs[key]
+        if ANY_SIZE in self._costs:
+            return self._costs[ANY_SIZE]
+        raise InputError("--cost-table", f"{self.name} has no row for {size_label}; {closest_names(str(size_label), self.sizes)}")
+
+    def _label(self, size_label: str) -> str:
+        key = _size_key(size_label)
+        return self._labels[key if key in self._costs else ANY_SIZE]
 
     def thicknesses_m(self, size_label: str) -> np.ndarray:
         """Thicknesses [m] listed for *size_label*, ascending."""
         return np.array(sorted(self._row(size_label))) * 1e-3
 
-    def cost_per_m(self, size_label: str, thickness_m):
-        """Installed cost [currency/m] of *thickness_m* [m] (scalar or array) on *size_label*."""
+    def _cost(self, size_label: str, thickness_m):
         row = self._row(size_label)
         mm = np.round(np.asarray(thickness_m, dtype=float) * 1000.0, 3)
         out = np.empty(mm.shape)
@@ -357,10 +401,36 @@ class CostTable:
             if float(value) not in row:
                 listed = ", ".join(f"{t:g}" for t in sorted(row))
                 raise InputError(
-                    "--cost-table", f"{self.name} has no row for {self._labels[_size_key(size_label)]} at "
+                    "--cost-table", f"{self.name} has no row for {self._label(size_label)} at "
                     f"{float(value):g} mm; it lists {listed} mm")
             out[index] = row[float(value)]
         return out
+
+    def cost_per_m(self, size_label: str, thickness_m):
+        """Installed cost [currency/m] of *thickness_m* [m] (scalar or array) on *size_label*
+        (a table per metre of pipe)."""
+        if self.per_area:
+            raise InputError("--cost-table", f"{self.name} prices per m² of surface, not per metre of pipe; "
+                                             "give a table with size, thickness_mm, cost_per_m")
+        return self._cost(size_label, thickness_m)
+
+    def cost_per_m2(self, size_label: str, thickness_m):
+        """Installed cost [currency/m²] of *thickness_m* [m] per m² of surface (a table per area)."""
+        if not self.per_area:
+            raise InputError("--cost-table", f"{self.name} prices per metre of pipe by size; a duct, face or vessel "
+                                             "is priced per m² of its surface: give a table with thickness_mm and "
+                                             "cost_per_m2 (or cost_per_ft2)")
+        return self._cost(size_label, thickness_m)
+
+    def installed_cost(self, size_label: str, thickness_m, area_m2_per_unit=None):
+        """Installed cost of *thickness_m* [m] per unit of the section: per metre of pipe from
+        a table per metre; *area_m2_per_unit* [m² per m of run, per m² of face, per vessel]
+        times the cost per m² from a table per area."""
+        if not self.per_area:
+            return self.cost_per_m(size_label, thickness_m)
+        if area_m2_per_unit is None:
+            raise InputError("--cost-table", f"{self.name} prices per m² of surface: the surface area is needed")
+        return self.cost_per_m2(size_label, thickness_m) * np.asarray(area_m2_per_unit, dtype=float)
 
 
 def simple_payback_years(installed_cost, annual_saving):

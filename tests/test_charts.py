@@ -144,11 +144,13 @@ def test_economic_curve_data_equals_json(run, monkeypatch):
     basis = basis_from_options({"hours": "5000h", "energy_price": "0.09/kWh",
                                 "cost_table": "examples/costs_demo.csv"}, "si", need_price=True)
     d = charts.economic_curve_data(cost_study(spec, basis, {}))
-    for key in ("thickness_m", "installed_per_m", "energy_pv_per_m", "total_per_m"):
-        assert d[key] == pytest.approx(curve[key], rel=1e-12)
+    for key, json_key in (("thickness_m", "thickness_m"), ("installed", "installed_per_m"),
+                          ("energy_pv", "energy_pv_per_m"), ("total", "total_per_m")):
+        assert d[key] == pytest.approx(curve[json_key], rel=1e-12)
+    assert d["per"] == curve["per"] == "m"
     assert d["economic_thickness_m"] == curve["economic_thickness_m"]
-    assert min(d["total_per_m"]) == d["total_per_m"][d["thickness_m"].index(d["economic_thickness_m"])]
-    assert np.allclose(np.add(d["installed_per_m"], d["energy_pv_per_m"]), d["total_per_m"])
+    assert min(d["total"]) == d["total"][d["thickness_m"].index(d["economic_thickness_m"])]
+    assert np.allclose(np.add(d["installed"], d["energy_pv"]), d["total"])
 
 
 PLOTS = [

@@ -199,12 +199,12 @@ def matrix_data(report_data: dict) -> dict:
 
 
 def economic_curve_data(study) -> dict:
-    """The economic curve of a cost study (per metre, in the study's currency)."""
+    """The economic curve of a cost study (per unit of the section, in the study's currency)."""
     curve = study.curve
     cur = study.basis.price.currency if study.basis.price is not None else ""
     return {"currency": cur, "thickness_m": _floats(curve.thickness_m),
-            "installed_per_m": _floats(curve.installed_per_m), "energy_pv_per_m": _floats(curve.energy_pv_per_m),
-            "total_per_m": _floats(curve.total_per_m),
+            "installed": _floats(curve.installed), "energy_pv": _floats(curve.energy_pv),
+            "total": _floats(curve.total), "per": curve.per,
             "economic_thickness_m": float(np.asarray(curve.thickness_m)[curve.best_index]),
             "years": float(study.basis.years)}
 
@@ -406,14 +406,16 @@ def _draw_economic(axes, d, units):
     (ax,) = axes
     t = _disp(d["thickness_m"], "thickness", units)
     cur = d["currency"]
-    ax.plot(t, d["installed_per_m"], color=_GREY, lw=1.3, ls="--", marker="s", ms=3, label="installed cost")
-    ax.plot(t, d["energy_pv_per_m"], color=_ACCENT, lw=1.3, ls=":", marker="^", ms=3,
+    ax.plot(t, d["installed"], color=_GREY, lw=1.3, ls="--", marker="s", ms=3, label="installed cost")
+    ax.plot(t, d["energy_pv"], color=_ACCENT, lw=1.3, ls=":", marker="^", ms=3,
             label=f"energy over {d['years']:g} years (present value)")
-    ax.plot(t, d["total_per_m"], color=_INK, lw=2.0, marker="o", ms=3, label="total")
+    ax.plot(t, d["total"], color=_INK, lw=2.0, marker="o", ms=3, label="total")
     best = float(_disp(d["economic_thickness_m"], "thickness", units))
     ax.axvline(best, color=_INK, lw=1.0, ls="-.", label=f"economic thickness {best:g} {_lab('thickness', units)}")
     ax.set_xlabel(f"thickness [{_lab('thickness', units)}]", fontsize=9)
-    ax.set_ylabel(f"cost per metre [{cur}/m]" if cur else "cost per metre", fontsize=9)
+    per = d.get("per", "m")
+    word = {"m": "metre", "m²": "m²", "vessel": "vessel"}.get(per, per)
+    ax.set_ylabel(f"cost per {word} [{cur}/{per}]" if cur else f"cost per {word}", fontsize=9)
     ax.legend(fontsize=7, frameon=False)
     _style(ax)
 

@@ -27,6 +27,19 @@ def per_energy_text(value_per_j: float, units: str, what: str = "") -> str:
     unit, joules = _ENERGY_UNIT[units]
     return f"{value_per_j * joules:.4g} {what + '/' if what else 'per '}{unit}"
 
+#: JSON key endings of the economic curve's money by the unit priced (per metre of a run, per vessel).
+_PER_KEYS = {"m": "_per_m", "m²": "_per_m2", "vessel": "_per_vessel"}
+#: Display kind of the surface a table per m² is priced on, by the unit priced.
+_AREA_KINDS = {"m": "area_per_length", "m²": "area", "vessel": "area"}
+
+
+def _wrap(study) -> bool:
+    """Whether the outer layer of the study's line is a wrap (its thicknesses nominal)."""
+    from ..catalog.materials import lookup_material
+
+    return bool(study.spec.layers) and lookup_material(study.spec.layers[-1][0]).is_wrap
+
+
 _DUTY_WORDS = {"heating": ("heat loss", "heating"), "cooling": ("heat gain", "cooling")}
 
 
@@ -147,23 +160,32 @@ def cost_report(study, units: str = "si") -> Report:
                             note="the payback is on the heating and cooling savings of this line together"))
     curve = study.curve
     if curve is not None:
-        unit = f"{cur}/m" if cur else "per m"
-        ccols = [Column("thickness", "thickness"), Column("installed", unit=unit, digits=2, grouped=True),
+        per = curve.per  # m of a run, vessel
+        unit = f"{cur}/{per}" if cur else f"per {per}"
+        ccols = [Column("thickness" + (", nominal" if _wrap(study) else ""), "thickness"),
+                 Column("installed", unit=unit, digits=2, grouped=True),
                  Column("energy, present value", unit=unit, digits=2, grouped=True),
                  Column("total", unit=unit, digits=2, grouped=True), Column("least total")]
         crow = [[t, float(i), float(e), float(tot), "← economic thickness" if j == curve.best_index else ""]
-                for j, (t, i, e, tot) in enumerate(zip(curve.thickness_m, curve.installed_per_m,
-                                                       curve.energy_pv_per_m, curve.total_per_m))]
+                for j, (t, i, e, tot) in enumerate(zip(curve.thickness_m, curve.installed,
+                                                       curve.energy_pv, curve.total))]
+        note = "the flat bottom of the curve: thicknesses near the least total cost about the same over the life"
+        if curve.area_m2_per_unit is not None:
+            note += ("; installed cost = the table's cost per m² × the surface before insulating, "
+                     f"{fq(curve.area_m2_per_unit, _AREA_KINDS[per], units)}")
         tables.append(Table(f"Economic thickness over {basis.years:g} years at {100 * basis.discount_rate:g} %"
                             + (f", price rising {100 * basis.escalation:g} %/year" if basis.escalation else ""),
-                            ccols, crow, note="the flat bottom of the curve: thicknesses near the least "
-                                              "total cost about the same over the life"))
+                            ccols, crow, note=note))
+        suffix = _PER_KEYS[per]
         data["economic_curve"] = {
             "thickness_m": [float(t) for t in curve.thickness_m],
-            "installed_per_m": [float(x) for x in curve.installed_per_m],
-            "energy_pv_per_m": [float(x) for x in curve.energy_pv_per_m],
-            "total_per_m": [float(x) for x in curve.total_per_m],
+            f"installed{suffix}": [float(x) for x in curve.installed],
+            f"energy_pv{suffix}": [float(x) for x in curve.energy_pv],
+            f"total{suffix}": [float(x) for x in curve.total],
             "economic_thickness_m": float(curve.thickness_m[curve.best_index]),
+            "per": per,
+            "cost_basis": basis.cost_table.basis,
+            "area_m2_per_unit": curve.area_m2_per_unit,
         }
     warnings = list(study.warnings) + (list(curve.warnings) if curve is not None else [])
     hours = np.asarray(basis.hours_per_year, dtype=float)
