@@ -281,7 +281,8 @@ class VesselSection:
                 f"{fq(self.length_m, 'length', units, digits=2)}")
         if self.floor is not None:
             where = "floor on its foundation" if self.floor.kind == "ground" else "bare floor, open beneath"
-            return text + f", flat roof, {where}"
+            roof = "flat roof" if self.heads in (None, "flat") else f"{self.heads} roof"
+            return text + f", {roof}, {where}"
         return text + f", {self.heads} heads"
 
 

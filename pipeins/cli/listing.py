@@ -136,14 +136,18 @@ def _insulation(family, match, units):
         Column("key"), Column("name"), Column("family"),
         Column(f"conductivity [{k_label}] @ mean temperature"),
         Column("lowest service", "temperature", 0), Column("highest service", "temperature", 0),
-        Column(f"density [{density}]"), Column("source"),
+        Column(f"density [{density}]"), Column("compression as installed [%]", digits=0), Column("source"),
     ], [[r["key"], r["name"], r["family"], _k_text(r["m"].points, units), r["m"].min_temp_c,
-         r["m"].max_temp_c, _density_text(r["m"].density_kg_m3, units), r["m"].source] for r in rows],
-        note='A layer may also be a constant conductivity: --layer "k=0.040:50mm".')
+         r["m"].max_temp_c, _density_text(r["m"].density_kg_m3, units), r["m"].compression_percent,
+         r["m"].source] for r in rows],
+        note='A layer may also be a constant conductivity: --layer "k=0.040:50mm". A wrap (compression above 0, '
+             'common practice: duct wrap 25 %) is given and sized by its nominal thickness and solved at its '
+             'installed one.')
     data = [{"key": r["key"], "name": r["name"], "family": r["family"],
              "conductivity_w_mk": [{"mean_temp_c": t, "conductivity_w_mk": k} for t, k in r["m"].points],
              "min_temp_c": r["m"].min_temp_c, "max_temp_c": r["m"].max_temp_c,
-             "density_kg_m3": r["m"].density_kg_m3, "source": r["m"].source} for r in rows]
+             "density_kg_m3": r["m"].density_kg_m3, "compression_percent": r["m"].compression_percent,
+             "source": r["m"].source} for r in rows]
     return table, data
 
 

@@ -18,7 +18,7 @@ from typing import Any
 
 from ..errors import InputError
 
-__all__ = ["Column", "Table", "Report", "render", "to_ascii", "table_csv", "csv_comments", "FORMATS",
+__all__ = ["Column", "Table", "Report", "render", "to_ascii", "table_csv", "tables_csv", "csv_comments", "FORMATS",
            "BINARY_FORMATS"]
 
 FORMATS = ("text", "json", "csv", "markdown", "html", "xlsx")
@@ -89,7 +89,7 @@ class Report:
     warnings: list[str] = field(default_factory=list)
     cautions: list[str] = field(default_factory=list)
     footer: list[str] = field(default_factory=list)
-    csv_table: int = 0  # which table CSV output carries
+    csv_table: int | str = 0  # which table CSV output carries; "all": every table, in blocks (tables_csv)
     # Drawn by the HTML report and --plot only (pipeins.reports.charts.Chart; data computed lazily).
     charts: list = field(default_factory=list)
     # Title block of the HTML and XLSX reports: keys of pipeins.reports.html.TITLE_BLOCK_KEYS.
@@ -267,7 +267,36 @@ def table_csv(report: Report, table: Table, units: str, ascii: bool = False) -> 
     return out.getvalue()
 
 
+def tables_csv(report: Report, units: str, ascii: bool = False) -> str:
+    """Every table of *report* as CSV blocks: the report's comment lines once (title, basis,
+    warnings, cautions: :func:`csv_comments`), then per table a ``# table: TITLE`` line (and
+    its ``# note: …``), its header with units and its rows, a blank line between blocks.  Each
+    block is what :func:`table_csv` writes for that table (the schedule's one file per table),
+    so a reader splits on the ``# table:`` lines."""
+    out = io.StringIO()
+    head = csv_comments(report) or ["# " + " ".join(str(report.title).split())]
+    for line in head:
+        out.write((to_ascii(line) if ascii else line) + "\n")
+    for table in report.tables:
+        heads, rows = _cells(table, units, csv=True)
+        lines = ["# table: " + " ".join(table.title.split())]
+        if table.note:
+            lines.append("# note: " + " ".join(table.note.split()))
+        if ascii:
+            heads, rows = [to_ascii(h) for h in heads], [[to_ascii(c) for c in row] for row in rows]
+            lines = [to_ascii(x) for x in lines]
+        out.write("\n")
+        for line in lines:
+            out.write(line + "\n")
+        writer = csv.writer(out, lineterminator="\n")
+        writer.writerow(heads)
+        writer.writerows(rows)
+    return out.getvalue()
+
+
 def _csv(report: Report, units: str, ascii: bool = False) -> str:
+    if report.csv_table == "all":
+        return tables_csv(report, units, ascii)
     return table_csv(report, report.tables[report.csv_table], units, ascii)
 
 

@@ -14,7 +14,7 @@ import numpy as np
 from . import Column, Report, Table
 from .cautions import cautions_for
 
-__all__ = ["section_report", "BASIS_KINDS", "describe_section"]
+__all__ = ["section_report", "BASIS_KINDS", "describe_section", "section_basis", "SUN_DIRECTIONS"]
 
 #: Display kind of a heat flow by the section's basis.
 BASIS_KINDS = {"W/m": "heat_flow_per_length", "W/m²": "heat_flux", "W": "power"}
@@ -39,18 +39,111 @@ def describe_section(spec, result, units: str) -> list[list[str]]:
     contents = "air" if "duct" in result.kind else "contents" if result.basis == "W" else ""
     if contents and not spec.fluid:
         rows[1][1] = rows[1][1].replace("fluid at", f"{contents} at", 1)
-    for patch in result.patches or ():
-        if not patch.exposed and patch.note:
-            rows.append([patch.name, patch.note])
-    floor = getattr(section, "floor", None)
-    if floor is not None and floor.kind != "ground":
-        rows.append(["floor", floor.assumption(section.diameter_m)])
-    if getattr(result.inputs["surroundings"], "solar_irradiance_w_m2", None) is not None:
-        rows.append(["sun direction", {"rectangular duct": "overhead on a horizontal run (the top takes it), normal "
-                                       "to one wide side of a vertical run",
-                                       "face": "normal to a face looking up or sideways; none on one looking down",
-                                       }.get(result.kind, "on the projected area; none on floors and undersides")])
     return rows
+
+
+#: Where the sun is taken to shine from, by section kind (stated, not computed).
+SUN_DIRECTIONS = {"rectangular duct": "overhead on a horizontal run (the top takes it), normal to one wide side of "
+                                      "a vertical run",
+                  "face": "normal to a face looking up or sideways; none on one looking down"}
+_SUN_ELSEWHERE = "on the projected area; none on floors and undersides"
+
+
+def section_basis(spec, result) -> list[dict]:
+    """The assumptions of a solved section as basis lines: ``name``, ``value`` (SI: a number
+    or a text), ``kind`` (the display kind of a number, None for text or a plain number),
+    ``unit`` (the SI unit of a number) and ``source``.
+
+    The outer film length of every exposed part (and the wind's flow length), the corners of a
+    rectangular duct (ISO 12241 mean perimeter), the tank floor's boundary, and with sun its
+    direction, irradiance and absorptance.
+    """
+    from ..physics.correlations import lookup
+    from ..units import unit_label
+
+    section, layers = result.inputs["pipe"], result.inputs["layers"]
+    surroundings = result.inputs["surroundings"]
+    patches = result.inputs.get("patches") or section.patches(surroundings)
+    solved = result.patches or [None] * len(patches)
+    thick = [np.asarray(l.installed_thickness_m, dtype=float) for l in layers]
+    total = float(sum(np.max(t) for t in thick)) if thick else 0.0
+    air = _f(surroundings.air_temp_c)
+    wind = float(np.max(surroundings.wind_speed_m_s))
+    out = []
+
+    def line(name, value, kind, source, unit=None):
+        out.append({"name": name, "value": value, "kind": kind,
+                    "unit": unit if unit is not None else (unit_label(kind, "si") if kind else None), "source": source})
+
+    for patch, part in zip(patches, solved):
+        if patch.boundary is not None:
+            continue
+        columns = {k: np.asarray(v, dtype=float) for k, v in patch.shape.columns().items()}
+        columns["wall"] = np.asarray(section.wall_m, dtype=float)
+        net = patch.shape.network(columns, [t if patch.insulated else np.zeros_like(t) for t in thick])
+        natural = net.film_length_m if net.film_height_m is None else net.film_height_m
+        ts = _f(result.surface_temp_c if part is None else part.result.surface_temp_c)
+        geometry, orientation = patch.shape.correlation_key
+        record = lookup(geometry, orientation, "natural", "hot" if ts >= air else "cold")
+        where = "" if len(patches) == 1 else f", {patch.name}"
+        line(f"outer film length{where}", _f(natural), "length",
+             f"the {record.length} of the natural-convection film: {record.source}")
+        if wind > 0:
+            forced = lookup(geometry, orientation, "forced")
+            line(f"wind flow length{where}", _f(net.film_length_m), "length",
+                 f"the {forced.length} of the forced film: {forced.source}")
+    if getattr(section, "kind", "") == "rectangular duct" and layers:
+        mean = float(np.max(section.perimeter_m)) + 4 * total
+        line("corners: mean perimeter of the insulation", mean, "length",
+             "the layers widen at the corners (outer width w + 2T), each conducting over the mean of its inner and "
+             "outer widths: ISO 12241 (2008) §4.2.3 rectangular duct, R = 2d/(λ(P_i + P_e)) per metre (from memory)")
+    floor = getattr(section, "floor", None)
+    if floor is not None:
+        line("tank floor", "open to the air, bare" if floor.kind == "air" else "on the ground, bare", None,
+             "assumption (--floor): a bare plate facing down, open to the air beneath (on legs or a ring)"
+             if floor.kind == "air" else
+             "assumption (--floor): the floor plate uninsulated on its foundation, to the ground through the "
+             "resistance below; steady state")
+        if floor.kind == "ground":
+            line("ground temperature beneath the tank", float(floor.ground_temp_c), "temperature", "input (--floor)")
+            resistance = float(np.max(floor.resistance_for(section.diameter_m)))
+            line("floor-to-ground resistance", resistance, None,
+                 "stated (input)" if floor.resistance_m2k_w is not None else
+                 f"spreading resistance πD/(8k) of a disc on a half-space of {floor.soil}, pad neglected "
+                 "(common practice for an estimate; the disc's constriction resistance, from memory)",
+                 unit="m²·K/W")
+    sun = getattr(surroundings, "solar_irradiance_w_m2", None)
+    if sun is not None:
+        direction = SUN_DIRECTIONS.get(result.kind, _SUN_ELSEWHERE)
+        if result.kind == "rectangular duct":
+            direction = ("normal to one wide side (a vertical run)" if surroundings.orientation == "vertical"
+                         else "overhead on a horizontal run (the top takes it, sides and bottom none)")
+        line("sun direction", direction, None,
+             "assumption: the worst steady case for heat gain (sun absorbed on the projected area)")
+        line("solar irradiance", _f(sun), "heat_flux", "input (--solar), on a surface normal to the sun")
+        absorptance = getattr(result.inputs["surface"], "solar_absorptance", None)
+        if absorptance is not None:
+            line("solar absorptance", _f(absorptance), None,
+                 "input (--absorptance)" if spec.absorptance is not None else "the finish's (tables/finishes.csv)",
+                 unit="")
+    return out
+
+
+def _basis_row(entry, units: str) -> list:
+    """A basis line as table cells: item, value (a number in *units*, or text), unit, source."""
+    from ..units import format_quantity as fq
+    from ..units import unit_label
+
+    value, kind = entry["value"], entry["kind"]
+    if isinstance(value, str):
+        return [entry["name"], value, "", entry["source"]]
+    if kind is None:
+        if entry["unit"] == "m²·K/W" and units == "us":
+            return [entry["name"], f"{value * 5.678263337:.3g}", "h·ft²·°F/Btu", entry["source"]]
+        return [entry["name"], f"{value:.3g}", entry["unit"] or "", entry["source"]]
+    label = unit_label(kind, units)
+    text = fq(value, kind, units, 3 if kind == "length" else None)
+    return [entry["name"], text[: -len(label)].strip() if text.endswith(label) else text, label, entry["source"]]
 
 
 def section_text(section, units: str) -> str:
@@ -118,6 +211,11 @@ def section_report(spec, result, units: str = "si", extra_rows=(), extra_data=No
                         [[n, d, _f(t)] for n, d, t in zip(names, thick, result.interface_temps_c)]))
     if extra_rows:
         tables.append(Table("Along the run and over time", [Column("item"), Column("value")], list(extra_rows)))
+    basis_lines = section_basis(spec, result)
+    if basis_lines:
+        tables.append(Table("Basis: assumptions", [Column("item"), Column("value"), Column("unit"), Column("source")],
+                            [_basis_row(b, units) for b in basis_lines],
+                            note="the assumptions behind the numbers above"))
     warnings = list(result.warnings) + list(extra_warnings)
     surface = _f(result.surface_temp_c)
     if result.touch_limit_c is not None and surface > result.touch_limit_c:
@@ -135,7 +233,8 @@ def section_report(spec, result, units: str = "si", extra_rows=(), extra_data=No
     data["line"] = {"kind": result.kind, "section": section_text(result.inputs["pipe"], "si"),
                     **{k: v for k, v in data["line"].items() if k not in ("pipe", "outer_diameter_m")}}
     report = Report(f"Heat flow check: {result.inputs['pipe'].label}", tables, data, warnings,
-                    cautions_for(spec, result), csv_table=1)
+                    cautions_for(spec, result), csv_table="all")
     report.data["warnings"] = warnings
     report.data["cautions"] = report.cautions
+    report.data["basis"] = [{k: b[k] for k in ("name", "value", "unit", "source")} for b in basis_lines]
     return report
