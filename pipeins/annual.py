@@ -210,7 +210,7 @@ def economic_outcome(problem, sizes, basis: EnergyBasis):
     messages = [""] * len(sizes)
     description = (f"least installed cost + energy over {basis.years:g} years at {100 * basis.discount_rate:g} %"
                    + (f", energy price rising {100 * basis.escalation:g} %/year" if basis.escalation else "")
-                   + f", per {per}")
+                   + {"m": "", "m²": ", per unit area of face", "vessel": ", for the whole vessel"}[per])
     outcome = CriterionOutcome("economic", "economic thickness", description, required,
                                np.ones(len(sizes), dtype=bool), messages)
     return outcome, curves

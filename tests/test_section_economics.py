@@ -149,7 +149,7 @@ def test_vessel_economic_thickness_is_the_brute_force_minimum(tmp_path):
     assert found_mm == pytest.approx(same, abs=1e-9)
     fine, _ = _brute_force(VESSEL, "mineral wool", area, np.arange(20, 300.01, 2.0))
     assert abs(found_mm - fine) <= step and 20 < fine < 300
-    assert "per vessel" in econ.description
+    assert "for the whole vessel" in econ.description
 
 
 def test_a_pipe_table_per_metre_refuses_a_duct(run, monkeypatch):

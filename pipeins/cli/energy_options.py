@@ -21,7 +21,8 @@ ENERGY_OPTIONS = [
     click.option("--maintenance", help="Annual maintenance as a share of installed cost (default 0%)."),
     click.option("--cost-table", type=Path(dir_okay=False),
                  help="CSV of installed insulation cost per metre by size and thickness (size, thickness_mm, "
-                      "cost_per_m, currency)."),
+                      "cost_per_m, currency), or per m² of a duct's or vessel's surface (thickness_mm, "
+                      "cost_per_m2)."),
 ]
 
 CODE_OPTIONS = [

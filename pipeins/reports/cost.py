@@ -161,17 +161,20 @@ def cost_report(study, units: str = "si") -> Report:
     curve = study.curve
     if curve is not None:
         per = curve.per  # m of a run, vessel
-        unit = f"{cur}/{per}" if cur else f"per {per}"
+        # money per metre of run shown per foot in US units (JSON stays per metre)
+        shown, scale = ("ft", 0.3048) if (per == "m" and units == "us") else (per, 1.0)
+        unit = f"{cur}/{shown}" if cur else f"per {shown}"
         ccols = [Column("thickness" + (", nominal" if _wrap(study) else ""), "thickness"),
                  Column("installed", unit=unit, digits=2, grouped=True),
                  Column("energy, present value", unit=unit, digits=2, grouped=True),
                  Column("total", unit=unit, digits=2, grouped=True), Column("least total")]
-        crow = [[t, float(i), float(e), float(tot), "← economic thickness" if j == curve.best_index else ""]
+        crow = [[t, scale * float(i), scale * float(e), scale * float(tot),
+                 "← economic thickness" if j == curve.best_index else ""]
                 for j, (t, i, e, tot) in enumerate(zip(curve.thickness_m, curve.installed,
                                                        curve.energy_pv, curve.total))]
         note = "the flat bottom of the curve: thicknesses near the least total cost about the same over the life"
         if curve.area_m2_per_unit is not None:
-            note += ("; installed cost = the table's cost per m² × the surface before insulating, "
+            note += ("; installed cost = the table's cost per unit area × the surface before insulating, "
                      f"{fq(curve.area_m2_per_unit, _AREA_KINDS[per], units)}")
         tables.append(Table(f"Economic thickness over {basis.years:g} years at {100 * basis.discount_rate:g} %"
                             + (f", price rising {100 * basis.escalation:g} %/year" if basis.escalation else ""),

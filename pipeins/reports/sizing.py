@@ -167,7 +167,10 @@ def conditions_footer(selection, units: str) -> list[str]:
              + (f", RH {float(np.max(air.relative_humidity_percent)):.0f} %" if air.relative_humidity_percent is not None else "")
              + (f", wind {fq(float(np.max(air.wind_speed_m_s)), 'speed', units)}" if float(np.max(air.wind_speed_m_s)) else ", still air")
              + f", radiant {fq(float(np.max(air.radiant_temp_c)), 'temperature', units)}",
-             f"material {selection.material.name} ({selection.material.source}); series {selection.series_name}",
+             f"material {selection.material.name} ({selection.material.source}); series {selection.series_name}"
+             + (f"; a wrap: thicknesses nominal, solved at {100 - selection.material.compression_percent:g} % of them "
+                f"as installed ({selection.material.compression_percent:g} % compression, common practice)"
+                if getattr(selection.material, "is_wrap", False) else ""),
              f"outer surface {p.surface.name}, emittance {float(np.max(p.surface.emittance)):.2f}"]
     if p.fixed_layers:
         lines.append("fixed inner layers: " + "; ".join(
