@@ -26,6 +26,7 @@ ends rewrite those words too (:func:`in_words`).
 
 from __future__ import annotations
 
+import functools
 import math
 import re
 from dataclasses import dataclass
@@ -288,16 +289,20 @@ def file_word(name: str) -> str:
     return _FLAG_KEYS.get(name, name)
 
 
-_WORD_RE = re.compile(r"(?<![\w-])(" + "|".join(
-    sorted([re.escape(p.name) for p in PARAMS if "_" in p.name] + [re.escape(f) for f in _BY_FLAG] +
-           [re.escape(f) for f in _FLAG_KEYS], key=len, reverse=True)) + r")(?![\w-])")
+@functools.cache
+def _word_re() -> re.Pattern:
+    """Every parameter name with an underscore, every flag: compiled on the first message
+    (a few milliseconds that a run without one does not pay)."""
+    return re.compile(r"(?<![\w-])(" + "|".join(
+        sorted([re.escape(p.name) for p in PARAMS if "_" in p.name] + [re.escape(f) for f in _BY_FLAG] +
+               [re.escape(f) for f in _FLAG_KEYS], key=len, reverse=True)) + r")(?![\w-])")
 
 
 def in_words(message: str, word) -> str:
     """*message* with every parameter name that contains an underscore, and every flag,
     rewritten by *word* (:func:`cli_word` or :func:`file_word`)."""
     message = re.sub(r"\{(\w+)\}", lambda m: word(m.group(1)), message)
-    return _WORD_RE.sub(lambda m: word(m.group(1)), message)
+    return _word_re().sub(lambda m: word(m.group(1)), message)
 
 
 def cli_line(name: str, message: str) -> str:

@@ -5,7 +5,7 @@ from __future__ import annotations
 import click
 
 from .field_options import add_field_sections, field_line, field_options, pop_field_options
-from .options import emit, line_options, output_options, plot_option, spec_from_options
+from .options import emit, line_options, output_options, plot_option, spec_from_options, wants_charts
 
 
 @click.command()
@@ -29,7 +29,6 @@ def check(fmt, units, output, **opts):
       pipeins check --pipe DN50 --fluid-temp 6C --ambient-temp 28C --rh 75 \\
           --layer "flexible elastomeric foam:19mm" --format json
     """
-    from ..reports.charts import check_charts
     from ..reports.check import check_report
     from ..runs import run_extras
 
@@ -51,6 +50,9 @@ def check(fmt, units, output, **opts):
     rows, data, warnings = run_extras(spec, result, units)
     night_extras(spec, result, units, rows, data, warnings)
     report = check_report(spec, result, units, rows, data, warnings)
-    report.charts = check_charts(spec, result)
+    if wants_charts(fmt):  # the chart data is built only for the HTML page and --plot
+        from ..reports.charts import check_charts
+
+        report.charts = check_charts(spec, result)
     add_field_sections(report, spec, field, units)
     emit(report, fmt, units, output)

@@ -11,7 +11,6 @@ its sections to the check report.  Every problem is an
 from __future__ import annotations
 
 import click
-import numpy as np
 
 __all__ = ["field_options", "fitting_options", "pop_field_options", "field_line", "add_field_sections",
            "parse_fittings", "FIELD_FLAGS", "FITTING_FLAGS"]
@@ -84,6 +83,8 @@ def fitting_options(func):
 def parse_fittings(field: dict, units: str):
     """``(fittings, cover)`` of the fitting options' text in *field*: catalogue fittings in the
     order given (``--valve`` first), and the cover ``(material, thickness_m)`` or None."""
+    if not (field.get("valve") or field.get("flange")) and field.get("cover") is None:
+        return [], None
     from ..catalog.fittings import lookup_fitting
     from ..errors import InputError
 
@@ -210,6 +211,8 @@ def field_line(spec, field: dict, units: str):
 def _twin(report, spec, field, data, units, q) -> None:
     """A second pipe in the trench (``--twin-spacing`` with ``--return-temp``): both heat flows."""
     from dataclasses import replace
+
+    import numpy as np
 
     from ..errors import InputError
 

@@ -8,7 +8,8 @@ from __future__ import annotations
 
 import click
 
-__all__ = ["line_options", "output_options", "ascii_option", "plot_option", "spec_from_options", "emit", "parse_layer"]
+__all__ = ["line_options", "output_options", "ascii_option", "plot_option", "spec_from_options", "emit", "parse_layer",
+           "wants_charts"]
 
 
 class Path(click.Path):
@@ -142,6 +143,15 @@ def plot_option(func):
                         help="Also draw the charts into this file: SVG or PNG by its ending.")(func)
 
 
+def wants_charts(fmt: str) -> bool:
+    """Whether the command's charts are drawn: by the HTML page (*fmt*) or into ``--plot FILE``
+    (read from the click context).  Text, JSON, CSV, Markdown and XLSX show no chart, so a
+    command building them only when this is true writes the same output without loading
+    :mod:`pipeins.reports.charts`."""
+    ctx = click.get_current_context(silent=True)
+    return fmt == "html" or bool(ctx is not None and ctx.params.get("plot"))
+
+
 def _q(opts, name, kind, units):
     from ..units import parse_quantity
 
@@ -178,8 +188,7 @@ def emit(report, fmt: str, units: str, output: str | None) -> None:
     import sys
 
     from ..errors import InputError
-    from ..fileio import write_text_output
-    from ..reports import BINARY_FORMATS, render
+    from ..reports import BINARY_FORMATS
 
     if fmt in BINARY_FORMATS and (output is None or (output == "-" and sys.stdout.isatty())):
         raise InputError("--format", f"{fmt} is a binary workbook, not written to a terminal; "
@@ -188,10 +197,13 @@ def emit(report, fmt: str, units: str, output: str | None) -> None:
     ctx = click.get_current_context(silent=True)
     plot = ctx.params.get("plot") if ctx is not None else None
     if plot:
+        from ..fileio import write_text_output
         from ..reports.charts import plot_bytes
 
         write_text_output(plot, plot_bytes(report.charts, plot, units), "--plot")
     if (output is None or output == "-") and not isinstance(text, bytes):
         click.echo(text, nl=False)
         return
+    from ..fileio import write_text_output
+
     write_text_output(output, text, "--output")

@@ -29,7 +29,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-__all__ = ["Conductivity", "conductivity_of", "cylinder_shape_m", "critical_radius_m"]
+__all__ = ["Conductivity", "conductivity_of", "cylinder_shape_m", "critical_radius_m", "polyfit"]
 
 
 @dataclass(frozen=True)
@@ -64,7 +64,7 @@ class Conductivity:
             return cls.constant(pts[0, 1])
         lo, hi = float(t_lo_c), float(t_hi_c)
         for degree in range(min(2, len(pts) - 1), 0, -1):
-            c = np.polynomial.polynomial.polyfit(pts[:, 0], pts[:, 1], degree)
+            c = polyfit(pts[:, 0], pts[:, 1], degree)
             c = tuple(float(x) for x in np.pad(c, (0, 3 - len(c))))
             fit = cls(c, lo, hi)
             if np.all(fit.conductivity(np.linspace(lo, hi, 200)) > 0):
@@ -155,6 +155,33 @@ class Conductivity:
         guess = nodes[cell] + steps[cell] * (g - cell)
         th, k = self.potential_and_conductivity(guess)
         return guess - (th - theta) / k, k
+
+
+def polyfit(x, y, degree: int) -> np.ndarray:
+    """Least-squares polynomial coefficients, lowest power first: the arithmetic of
+    ``numpy.polynomial.polynomial.polyfit(x, y, degree)`` step by step (Vandermonde matrix,
+    columns scaled to unit norm, ``numpy.linalg.lstsq`` with ``rcond = len(x)·eps``), so the
+    same coefficients to the last bit, without importing :mod:`numpy.polynomial` (its eight
+    modules cost a few milliseconds of every command's start-up)."""
+    x = np.asarray(x) + 0.0
+    y = np.asarray(y) + 0.0
+    v = np.empty((degree + 1,) + x.shape, dtype=x.dtype)
+    v[0] = x * 0 + 1
+    if degree > 0:
+        v[1] = x
+        for i in range(2, degree + 1):
+            v[i] = v[i - 1] * x
+    lhs = np.moveaxis(v, 0, -1).T
+    rhs = y.T
+    scl = np.sqrt(np.square(lhs).sum(1))
+    scl[scl == 0] = 1
+    c, _, rank, _ = np.linalg.lstsq(lhs.T / scl, rhs.T, len(x) * np.finfo(x.dtype).eps)
+    c = (c.T / scl).T
+    if rank != degree + 1:
+        import warnings
+
+        warnings.warn("The fit may be poorly conditioned", np.exceptions.RankWarning, stacklevel=2)
+    return c
 
 
 @functools.cache
