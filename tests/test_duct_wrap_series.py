@@ -72,6 +72,11 @@ def test_wrap_flag_and_installed_thickness():
     wrap = lookup_material("fiberglass duct wrap")  # trade word finds the catalogue's wrap
     board = lookup_material("glass wool duct board")
     assert wrap.is_wrap and wrap.compression_percent == 25.0  # common practice, from memory
+    from pipeins.catalog.ducts import WRAP_COMPRESSION_PERCENT, installed_wrap
+
+    assert wrap.compression_percent == WRAP_COMPRESSION_PERCENT  # one allowance, catalogue and library
+    assert float(Layer(wrap, 0.05).installed_thickness_m) == pytest.approx(
+        float(installed_wrap(0.05).installed_thickness_m), rel=1e-12)
     assert not board.is_wrap and not lookup_material("mineral wool").is_wrap
     # 2 in nominal -> 1.5 in installed (the trade's rating of a 2 in wrap, common practice)
     assert float(Layer(wrap, 2 * INCH).installed_thickness_m) == pytest.approx(1.5 * INCH, rel=1e-12)
