@@ -18,6 +18,8 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
+from .criteria.code import DN_TO_NPS, code_outcome, nominal_keys  # noqa: F401  (where they were)
+from .criteria.registry import Selecting
 from .errors import InputError
 from .sizing import SizingOutcome, SizingProblem, size
 
@@ -112,30 +114,37 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
     limit = next((c.limit_c for c in criteria if c.key == "surface_temp"), spec.touch_limit_c)
     problem = SizingProblem(pipe, fixed, material, fluid, surroundings, surface, limit, n)
     size_list = sizes or [spec.pipe_size()]
-    extra, curves = [], None
-    if code is not None and spec.section_kind == "duct":
-        from .sections import duct_code_outcome
-
-        extra.append(duct_code_outcome(spec, req, code, material, n, fluid.temp_c, surroundings.air_temp_c))
-    elif code is not None:
-        extra.append(code_outcome(size_list, material, code, float(np.max(fluid.temp_c)), code_paths))
-    if economic is not None:
-        from .annual import economic_outcome
-
-        econ, curves = economic_outcome(problem, size_list, economic)
-        extra.append(econ)
+    ctx = Selecting(spec, req, problem, material, size_list, code, tuple(code_paths), economic, {})
+    extra = _required_outcomes(ctx)
     if not criteria and not extra:
         from .criteria import no_criterion_message
 
         raise InputError("touch_limit_c", no_criterion_message(notes, spec.rh_percent is not None))
     outcome = size(problem, criteria, series_m, extra_required=extra)
     notes = notes + [n for n in outcome.not_applicable if n not in notes]
-    problem, outcome, inner, curves = _within_service_limits(problem, outcome, criteria, series_m, extra, units,
-                                                             size_list, economic, curves, inner_material, notes,
-                                                             add_inner_layer)
+    problem, outcome, inner = _within_service_limits(problem, outcome, criteria, series_m, extra, units, ctx,
+                                                     inner_material, notes, add_inner_layer)
     selection = Selection(spec, size_list, material, name, problem, outcome.active, outcome, notes, inner)
-    selection.economic_curves = curves
+    selection.economic_curves = ctx.extras.get("economic_curves")
     return selection
+
+
+def _required_outcomes(ctx, only_per_build_up: bool = False) -> list:
+    """The outcomes of the registered criteria whose thickness comes from elsewhere (code
+    minimum, economic thickness) that the selection *ctx* asks for, in registry order; with
+    *only_per_build_up*, only those that depend on the build-up under the sized layer."""
+    from .criteria.registry import records, resolve
+
+    out = []
+    for record in records():
+        if record.required is None or (only_per_build_up and not record.per_build_up):
+            continue
+        if record.asked(ctx.given(), ctx.req):
+            record.check_kind(ctx.kind)
+        outcome = resolve(record.required)(ctx)
+        if outcome is not None:
+            out.append(outcome)
+    return out
 
 
 #: Inner layers tried, in order, when the sized material cannot serve at the fluid temperature
@@ -169,13 +178,14 @@ def _service_failures(problem, outcome):
     return first, hot_side
 
 
-def _within_service_limits(problem, outcome, criteria, series_m, extra, units, size_list, economic, curves,
-                           inner_material, notes, add_inner_layer=True):
+def _within_service_limits(problem, outcome, criteria, series_m, extra, units, ctx, inner_material, notes,
+                           add_inner_layer=True):
     """Meet the service limits of every layer (always on): where the sized material runs beyond
     its range at the selected build-up, add an inner layer of a material that can serve, the
     least thickness of its series that brings the sized layer's face inside its range (sized
-    again over it), per size.  Returns (problem, outcome, inner layer or None, curves); the
-    outcome gains the ``service_limit`` criterion."""
+    again over it), per size.  Returns (problem, outcome, inner layer or None); the
+    outcome gains the ``service_limit`` criterion.  Outcomes that depend on the build-up
+    (``per_build_up`` in the registry) are computed again over the inner layer."""
     from .catalog.materials import lookup_material
     from .model import Layer
     from .sizing import CriterionOutcome, ServiceLimits, size
@@ -202,12 +212,10 @@ def _within_service_limits(problem, outcome, criteria, series_m, extra, units, s
                 inner_m = np.where(need, t, inner_m)
                 thick = np.where(inner_m > 0, inner_m, 1e-9)[:, None]
                 trial = replace(problem, fixed_layers=base + [Layer(inner, thick)], context={})
-                trial_extra = list(extra)
-                if economic is not None:
-                    from .annual import economic_outcome
-
-                    econ, curves = economic_outcome(trial, size_list, economic)
-                    trial_extra = [e for e in extra if e.key != "economic"] + [econ]
+                # the outcomes that depend on the build-up, again over the inner layer
+                again = _required_outcomes(replace(ctx, problem=trial), only_per_build_up=True)
+                keys = {e.key for e in again}
+                trial_extra = [e for e in extra if e.key not in keys] + again
                 problem, outcome = trial, size(trial, criteria, series_m, extra_required=trial_extra)
                 first, _ = _service_failures(problem, outcome)
                 need = first == sized_index + 1
@@ -250,51 +258,4 @@ def _within_service_limits(problem, outcome, criteria, series_m, extra, units, s
         notes.append(f"{material.name} serves {fq(material.min_temp_c, 'temperature', units)} to "
                      f"{fq(material.max_temp_c, 'temperature', units)}: an inner layer of {inner.name} ("
                      f"{', '.join(fq(t, 'thickness', units) for t in dict.fromkeys(used))}) keeps it inside its range")
-    return problem, outcome, (inner, inner_m) if inner is not None and np.any(inner_m > 0) else None, curves
-
-
-def nominal_keys(size) -> dict:
-    """The size keys a code rule set may ask for: nominal inches, DN, inner diameter."""
-    from fractions import Fraction
-
-    out = {"inner_diameter_m": size.inner_diameter_m}
-    if size.kind in ("steel", "copper"):
-        whole, _, frac = size.nominal.partition("-")
-        value = Fraction(whole) + (Fraction(frac) if frac else 0)
-        out["nominal_size_in"] = float(value)
-        dn = {v: k for k, v in DN_TO_NPS.items()}.get(float(value))
-        if dn:
-            out["dn"] = dn
-    elif size.kind == "metric":
-        out["dn"] = float(size.nominal)
-        if float(size.nominal) in DN_TO_NPS:
-            out["nominal_size_in"] = DN_TO_NPS[float(size.nominal)]
-    return out
-
-
-# Usual DN ↔ NPS correspondence (ISO 6708 nominal sizes against ASME B36.10M; common practice).
-DN_TO_NPS = {10.0: 0.375, 15.0: 0.5, 20.0: 0.75, 25.0: 1.0, 32.0: 1.25, 40.0: 1.5, 50.0: 2.0, 65.0: 2.5,
-             80.0: 3.0, 90.0: 3.5, 100.0: 4.0, 125.0: 5.0, 150.0: 6.0, 200.0: 8.0, 250.0: 10.0, 300.0: 12.0,
-             350.0: 14.0, 400.0: 16.0, 450.0: 18.0, 500.0: 20.0, 550.0: 22.0, 600.0: 24.0}
-
-
-def code_outcome(sizes, material, rule_set: str, service_temp_c: float, extra_paths=()):
-    """The code minimum per size as a :class:`~pipeins.sizing.CriterionOutcome` (key ``code``);
-    sizes or services the rule does not cover get no requirement and say so."""
-    from .codes import load_rule_sets, required_thickness
-    from .physics.conduction import conductivity_of
-    from .sizing import CriterionOutcome
-
-    k = conductivity_of(material)
-    required, messages, sources = [], [], []
-    for s in sizes:
-        req = required_thickness(rule_set, service_temp_c, s.outer_diameter_m,
-                                 lambda t: float(k.conductivity(t)), extra_paths=extra_paths, **nominal_keys(s))
-        required.append(req.thickness_m if req.covered else np.nan)
-        messages.append("" if req.covered else f"code minimum: not covered ({req.reason})")
-        sources.append(req.rule_row_source)
-    name = load_rule_sets(extra_paths)[rule_set].name if rule_set in load_rule_sets(extra_paths) else rule_set
-    outcome = CriterionOutcome("code", "code minimum", f"minimum thickness of {name}",
-                               np.array(required, dtype=float), np.ones(len(sizes), dtype=bool), messages)
-    outcome.source = next((s for s in sources if s), "")
-    return outcome
+    return problem, outcome, (inner, inner_m) if inner is not None and np.any(inner_m > 0) else None
