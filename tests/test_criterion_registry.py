@@ -142,6 +142,7 @@ PROJECT_KEYS = {
     "touch": ("", "80 C", "20 C"),
     "condensation": ("", "6 C", "25 C"),
     "heat_flow": ('max_heat_flow = "20 W/m"', "80 C", "20 C"),
+    "heat_flux": ('max_heat_flux = "30 W/m2"', "80 C", "20 C"),
     "temp_change": ('max_temp_change = "2 K"\nflow = "1 kg/s"', "80 C", "20 C"),
     "freeze": ('hold_time = "8 h"', "10 C", "-10 C"),
     "economic": (f'cost_table = "{(EXAMPLES / "costs_demo.csv").as_posix()}"\nprice = "0.09/kWh"', "80 C", "20 C"),

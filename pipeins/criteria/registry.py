@@ -140,7 +140,7 @@ RECORDS: list[CriterionRecord] = [
                     asks=("max_heat_flow_w_per_m", "min_reduction"), project_name="heat_flow",
                     decide="pipeins.criteria.heat_flow:decide"),
     CriterionRecord("heat_flux", "heat-flux cap", ("max_heat_flux_w_m2",), asks=("max_heat_flux_w_m2",),
-                    decide="pipeins.criteria.heat_flux:decide"),
+                    project_name="heat_flux", decide="pipeins.criteria.heat_flux:decide"),
     CriterionRecord("temp_change", "temperature change along the run", ("max_temp_change_k",),
                     asks=("max_temp_change_k",), project_name="temp_change", kinds=("pipe", "duct"),
                     decide="pipeins.criteria.temp_change:decide"),
