@@ -111,7 +111,7 @@ class CriterionRecord:
                     return getattr(source, name)
             return None
 
-        return any(value(n) not in (None, False) for n in self.asks)
+        return any(value(n) is not None and value(n) is not False for n in self.asks)
 
     def check_kind(self, kind: str, name: str | None = None):
         """Refuse it on a section kind it does not apply to (one line, naming *name* or its
