@@ -33,7 +33,6 @@ __all__ = ["criteria_under", "ConditionsSelection", "select_over_conditions", "F
 #: Air temperature [°C] below which a condition takes the freeze criterion by default (0 °C,
 #: the freezing point of water at atmospheric pressure).
 FREEZE_AIR_C = 0.0
-_EVERYWHERE = ("code", "touch", "heat_flow", "heat_flux", "temp_change", "economic", "tracer")
 
 
 @dataclass(frozen=True)
@@ -57,13 +56,12 @@ def criteria_under(condition, criteria) -> tuple[str, ...]:
     own = getattr(condition, "criteria_here", None)
     if own is not None:
         return tuple(c for c in criteria if c in own)
+    from .criteria.registry import by_name, resolve
+
     out = []
-    for c in criteria:
-        if c in _EVERYWHERE:
-            out.append(c)
-        elif c == "condensation" and condition.rh_percent is not None:
-            out.append(c)
-        elif c == "freeze" and condition.air_temp_c < FREEZE_AIR_C:
+    for c in criteria:  # each registered criterion says where it belongs (its ``under``)
+        under = resolve(by_name(c).under)
+        if under is None or under(condition):
             out.append(c)
     return tuple(out)
 
@@ -77,13 +75,9 @@ def why_unused(condition) -> str:
 
 def _requirements(req, under):
     """*req* with only the criteria of *under* on."""
-    return replace(req, touch=req.touch and "touch" in under,
-                   max_heat_flow_w_per_m=req.max_heat_flow_w_per_m if "heat_flow" in under else None,
-                   min_reduction=req.min_reduction if "heat_flow" in under else None,
-                   max_heat_flux_w_m2=req.max_heat_flux_w_m2 if "heat_flux" in under else None,
-                   max_temp_change_k=req.max_temp_change_k if "temp_change" in under else None,
-                   hold_time_s=req.hold_time_s if "freeze" in under else None,
-                   tracer_output_w_per_m=getattr(req, "tracer_output_w_per_m", None) if "tracer" in under else None)
+    from .criteria.registry import requirements_for
+
+    return requirements_for(req, under)
 
 
 @dataclass

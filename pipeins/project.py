@@ -61,6 +61,7 @@ from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import Any
 
+from .criteria.registry import project_names as _criterion_names
 from .errors import InputError, closest_names
 from .inputs import BY_NAME, PARAMS, check_line, file_word, in_words, parse_value
 
@@ -68,7 +69,8 @@ __all__ = ["ProjectError", "Project", "Energy", "Condition", "Service", "Line", 
            "parse_project", "CRITERIA", "DEFAULT_HOURS_PER_YEAR", "KEYS"]
 
 #: Criteria a service may list, in report order.
-CRITERIA = ("code", "touch", "condensation", "heat_flow", "heat_flux", "temp_change", "freeze", "economic")
+#: The names a service's ``criteria`` list accepts (the registered criteria, :mod:`pipeins.criteria.registry`).
+CRITERIA = _criterion_names()
 #: Operating hours per year when none are given: all year (common practice for a first estimate).
 DEFAULT_HOURS_PER_YEAR = 8760.0
 _FITTINGS = {"valves": "valve", "flanges": "flange", "strainers": "strainer"}
@@ -754,7 +756,8 @@ def _named_tables(r: _Reader, data: dict, top: str, what: str) -> dict[str, dict
 
 def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_table, service_values) -> Service | None:
     from .criteria import Requirements
-    from .sizing import DEFAULT_DEW_MARGIN_K
+    from .criteria.registry import needed_keys, records, requirements_for
+    from .inputs import REQUIREMENT_PARAMS
 
     p, entry = ("services", sname), f'service "{sname}"'
     r.check_keys(table, "services", p, entry, required=("material",))
@@ -828,26 +831,21 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
                     r.problem(p, entry, "criteria", f'unknown criterion "{item}"; {closest_names(item, CRITERIA)}')
                 else:
                     criteria.append(item)
-    max_q, reduction, max_flux = v.get("max_heat_flow_w_per_m"), v.get("min_reduction"), v.get("max_heat_flux_w_m2")
-    flow, max_dt, hold = v.get("flow"), v.get("max_temp_change_k"), v.get("hold_time_s")
+    flow = v.get("flow")
     scode = r.rule_set(table, p, entry, code)
     scost = r.cost_table(table, p, entry) if "cost_table" in table else cost_table
     senergy = r.energy_fields(table, p, entry, energy)
 
-    given = {"heat_flow": max_q is not None or reduction is not None, "heat_flux": max_flux is not None,
-             "temp_change": max_dt is not None,
-             "freeze": hold is not None, "code": scode is not None, "economic": scost is not None}
+    # what asks for each registered criterion is given (pipeins.criteria.registry)
+    registered = [c for c in records() if c.name in CRITERIA]
+    given = {c.name: c.default or c.asked(v, {"code": scode, "cost_table": scost}) for c in registered}
     if criteria is None:  # default: every criterion the service gives the data for
-        criteria = ["touch", "condensation"] + [k for k in ("heat_flow", "heat_flux", "temp_change", "freeze", "code",
-                                                            "economic") if given[k]]
+        criteria = [c.name for c in registered if c.default] + [
+            c.name for c in registered if not c.default and given[c.name]]
     else:
-        needs = {"heat_flow": '"max_heat_flow" or "min_reduction"', "heat_flux": '"max_heat_flux"',
-                 "temp_change": '"max_temp_change"',
-                 "freeze": '"hold_time"', "code": '"code" (here or in [project])',
-                 "economic": '"cost_table" (here or in [project])'}
-        for key, what in needs.items():
-            if key in criteria and not given[key]:
-                r.problem(p, entry, "criteria", f'criterion "{key}" needs the key {what}')
+        for c in registered:
+            if c.name in criteria and not given[c.name]:
+                r.problem(p, entry, "criteria", f'criterion "{c.name}" needs the key {needed_keys(c)}')
         if "economic" in criteria and senergy.price is None:
             r.problem(p, entry, "criteria", 'criterion "economic" needs an energy price ("price" here or in [energy])')
         if not table["criteria"]:
@@ -866,18 +864,9 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
             r.problem(p, entry, "hold_time", "the freeze hold time is for water lines only")
     if len(r.problems) > ok_before:
         return None
-    req = Requirements(
-        touch="touch" in criteria,
-        touch_limit_c=v.get("touch_limit_c"), contact_time_s=v.get("contact_time_s"),
-        dew_margin_k=v.get("dew_margin_k", DEFAULT_DEW_MARGIN_K),
-        max_heat_flow_w_per_m=max_q if "heat_flow" in criteria else None,
-        min_reduction=reduction if "heat_flow" in criteria else None,
-        max_heat_flux_w_m2=max_flux if "heat_flux" in criteria else None,
-        max_temp_change_k=max_dt if "temp_change" in criteria else None,
-        hold_time_s=hold if "freeze" in criteria else None,
-        ice_fraction=v.get("ice_fraction", 0.0),
-        duct_location=v.get("duct_location"), duct_service=v.get("duct_service"), climate_zone=zone,
-    )
+    # every requirement the service gives, then only its criteria asked for
+    req = requirements_for(Requirements(**{k: x for k, x in v.items() if k in REQUIREMENT_PARAMS}, climate_zone=zone),
+                           criteria)
     return Service(sname, fluid, temp, steam, material, finish, series, schedule, tuple(criteria), req, flow,
                    scode if "code" in criteria else None, senergy, scost, r.pos.header(p),
                    emittance=v.get("emittance"), pipe_material=pipe_material, velocity_m_s=v.get("velocity_m_s"),

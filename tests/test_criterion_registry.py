@@ -43,9 +43,9 @@ def _long_flags(command):
 
 
 # -- the records themselves ------------------------------------------------------------------
-def test_keys_and_project_names_are_unique():
+def test_keys_and_names_are_unique():
     keys = [r.key for r in records()]
-    names = [r.project_name for r in records() if r.project_name]
+    names = [r.name for r in records() if r.name]
     assert len(keys) == len(set(keys)) and len(names) == len(set(names))
 
 
@@ -97,16 +97,18 @@ def test_the_error_options_of_unmet_criteria_follow_the_records():
 
 
 # -- the project file ------------------------------------------------------------------------
-def test_project_criterion_names_are_the_registered_ones():
-    from pipeins.design_conditions import _EVERYWHERE
+def test_criterion_words_are_the_registered_ones():
+    from pipeins.cli.condition_options import CRITERIA_WORDS
     from pipeins.inputs import CLI_ONLY
     from pipeins.project import CRITERIA, KEYS
 
     assert CRITERIA == registry.project_names()
-    assert set(_EVERYWHERE) <= set(CRITERIA)
+    assert CRITERIA_WORDS == registry.names()
+    assert set(CRITERIA) <= set(CRITERIA_WORDS)
     all_keys = set().union(*KEYS.values())
     for r in records():
-        if r.project_name is None and not r.always:  # command line only: each option says why
+        assert (r.name is None) == r.always, r.key
+        if not r.project and not r.always:  # command line only: each option says why
             assert all(o in CLI_ONLY for o in r.options), r.key
         else:
             assert set(r.file_keys) <= all_keys, r.key
@@ -153,26 +155,34 @@ def _project(name, keys, temp, air):
     return PROJECT.format(name=name, keys=keys, temp=temp, air=air)
 
 
-@pytest.mark.parametrize("record", [r for r in records() if r.project_name], ids=lambda r: r.key)
+PROJECT_RECORDS = [r for r in records() if r.name in registry.project_names()]
+
+
+@pytest.mark.parametrize("record", PROJECT_RECORDS, ids=lambda r: r.key)
 def test_project_reader_accepts_each_criterion_with_its_keys(record):
     from pipeins.project import parse_project
 
-    keys, temp, air = PROJECT_KEYS[record.project_name]
-    project = parse_project(_project(record.project_name, keys, temp, air), "registry.toml")
-    assert project.services["line"].criteria == (record.project_name,)
+    keys, temp, air = PROJECT_KEYS[record.name]
+    project = parse_project(_project(record.name, keys, temp, air), "registry.toml")
+    assert project.services["line"].criteria == (record.name,)
 
 
-@pytest.mark.parametrize("record", [r for r in records() if r.project_name and any(
-    "services" in __import__("pipeins.inputs").inputs.BY_NAME[a].tables for a in r.asks)], ids=lambda r: r.key)
+def _asked_in_services(record):
+    from pipeins.inputs import BY_NAME
+
+    return any("services" in BY_NAME[a].tables for a in record.asks)
+
+
+@pytest.mark.parametrize("record", [r for r in PROJECT_RECORDS if _asked_in_services(r)], ids=lambda r: r.key)
 def test_project_reader_asks_for_the_keys_of_each_criterion(record):
     from pipeins.inputs import BY_NAME
     from pipeins.project import ProjectError, parse_project
 
-    _, temp, air = PROJECT_KEYS[record.project_name]
+    _, temp, air = PROJECT_KEYS[record.name]
     with pytest.raises(ProjectError) as exc:
-        parse_project(_project(record.project_name, "", temp, air), "registry.toml")
+        parse_project(_project(record.name, "", temp, air), "registry.toml")
     text = str(exc.value)
-    assert f'criterion "{record.project_name}" needs the key' in text
+    assert f'criterion "{record.name}" needs the key' in text
     for name in record.asks:
         assert f'"{BY_NAME[name].key}"' in text
 
@@ -182,7 +192,7 @@ def test_a_service_without_a_list_takes_the_default_criteria():
 
     text = _project("touch", "", "80 C", "20 C").replace('criteria = ["touch"]\n', "")
     project = parse_project(text, "registry.toml")
-    assert project.services["line"].criteria == tuple(r.project_name for r in records() if r.default)
+    assert project.services["line"].criteria == tuple(r.name for r in records() if r.default)
 
 
 # -- size and table, every record ------------------------------------------------------------

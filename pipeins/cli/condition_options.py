@@ -24,6 +24,8 @@ from __future__ import annotations
 
 import click
 
+from ..criteria.registry import names as _criterion_words
+
 __all__ = ["condition_option", "parse_conditions", "conditions_from_options", "CONDITION_KEYS",
            "criteria_asked", "select_under_conditions"]
 
@@ -35,9 +37,9 @@ CONDITION_KEYS = {"ambient-temp": "ambient_temp", "surroundings-temp": "surround
 _PARAM_KEY = {"air_temp_c": "ambient-temp", "surroundings_temp_c": "surroundings-temp", "rh_percent": "rh",
               "wind_m_s": "wind", "pressure_pa": "air-pressure", "altitude_m": "altitude", "solar_w_m2": "solar",
               "absorptance": "absorptance", "outer_h_w_m2k": "outer-h"}
-#: Criteria a condition may name (the project file's names; ``heat_flux`` and ``tracer`` beside them).
-CRITERIA_WORDS = ("touch", "condensation", "heat_flow", "heat_flux", "temp_change", "freeze", "tracer", "code",
-                  "economic")
+#: Criteria a condition may name (the registered criteria's words, :mod:`pipeins.criteria.registry`:
+#: the project file's names and ``tracer`` beside them).
+CRITERIA_WORDS = _criterion_words()
 _FLAG = "--condition"
 
 
@@ -107,24 +109,10 @@ def criteria_asked(req, conditions_rh, code=None, economic=None) -> tuple:
     """The criteria (project-file names) the sizing options ask for: touch unless turned off,
     condensation where a condition gives a relative humidity, and each cap, hold time, tracer
     output, code minimum and economic thickness given."""
-    out = ["touch"] if req.touch else []
-    if any(conditions_rh):
-        out.append("condensation")
-    if req.max_heat_flow_w_per_m is not None or req.min_reduction is not None:
-        out.append("heat_flow")
-    if req.max_heat_flux_w_m2 is not None:
-        out.append("heat_flux")
-    if req.max_temp_change_k is not None:
-        out.append("temp_change")
-    if req.hold_time_s is not None:
-        out.append("freeze")
-    if req.tracer_output_w_per_m is not None:
-        out.append("tracer")
-    if code is not None:
-        out.append("code")
-    if economic is not None:
-        out.append("economic")
-    return tuple(out)
+    from ..criteria.registry import asked_names
+
+    return asked_names(req, {"rh_percent": True if any(conditions_rh) else None, "code": code,
+                             "cost_table": economic})
 
 
 def conditions_from_options(parsed, opts: dict, units: str, items: list):

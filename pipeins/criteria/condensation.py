@@ -16,7 +16,7 @@ from ..errors import InputError
 from . import DEFAULT_DEW_MARGIN_K
 from .base import Criterion, _in, _q, _thick
 
-__all__ = ["Condensation", "CONDENSATION_NOT_APPLICABLE", "decide"]
+__all__ = ["Condensation", "CONDENSATION_NOT_APPLICABLE", "decide", "under"]
 
 #: What the criterion says where it does not apply (exact text; reports print it as given).
 CONDENSATION_NOT_APPLICABLE = "condensation control does not apply: the surface stays above the dew point bare"
@@ -114,3 +114,8 @@ def decide(line):
     if spec.rh_percent is not None:
         return CONDENSATION_NOT_APPLICABLE
     return None
+
+
+def under(condition) -> bool:
+    """Checked under a design condition that gives the relative humidity."""
+    return condition.rh_percent is not None

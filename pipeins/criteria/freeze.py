@@ -6,7 +6,7 @@ from __future__ import annotations
 
 from ..errors import InputError
 
-__all__ = ["decide", "FREEZE_NOT_APPLICABLE", "freeze_not_applicable"]
+__all__ = ["decide", "under", "FREEZE_NOT_APPLICABLE", "freeze_not_applicable"]
 
 #: What the criterion says where it does not apply (exact text; reports print it as given).
 FREEZE_NOT_APPLICABLE = ("freeze hold does not apply: fluid above 0 °C in air and surroundings at or above "
@@ -35,3 +35,11 @@ def decide(line):
     from ..freezing import FreezeHold
 
     return FreezeHold(req.hold_time_s, req.ice_fraction)
+
+
+def under(condition) -> bool:
+    """Checked under a design condition whose air is below freezing
+    (:data:`pipeins.design_conditions.FREEZE_AIR_C`)."""
+    from ..design_conditions import FREEZE_AIR_C
+
+    return condition.air_temp_c < FREEZE_AIR_C

@@ -9,7 +9,9 @@ A record says everything the rest of pipeins needs to know about a criterion, in
   relative humidity or the code rule set); from them come its command-line options
   (:attr:`CriterionRecord.options`) and project-file keys (:attr:`CriterionRecord.file_keys`);
   ``asks`` are those of them whose value asks for the criterion;
-* ``project_name`` — its name in a project service's ``criteria`` list (None: command line only);
+* ``name`` — its word in a criteria list (a project service's ``criteria``, a design condition's
+  ``criteria_here``, ``--condition "…: criteria=a+b"``); ``project`` — whether a project file
+  takes it (its inputs have project keys);
 * ``kinds`` — the section kinds it applies to (``pipe``, ``duct``, ``face``, ``sphere``,
   ``vessel``); asking for it on another kind is a one-line error;
 * ``decide`` — for a criterion the search sizes for: a function of the line
@@ -27,7 +29,7 @@ module imports nothing heavy (the project reader and the command line read it fr
 :func:`pipeins.criteria.build_criteria` walks the ``decide`` records in order, and
 :func:`pipeins.selection.select` the ``required`` ones; the service limits of every layer
 (``always``) are judged on the selected build-up.  The project file's criterion names
-(:data:`pipeins.project.CRITERIA`), the options that name an unmet criterion in an error
+(:data:`pipeins.project.CRITERIA`), the words of ``--condition … criteria=``, the options that name an unmet criterion in an error
 (:data:`pipeins.reports.sizing.CRITERION_OPTIONS`) and a condition's criteria are derived from
 the records; ``tests/test_criterion_registry.py`` walks every record through the command line
 and the project reader.
@@ -39,8 +41,8 @@ import importlib
 from dataclasses import dataclass
 from typing import Any, Callable
 
-__all__ = ["CriterionRecord", "RECORDS", "records", "by_key", "by_project_name", "project_names",
-           "register", "Line", "Selecting", "SECTION_KINDS", "resolve"]
+__all__ = ["CriterionRecord", "RECORDS", "records", "by_key", "by_name", "names", "project_names", "asked_names",
+           "register", "Line", "Selecting", "SECTION_KINDS", "resolve", "requirements_for", "needed_keys"]
 
 #: Every section kind (:attr:`pipeins.line.LineSpec.section_kind`).
 SECTION_KINDS = ("pipe", "duct", "face", "sphere", "vessel")
@@ -63,7 +65,8 @@ class CriterionRecord:
     label: str
     inputs: tuple[str, ...] = ()
     asks: tuple[str, ...] = ()
-    project_name: str | None = None
+    name: str | None = None
+    project: bool = True
     kinds: tuple[str, ...] = SECTION_KINDS
     decide: str | Callable | None = None
     required: str | Callable | None = None
@@ -74,6 +77,10 @@ class CriterionRecord:
     per_build_up: bool = False
     #: Judged on every selected build-up, asked for or not (the service limits).
     always: bool = False
+    #: Where a project line has several design conditions: a function of a condition
+    #: (:class:`pipeins.project.Condition`) saying whether the criterion is checked under it
+    #: (None: under every condition).
+    under: str | Callable | None = None
 
     @property
     def fields(self) -> tuple[str, ...]:
@@ -125,33 +132,33 @@ class CriterionRecord:
         raise InputError(name or (self.asks or self.inputs)[0], f"{self.label} applies to {words}, not to a {kind}")
 
 
-#: The criteria, in the order reports list them within each group (the criteria the search
-#: sizes for, then those whose thickness comes from elsewhere, then the service limits).
+#: The criteria, in the order reports list them (the criteria the search sizes for, then those
+#: whose thickness comes from elsewhere, then the service limits).
 RECORDS: list[CriterionRecord] = [
-    CriterionRecord("code", "code minimum", ("code", "code_table", "duct_location", "duct_service", "climate_zone"),
-                    asks=("code",), project_name="code", kinds=("pipe", "duct"),
-                    required="pipeins.criteria.code:required"),
     CriterionRecord("surface_temp", "touch safety", ("touch_limit_c", "contact_time_s", "touch"),
-                    asks=("touch",), project_name="touch", default=True, decide="pipeins.criteria.touch:decide"),
+                    asks=("touch",), name="touch", default=True, decide="pipeins.criteria.touch:decide"),
     CriterionRecord("condensation", "condensation control", ("rh_percent", "dew_margin_k"),
-                    asks=("rh_percent",), project_name="condensation", default=True,
-                    decide="pipeins.criteria.condensation:decide"),
+                    asks=("rh_percent",), name="condensation", default=True,
+                    decide="pipeins.criteria.condensation:decide", under="pipeins.criteria.condensation:under"),
     CriterionRecord("heat_flow", "heat-flow cap", ("max_heat_flow_w_per_m", "min_reduction"),
-                    asks=("max_heat_flow_w_per_m", "min_reduction"), project_name="heat_flow",
+                    asks=("max_heat_flow_w_per_m", "min_reduction"), name="heat_flow",
                     decide="pipeins.criteria.heat_flow:decide"),
     CriterionRecord("heat_flux", "heat-flux cap", ("max_heat_flux_w_m2",), asks=("max_heat_flux_w_m2",),
-                    project_name="heat_flux", decide="pipeins.criteria.heat_flux:decide"),
+                    name="heat_flux", decide="pipeins.criteria.heat_flux:decide"),
     CriterionRecord("temp_change", "temperature change along the run", ("max_temp_change_k",),
-                    asks=("max_temp_change_k",), project_name="temp_change", kinds=("pipe", "duct"),
+                    asks=("max_temp_change_k",), name="temp_change", kinds=("pipe", "duct"),
                     decide="pipeins.criteria.temp_change:decide"),
     CriterionRecord("freeze", "freeze protection (hold time)", ("hold_time_s", "ice_fraction"),
-                    asks=("hold_time_s",), project_name="freeze", kinds=("pipe",),
-                    decide="pipeins.criteria.freeze:decide"),
+                    asks=("hold_time_s",), name="freeze", kinds=("pipe",),
+                    decide="pipeins.criteria.freeze:decide", under="pipeins.criteria.freeze:under"),
     CriterionRecord("tracer", "tracer output", ("tracer_output_w_per_m", "safety_factor_percent"),
-                    asks=("tracer_output_w_per_m",), kinds=("pipe", "duct"),
+                    asks=("tracer_output_w_per_m",), name="tracer", project=False, kinds=("pipe", "duct"),
                     decide="pipeins.criteria.tracer:decide"),
+    CriterionRecord("code", "code minimum", ("code", "code_table", "duct_location", "duct_service", "climate_zone"),
+                    asks=("code",), name="code", kinds=("pipe", "duct"),
+                    required="pipeins.criteria.code:required"),
     CriterionRecord("economic", "economic thickness", ("price", "cost_table"), asks=("cost_table",),
-                    project_name="economic", required="pipeins.criteria.economic:required", per_build_up=True),
+                    name="economic", required="pipeins.criteria.economic:required", per_build_up=True),
     CriterionRecord("service_limit", "service temperature", ("material",), always=True),
 ]
 
@@ -165,13 +172,50 @@ def by_key(key: str) -> CriterionRecord:
     return next(r for r in RECORDS if r.key == key)
 
 
-def by_project_name(name: str) -> CriterionRecord:
-    return next(r for r in RECORDS if r.project_name == name)
+def by_name(name: str) -> CriterionRecord:
+    """The record of the criteria-list word *name*."""
+    return next(r for r in RECORDS if r.name == name)
+
+
+def names() -> tuple[str, ...]:
+    """Every criteria-list word, in order (``--condition … criteria=``)."""
+    return tuple(r.name for r in RECORDS if r.name)
 
 
 def project_names() -> tuple[str, ...]:
     """The names a project service's ``criteria`` list accepts, in order."""
-    return tuple(r.project_name for r in RECORDS if r.project_name)
+    return tuple(r.name for r in RECORDS if r.name and r.project)
+
+
+def asked_names(req, given: dict) -> tuple[str, ...]:
+    """The criteria-list words of the criteria that *req* and the selection inputs *given*
+    (parameter name → value: ``rh_percent``, ``code``, ``cost_table``) ask for, in order."""
+    return tuple(r.name for r in RECORDS if r.name and r.asked(given, req))
+
+
+def requirements_for(req, names):
+    """*req* (a :class:`~pipeins.criteria.Requirements`) with only the criteria of the words
+    *names* asked for: what asks for each other one switched off."""
+    from dataclasses import fields, replace
+
+    own = {f.name: f for f in fields(req)}
+    off = {}
+    for record in RECORDS:
+        if record.name is None or record.name in names:
+            continue
+        for name in record.asks:
+            if name in own:
+                off[name] = False if isinstance(getattr(req, name), bool) else None
+    return replace(req, **off)
+
+
+def needed_keys(record) -> str:
+    """The project-file keys that ask for *record*, in words (for an error)."""
+    from ..inputs import BY_NAME
+
+    params = [BY_NAME[n] for n in record.asks if n in BY_NAME and BY_NAME[n].key]
+    text = " or ".join(f'"{p.key}"' for p in params)
+    return text + (" (here or in [project])" if params and all("project" in p.tables for p in params) else "")
 
 
 def register(record: CriterionRecord, before: str | None = None) -> CriterionRecord:
