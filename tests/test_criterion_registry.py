@@ -187,6 +187,16 @@ def test_project_reader_asks_for_the_keys_of_each_criterion(record):
         assert f'"{BY_NAME[name].key}"' in text
 
 
+def test_only_the_listed_criteria_are_asked_for():
+    from pipeins.project import parse_project
+
+    keys = 'max_heat_flow = "20 W/m"\nmax_heat_flux = "30 W/m2"\nhold_time = "8 h"'
+    req = parse_project(_project("touch", keys, "80 C", "20 C"), "registry.toml").services["line"].requirements
+    assert req.touch and (req.max_heat_flow_w_per_m, req.max_heat_flux_w_m2, req.hold_time_s) == (None, None, None)
+    req = parse_project(_project("heat_flow", keys, "80 C", "20 C"), "registry.toml").services["line"].requirements
+    assert not req.touch and req.max_heat_flow_w_per_m == pytest.approx(20.0) and req.hold_time_s is None
+
+
 def test_a_service_without_a_list_takes_the_default_criteria():
     from pipeins.project import parse_project
 
