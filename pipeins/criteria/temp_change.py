@@ -1,6 +1,6 @@
 """The fluid temperature change along a run at most a limit: a pipe's liquid marched along
 the run (:class:`pipeins.runs.TempChange`), a duct's air by the exponential law
-(:class:`pipeins.sections.DuctTempChange`)."""
+(:class:`pipeins.section_criteria.DuctTempChange`)."""
 
 from __future__ import annotations
 
@@ -16,7 +16,7 @@ def decide(line):
     if req.max_temp_change_k <= 0:
         raise InputError("max_temp_change_k", "the temperature change limit must be greater than zero")
     if line.kind == "duct":
-        from ..sections import duct_temp_change
+        from ..section_criteria import duct_temp_change
 
         return duct_temp_change(spec, req.max_temp_change_k)
     if spec.flow is None or spec.length_m is None or not spec.fluid:
