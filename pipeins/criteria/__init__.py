@@ -37,7 +37,7 @@ class Requirements:
     contact_time_s: float | None = None
     dew_margin_k: float = DEFAULT_DEW_MARGIN_K
     max_heat_flow_w_per_m: float | None = None
-    #: Cap on the worst part's outer heat flux [W/m²] (:class:`pipeins.sections.HeatFluxCap`).
+    #: Cap on the worst part's outer heat flux [W/m²] (:class:`pipeins.section_criteria.HeatFluxCap`).
     max_heat_flux_w_m2: float | None = None
     #: A duct code minimum's location, service and climate zone (:mod:`pipeins.duct_codes`).
     duct_location: str | None = None
