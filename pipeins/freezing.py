@@ -41,6 +41,7 @@ import numpy as np
 
 from .errors import InputError
 from .model import Fluid, Layer
+from .run_cases import case_shape, require_pipe
 from .sizing import Criterion, _in
 
 __all__ = ["FreezeResult", "freeze_times", "FreezeHold", "TracedAlternative", "traced_alternatives",
@@ -124,12 +125,11 @@ def freeze_times(pipe, layers, surroundings, surface, start_temp_c, wall_materia
     """
     from .catalog.materials import lookup_wall_material
     from .props.liquids import LATENT_HEAT_FUSION_J_KG, fluid_properties, normalise_fluid
-    from .runs import _case_shape, _require_pipe
     from .solve import solve
 
     if normalise_fluid(fluid_name) != "water":
         raise InputError("--fluid", f'the freezing model is for water only; "{fluid_name}" is not water')
-    _require_pipe(pipe, surroundings)
+    require_pipe(pipe, surroundings)
     start = np.asarray(start_temp_c, dtype=float)
     if np.any(~np.isfinite(start) | (start <= 0)):
         raise InputError("--fluid-temp", "the water must start above 0 °C for a freezing time")
@@ -140,7 +140,7 @@ def freeze_times(pipe, layers, surroundings, surface, start_temp_c, wall_materia
         raise InputError("--points", "the quadrature needs at least 2 points")
     wall = wall_material if wall_material is not None else lookup_wall_material(pipe.wall_material)
 
-    shape = _case_shape(pipe, layers, surroundings, surface, start, fraction)
+    shape = case_shape(pipe, layers, surroundings, surface, start, fraction)
     start = np.broadcast_to(start, shape)
     t_low = np.broadcast_to(np.minimum(np.asarray(surroundings.air_temp_c, float),
                                        np.asarray(surroundings.radiant_temp_c, float)), shape)

@@ -17,7 +17,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Any
 
-__all__ = ["Note", "note", "SEVERITIES", "SI_UNITS"]
+__all__ = ["Note", "note", "with_subject", "SEVERITIES", "SI_UNITS"]
 
 #: What a note is: ``warning`` (the result may not hold as stated), ``note`` (a fact the
 #: engineer should know), ``caution`` (a hazard to heed).
@@ -109,3 +109,17 @@ def note(code: str, severity: str = "warning", subject: str = "", **fields) -> N
             value, kind = item
             values.append((name, float(value), kind))
     return Note(code, severity, tuple(values), tuple(words), subject)
+
+
+def with_subject(item, subject: str):
+    """*item* (a :class:`Note` or a text) said of *subject*: a note with its subject set (before
+    any it had; the report writes ``subject: sentence``), a text as ``"subject: text"``.
+
+    >>> with_subject("needs --rh", "DN50"), with_subject(note("run.needs_fluid"), "DN50").subject
+    ('DN50: needs --rh', 'DN50')
+    """
+    if isinstance(item, str):
+        return f"{subject}: {item}"
+    from dataclasses import replace
+
+    return replace(item, subject=f"{subject}: {item.subject}" if item.subject else subject)

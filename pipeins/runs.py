@@ -17,7 +17,6 @@ the heat flow into the running load of condensate.
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field
 
 import numpy as np
@@ -25,11 +24,12 @@ import numpy as np
 from .errors import InputError
 from .march import MAX_STEPS, march, substeps
 from .model import Fluid, Layer, Surface
+from .notes import Note, note
+from .run_cases import case_shape, require_pipe
 from .sizing import Criterion
 
 __all__ = ["RunResult", "temperature_along_run", "mass_flow_kg_s", "condensate_kg_per_h",
-           "run_extras", "TempChange", "MAX_STEPS"]
-
+           "TempChange", "MAX_STEPS"]
 
 
 @dataclass
@@ -54,8 +54,9 @@ class RunResult:
         Mass flow [kg/s], case shape.
     steps : int
         Runge–Kutta steps taken (at least one per segment).
-    warnings : list of str
-        E.g. the fluid reaching its freezing point along the run.
+    notes : list of Note
+        E.g. ``run.freezes``: the fluid reaching its freezing point along the run
+        (:mod:`pipeins.notes`; :mod:`pipeins.reports.notes` writes the sentence).
     """
 
     positions_m: np.ndarray
@@ -65,28 +66,7 @@ class RunResult:
     heat_flow_w_per_m: np.ndarray
     mass_flow_kg_s: np.ndarray
     steps: int = 0
-    warnings: list[str] = field(default_factory=list)
-
-
-def _case_shape(pipe, layers, surroundings, surface, *more) -> tuple[int, ...]:
-    """Broadcast shape of every numeric input of a pipe problem."""
-    values = [pipe.outer_diameter_m, pipe.wall_m, pipe.wall_conductivity_w_mk,
-              surroundings.air_temp_c, surroundings.surroundings_temp_c,
-              surroundings.wind_speed_m_s, surroundings.relative_humidity_percent,
-              surroundings.pressure_pa, surroundings.height_m, surface.emittance,
-              surface.fixed_coefficient_w_m2k, *more]
-    values += [layer.thickness_m for layer in layers]
-    return np.broadcast_shapes(*(np.shape(v) for v in values if v is not None))
-
-
-def _is_run(pipe, surroundings) -> bool:
-    """Whether *pipe* is a run whose heat flow is per metre (its shape's basis is W/m)."""
-    return pipe.shape(surroundings).basis == "W/m"
-
-
-def _require_pipe(pipe, surroundings):
-    if not _is_run(pipe, surroundings):
-        raise InputError("--pipe", "a run needs a round pipe, not a flat face")
+    notes: list[Note] = field(default_factory=list)
 
 
 def mass_flow_kg_s(flow, fluid_name: str, temp_c):
@@ -171,7 +151,7 @@ def temperature_along_run(pipe, layers, fluid_name, inlet_temp_c, mass_flow_kg_s
     Returns
     -------
     RunResult
-        Arrays broadcast over every input.  ``warnings`` says when the fluid cools to its
+        Arrays broadcast over every input.  ``notes`` says (``run.freezes``) when the fluid cools to its
         freezing point (the march then holds the properties at the freezing point; the
         result is not valid beyond that).
 
@@ -193,7 +173,7 @@ def temperature_along_run(pipe, layers, fluid_name, inlet_temp_c, mass_flow_kg_s
     from .props.liquids import fluid_properties, fluid_temp_range_c
     from .solve import solve
 
-    _require_pipe(pipe, surroundings)
+    require_pipe(pipe, surroundings)
     mdot = np.asarray(mass_flow_kg_s, dtype=float)
     if np.any(~np.isfinite(mdot) | (mdot <= 0)):
         raise InputError("--flow", "flow must be greater than zero")
@@ -204,7 +184,7 @@ def temperature_along_run(pipe, layers, fluid_name, inlet_temp_c, mass_flow_kg_s
     if segments < 1:
         raise InputError("--segments", "the run needs at least one segment")
     t_in = np.asarray(inlet_temp_c, dtype=float)
-    shape = _case_shape(pipe, layers, surroundings, surface, t_in, mdot, length, inner_h_w_m2k)
+    shape = case_shape(pipe, layers, surroundings, surface, t_in, mdot, length, inner_h_w_m2k)
     t_in = np.broadcast_to(t_in, shape).astype(float)
     mdot, length = np.broadcast_to(mdot, shape), np.broadcast_to(length, shape)
 
@@ -230,10 +210,9 @@ def temperature_along_run(pipe, layers, fluid_name, inlet_temp_c, mass_flow_kg_s
     temps, flows, temp, total = march(slope, t_in, length, segments, sub, floor, ceiling, shape)
     flows.append(heat_flow(temp))
     fluid_temps = np.stack(temps)
-    warnings = []
+    notes = []
     if np.any(fluid_temps < low_c):
-        warnings.append(f"the fluid cools to its freezing point ({low_c:.1f} °C) along the run; "
-                        "beyond that point the result is not valid")
+        notes.append(note("run.freezes", freeze_c=(low_c, "temperature")))
     fractions = np.linspace(0.0, 1.0, segments + 1).reshape((-1,) + (1,) * np.ndim(length_m))
     return RunResult(
         positions_m=fractions * np.asarray(length_m, dtype=float),
@@ -243,80 +222,8 @@ def temperature_along_run(pipe, layers, fluid_name, inlet_temp_c, mass_flow_kg_s
         heat_flow_w_per_m=np.stack(flows),
         mass_flow_kg_s=np.array(mdot),
         steps=segments * sub,
-        warnings=warnings,
+        notes=notes,
     )
-
-
-def _one(x) -> float:
-    return float(np.asarray(x, dtype=float).ravel()[0])
-
-
-def run_extras(spec, result, units):
-    """Rows, SI data and warnings about the run and over time, for ``pipeins check``.
-
-    * with ``spec.length_m``: the heat flow over the run; with a liquid ``spec.fluid``
-      and ``spec.flow`` as well: the outlet temperature and the temperature change
-      (``temp_change_k`` = outlet − inlet; negative when the fluid cools);
-    * with ``spec.steam_pressure_pa``: the condensate per metre (and over the run);
-    * for water with the air below 0 °C: ``freeze_start_h``, the hours until still water
-      cools to 0 °C (:func:`pipeins.freezing.freeze_times`).
-    """
-    from .units import format_quantity as fq, to_display, unit_label
-
-    rows, data, warnings = [], {}, []
-    inputs = result.inputs
-    pipe, layers, fluid = inputs["pipe"], list(inputs["layers"]), inputs["fluid"]
-    surroundings, surface = inputs["surroundings"], inputs["surface"]
-    q = _one(result.heat_flow_w_per_m)
-    temp_c = _one(fluid.temp_c)
-    length = spec.length_m
-    steam = spec.steam_pressure_pa is not None
-
-    if length is not None:
-        heat = q * length
-        if spec.flow is not None and not steam:
-            if not spec.fluid:
-                warnings.append("the temperature change along the run needs the fluid (--fluid)")
-            else:
-                mdot = _one(mass_flow_kg_s(spec.flow, spec.fluid, temp_c))
-                run = temperature_along_run(pipe, layers, spec.fluid, temp_c, mdot, length, surroundings,
-                                            surface, fluid.film_coefficient_w_m2k)
-                heat = _one(run.heat_flow_w)
-                change = _one(run.outlet_temp_c) - temp_c
-                rows += [["mass flow", fq(mdot, "mass_flow", units)],
-                         ["outlet temperature", fq(_one(run.outlet_temp_c), "temperature", units)],
-                         ["temperature change", fq(change, "temperature_difference", units, digits=2)]]
-                data.update(mass_flow_kg_s=mdot, outlet_temp_c=_one(run.outlet_temp_c), temp_change_k=change)
-                warnings += run.warnings
-        rows.append([f"heat flow over {fq(length, 'length', units)}", fq(heat, "power", units)])
-        data["heat_flow_w"] = heat
-    if steam:
-        per_m_kg_s = _one(condensate_kg_per_h(q, spec.steam_pressure_pa)) / 3600.0
-        per_length = per_m_kg_s / to_display(1.0, "length", units)
-        rows.append(["condensate (running load)",
-                     f"{to_display(per_length, 'mass_flow', units):.3f} {unit_label('mass_flow', units)} "
-                     f"per {unit_label('length', units)}"])
-        data["condensate_kg_per_h_per_m"] = per_m_kg_s * 3600.0
-        if length is not None:
-            rows.append([f"condensate over {fq(length, 'length', units)}",
-                         fq(per_m_kg_s * length, "mass_flow", units, digits=2)])
-            data["condensate_kg_per_h"] = per_m_kg_s * 3600.0 * length
-    if not steam and spec.fluid and _is_water(spec.fluid) and _one(surroundings.air_temp_c) < 0 \
-            and temp_c > 0 and _is_run(pipe, surroundings):
-        from .freezing import freeze_times
-
-        frozen = freeze_times(pipe, layers, surroundings, surface, temp_c)
-        seconds = _one(frozen.time_to_zero_s)
-        if math.isfinite(seconds):
-            rows.append(["still water reaches 0 °C after", fq(seconds, "time", units, digits=1)])
-            data["freeze_start_h"] = seconds / 3600.0
-    return rows, data, warnings
-
-
-def _is_water(name) -> bool:
-    from .props.liquids import normalise_fluid
-
-    return normalise_fluid(name) == normalise_fluid("water")
 
 
 @dataclass

@@ -30,6 +30,7 @@ import numpy as np
 
 from .errors import InputError
 from .inputs import file_word, in_words
+from .notes import with_subject
 from .project import Project, ProjectError
 
 __all__ = ["ScheduleRow", "LineResult", "Totals", "Schedule", "compute_schedule", "GOVERNING_LABELS"]
@@ -201,8 +202,10 @@ class Schedule:
     rows: list[ScheduleRow]
     lines: list[LineResult]
     totals: Totals
-    warnings: list[str] = field(default_factory=list)
-    cautions: list[str] = field(default_factory=list)
+    #: Text, or a :class:`pipeins.notes.Note` (with its subject) that the report writes in its units.
+    warnings: list = field(default_factory=list)
+    #: The cautions that apply (:class:`pipeins.notes.Note`, severity "caution"; the report writes them).
+    cautions: list = field(default_factory=list)
     criteria_used: dict = field(default_factory=dict)   # service -> criterion descriptions
 
 
@@ -294,7 +297,7 @@ def _compute_schedule(project: Project, progress) -> Schedule:
                 text = f"{GOVERNING_LABELS.get(c.key, c.label)}: {c.description}"
                 if text not in criteria_used[sname]:
                     criteria_used[sname].append(text)
-            warnings += [f'service "{sname}": {n}' for n in sel.notes if not _unasked(n, service)]
+            warnings += [with_subject(n, f'service "{sname}"') for n in sel.notes if not _unasked(n, service)]
             for i, size in enumerate(sizes):
                 if not out.feasible[i] and service.thickness_m is not None:
                     problems.append(_fixed_thickness_miss(project, service, size, condition, None))
@@ -311,7 +314,7 @@ def _compute_schedule(project: Project, progress) -> Schedule:
                     continue
                 if key not in chosen or pick[0] > chosen[key][0]:
                     chosen[key] = pick
-            warnings += [f'service "{sname}" in {cname}: {w}' for w in dict.fromkeys(out.result.warnings)]
+            warnings += [with_subject(w, f'service "{sname}" in {cname}') for w in dict.fromkeys(out.result.warnings)]
     if problems:
         raise ProjectError(list(dict.fromkeys(problems)))
 
@@ -349,11 +352,15 @@ def _compute_schedule(project: Project, progress) -> Schedule:
     return Schedule(project, rows, results, totals, list(dict.fromkeys(warnings)), cautions, criteria_used)
 
 
-def _unasked(note: str, service) -> bool:
+def _unasked(note, service) -> bool:
     """A note on a criterion the service does not ask for: the schedule solves without the RH
     where condensation is not among its criteria, so "condensation not checked … give the RH"
     would ask for what the file already has."""
-    return "condensation" not in service.criteria and note.startswith("condensation not checked")
+    if "condensation" in service.criteria:
+        return False
+    if isinstance(note, str):
+        return note.startswith("condensation not checked")
+    return note.code.startswith("condensation.not_checked")
 
 
 def _unpriced_reason(line) -> str:
@@ -438,7 +445,8 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
     length = np.array([l.length_m for l in lines])
     heat = q * length + q_bare * fit_len
     heat_bare = q_bare * (length + fit_len)
-    warnings += [f'service "{service.name}" in {condition.name}: {w}' for w in dict.fromkeys(result.warnings)]
+    warnings += [with_subject(w, f'service "{service.name}" in {condition.name}')
+                 for w in dict.fromkeys(result.warnings)]
 
     dew_margin = [None] * n
     if condition.rh_percent is not None and service.fluid_temp_c < condition.air_temp_c:
@@ -455,7 +463,7 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
         run = temperature_along_run(pipe, layers, service.fluid, service.temp_c, mdot, length[:, None],
                                     surroundings, surface, fluid.film_coefficient_w_m2k)
         outlet = list(np.ravel(run.outlet_temp_c))
-        warnings += [f'service "{service.name}": {w}' for w in run.warnings]
+        warnings += [with_subject(n, f'service "{service.name}"') for n in run.notes]
 
     basis = _basis(service, False)
     money = _line_money(heat, heat_bare, basis)
@@ -529,7 +537,8 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
         result = solve(pipe, layers, fluid, surroundings, surface)
         bare_surface = bare_surface_of(pipe, surface)
         bare = solve(pipe, [], fluid, surroundings, bare_surface)
-        warnings += [f'service "{service.name}" in {condition.name}: {w}' for w in dict.fromkeys(result.warnings)]
+        warnings += [with_subject(w, f'service "{service.name}" in {condition.name}')
+                     for w in dict.fromkeys(result.warnings)]
         q = np.ravel(np.broadcast_to(result.heat_flow, thickness.shape))
         q_bare = np.ravel(np.broadcast_to(bare.heat_flow, thickness.shape))
         ts = np.ravel(np.broadcast_to(result.surface_temp_c, thickness.shape))
@@ -687,12 +696,12 @@ def _bands(project, chosen, groups) -> list[ScheduleRow]:
     return rows
 
 
-def _cautions(project, groups) -> list[str]:
+def _cautions(project, groups) -> list:
     from .catalog.finishes import lookup_finish
-    from .reports.cautions import cautions
+    from .cautions import caution_notes
 
     services = [project.services[s] for s, _ in groups]
-    return cautions([s.fluid_temp_c for s in services], [project.conditions[c].air_temp_c for _, c in groups],
+    return caution_notes([s.fluid_temp_c for s in services], [project.conditions[c].air_temp_c for _, c in groups],
                     [lookup_finish(s.finish).surface_kind for s in services if s.finish],
                     freeze=any("freeze" in s.criteria for s in services),
                     code=any(s.code is not None for s in services))

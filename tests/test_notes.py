@@ -18,6 +18,15 @@ from pipeins.reports.notes import TEMPLATES, note_dict, notes_json, render, rend
 EXAMPLES = {
     "run.freezes": note("run.freezes", freeze_c=(-0.3, "temperature")),
     "run.needs_fluid": note("run.needs_fluid"),
+    "surface.above_touch_limit": note("surface.above_touch_limit", surface_c=(71.23, "temperature"),
+                                      limit_c=(60.0, "temperature")),
+    "surface.below_dew_point": note("surface.below_dew_point", where="surface", surface_c=(12.0, "temperature"),
+                                    dew_point_c=(15.2, "temperature")),
+    "condensation.not_checked.cold_line": note("condensation.not_checked.cold_line", what="line"),
+    "condensation.not_checked.cold_surroundings": note("condensation.not_checked.cold_surroundings",
+                                                       surface_c=(18.0, "temperature")),
+    **{code: note(code, "caution") for code in ("caution.hot", "caution.metal_jacket", "caution.cold",
+                                                "caution.freeze", "caution.code", "caution.general")},
 }
 
 
@@ -91,3 +100,26 @@ def test_render_all_keeps_strings_and_order():
 def test_unknown_code_says_where_to_add_it():
     with pytest.raises(KeyError, match="TEMPLATES"):
         render(note("no.such.code"))
+
+
+def test_caution_notes_keep_the_report_order_and_sentences():
+    # the cautions' selection (library) and their sentences (report layer) meet again
+    from pipeins.cautions import CAUTION_CODES, caution_notes
+    from pipeins.reports.cautions import GENERAL, HOT, cautions
+
+    picked = caution_notes([180.0, 6.0], [20.0, 28.0], ["metal_jacket"], code=True)
+    assert [n.code for n in picked] == ["caution.hot", "caution.metal_jacket", "caution.cold", "caution.code",
+                                        "caution.general"]
+    assert all(n.severity == "caution" for n in picked) and set(EXAMPLES) >= set(CAUTION_CODES)
+    assert cautions([180.0], [20.0]) == [HOT, GENERAL]
+    assert GENERAL.endswith("Local codes, the owner's rules and licensed practice govern.")
+
+
+def test_touch_and_dew_point_sentences_in_si_keep_their_wording_and_us_says_fahrenheit():
+    touch = EXAMPLES["surface.above_touch_limit"]
+    assert render(touch, "si") == "surface 71.2 °C is above the touch limit of 60 °C"
+    # NIST SP 811: t/°F = 1.8 t/°C + 32
+    assert render(touch, "us") == f"surface {1.8 * 71.23 + 32:.1f} °F is above the touch limit of 140.0 °F"
+    dew = EXAMPLES["surface.below_dew_point"]
+    assert render(dew, "si") == "surface 12.0 °C is below the dew point 15.2 °C: it will sweat"
+    assert "°C" not in render(dew, "us")

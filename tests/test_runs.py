@@ -12,8 +12,9 @@ from pipeins.catalog.materials import lookup_material
 from pipeins.errors import InputError
 from pipeins.line import LineSpec
 from pipeins.model import Fluid, Layer, Pipe, Surface, Surroundings
-from pipeins.runs import (RunResult, TempChange, condensate_kg_per_h, mass_flow_kg_s, run_extras,
-                          temperature_along_run)
+from pipeins.reports.extras import run_extras
+from pipeins.reports.notes import render
+from pipeins.runs import RunResult, TempChange, condensate_kg_per_h, mass_flow_kg_s, temperature_along_run
 from pipeins.sizing import SizingProblem, size
 from pipeins.units import Flow
 
@@ -141,7 +142,9 @@ def test_freezing_point_warning_when_fluid_cools_to_zero():
     # Physical: water at 2 °C, tiny flow, bare-ish pipe in −20 °C air reaches 0 °C
     run = temperature_along_run(PIPE, [Layer(K004, 0.005)], "water", 2.0, 0.001, 500.0,
                                 Surroundings(-20.0), Surface(), segments=5)
-    assert any("freezing point" in w for w in run.warnings)
+    freezes = [n for n in run.notes if n.code == "run.freezes"]
+    assert len(freezes) == 1 and freezes[0].value("freeze_c") == pytest.approx(0.0, abs=0.5)
+    assert "freezing point" in render(freezes[0], "si")
     assert float(run.outlet_temp_c) >= -20.0 - 1e-9
 
 

@@ -30,7 +30,7 @@ def check(fmt, units, output, **opts):
           --layer "flexible elastomeric foam:19mm" --format json
     """
     from ..reports.check import check_report
-    from ..runs import run_extras
+    from ..reports.extras import run_extras
 
     field = pop_field_options(opts, units)
     spec = field_line(spec_from_options(opts, units), field, units)

@@ -49,7 +49,7 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     from ..reports.charts import size_charts
     from ..reports.check import check_report
     from ..reports.sizing import CRITERION_OPTIONS, size_report
-    from ..runs import run_extras
+    from ..reports.extras import run_extras
     from ..selection import select
     from ..units import material_in_si
 

@@ -44,7 +44,7 @@ def verify(match, fmt, units, output):
     """
     from ..errors import InputError
     from ..verification import CHECKS, run_checks
-    from ..verify_report import verification_report
+    from ..reports.verify import verification_report
 
     checks = CHECKS
     if match is not None:

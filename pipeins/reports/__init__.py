@@ -90,6 +90,9 @@ class Report:
     cautions: list[str] = field(default_factory=list)
     footer: list[str] = field(default_factory=list)
     csv_table: int | str = 0  # which table CSV output carries; "all": every table, in blocks (tables_csv)
+    #: The structured notes (:class:`pipeins.notes.Note`) behind some of :attr:`warnings`; JSON
+    #: lists every warning as a note object (:func:`pipeins.reports.notes.report_notes`).
+    notes: list = field(default_factory=list)
     # Drawn by the HTML report and --plot only (pipeins.reports.charts.Chart; data computed lazily).
     charts: list = field(default_factory=list)
     # Title block of the HTML and XLSX reports: keys of pipeins.reports.html.TITLE_BLOCK_KEYS.
@@ -254,7 +257,7 @@ def table_csv(report: Report, table: Table, units: str, ascii: bool = False) -> 
     and currency, then rows of plain numbers (no separators, no units; empty when not
     applicable).  With *ascii* every character is plain ASCII (:func:`to_ascii`)."""
     heads, rows = _cells(table, units, csv=True)
-    comments = csv_comments(report, table)
+    comments = csv_comments(_settled(report, units), table)
     if ascii:
         heads, rows = [to_ascii(h) for h in heads], [[to_ascii(c) for c in row] for row in rows]
         comments = [to_ascii(c) for c in comments]
@@ -274,7 +277,7 @@ def tables_csv(report: Report, units: str, ascii: bool = False) -> str:
     block is what :func:`table_csv` writes for that table (the schedule's one file per table),
     so a reader splits on the ``# table:`` lines."""
     out = io.StringIO()
-    head = csv_comments(report) or ["# " + " ".join(str(report.title).split())]
+    head = csv_comments(_settled(report, units)) or ["# " + " ".join(str(report.title).split())]
     for line in head:
         out.write((to_ascii(line) if ascii else line) + "\n")
     for table in report.tables:
@@ -300,16 +303,48 @@ def _csv(report: Report, units: str, ascii: bool = False) -> str:
     return table_csv(report, report.tables[report.csv_table], units, ascii)
 
 
+def _settled(report: Report, units: str) -> Report:
+    """*report* with its warnings and cautions written: a structured note
+    (:class:`pipeins.notes.Note`) among them becomes its sentence in *units*
+    (:mod:`pipeins.reports.notes`) and joins :attr:`Report.notes`."""
+    from ..notes import Note
+
+    items = list(report.warnings) + list(report.cautions)
+    if not any(isinstance(x, Note) for x in items):
+        return report
+    from dataclasses import replace
+
+    from .notes import notes_of, render as write_note
+
+    def written(lines):
+        return [write_note(x, units) if isinstance(x, Note) else x for x in lines]
+
+    return replace(report, warnings=written(report.warnings), cautions=written(report.cautions),
+                   notes=notes_of(list(report.notes) + list(report.warnings)))
+
+
 def render(report: Report, fmt: str = "text", units: str = "si", ascii: bool = False) -> str | bytes:
     """The report as text, Markdown, CSV (its main table), JSON (SI, whatever *units*),
     HTML (text) or XLSX (bytes).  With *ascii* the text is plain ASCII: rules, bullets and
     unit signs spelt out (:func:`to_ascii`), JSON strings escaped (``\\u00b0``), HTML
     characters as references."""
+    report = _settled(report, units)
     if fmt == "json":
+        from .notes import render as write_note, report_notes
+
         payload = dict(report.data)
         payload.setdefault("warnings", report.warnings)
         payload.setdefault("cautions", report.cautions)
-        return json.dumps(payload, indent=2, ensure_ascii=ascii, allow_nan=False) + "\n"
+        payload.setdefault("notes", report_notes(report, units))
+
+        def written(obj):  # a note anywhere in the payload becomes its sentence
+            from ..notes import Note
+
+            if isinstance(obj, Note):
+                return write_note(obj, units)
+            raise TypeError(f"{type(obj).__name__} is not JSON serialisable")
+
+        return json.dumps(payload, indent=2, ensure_ascii=ascii, allow_nan=False, default=written) + "\n"
     if fmt == "csv":
         return _csv(report, units, ascii)
     if fmt in ("text", "markdown"):

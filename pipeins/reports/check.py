@@ -130,22 +130,27 @@ def check_report(spec, result, units: str = "si", extra_rows=(), extra_data=None
         tables.append(Table("Along the run and over time", [Column("item"), Column("value")], list(extra_rows)))
     warnings = list(result.warnings) + list(extra_warnings)
     surface = _f(result.surface_temp_c)
+    from ..notes import note
+
     if result.touch_limit_c is not None and surface > result.touch_limit_c:
-        warnings.append(f"surface {surface:.1f} °C is above the touch limit of {result.touch_limit_c:g} °C")
+        warnings.append(note("surface.above_touch_limit", surface_c=(surface, "temperature"),
+                             limit_c=(result.touch_limit_c, "temperature")))
     air = result.inputs["surroundings"]
     if air.relative_humidity_percent is None:
         if float(np.min(result.inputs["fluid"].temp_c)) < float(np.min(air.air_temp_c)):
-            warnings.append("condensation not checked: the line is colder than the air; give --rh")
+            warnings.append(note("condensation.not_checked.cold_line", what="line"))
         elif surface < float(np.min(air.air_temp_c)):
-            warnings.append(f"condensation not checked: surroundings colder than the air cool the surface to "
-                            f"{surface:.1f} °C, below the air; give --rh")
+            warnings.append(note("condensation.not_checked.cold_surroundings", surface_c=(surface, "temperature")))
     if result.dew_point_c is not None and surface < _f(result.dew_point_c):
-        warnings.append(f"surface {surface:.1f} °C is below the dew point {_f(result.dew_point_c):.1f} °C: "
-                        "it will sweat")
-    warnings = list(dict.fromkeys(warnings))
+        warnings.append(note("surface.below_dew_point", where="surface", surface_c=(surface, "temperature"),
+                             dew_point_c=(_f(result.dew_point_c), "temperature")))
+    from .notes import notes_of, render_all
+
+    items = list(dict.fromkeys(warnings))
+    warnings = render_all(items, units)
     report = Report(title or f"Heat flow check: {pipe.label or 'custom pipe'}", tables,
                     check_data(spec, result, extra_data), warnings,
-                    cautions_for(spec, result), csv_table=1)
+                    cautions_for(spec, result), csv_table=1, notes=notes_of(items))
     report.data["warnings"] = warnings
     report.data["cautions"] = report.cautions
     return report

@@ -21,9 +21,14 @@ from __future__ import annotations
 import string
 from typing import Any, Iterable
 
-from ..notes import Note
+from ..notes import Note, with_subject  # noqa: F401  (with_subject: re-exported)
 
-__all__ = ["TEMPLATES", "render", "render_all", "note_dict", "notes_json"]
+__all__ = ["TEMPLATES", "render", "render_all", "note_dict", "notes_json", "notes_of", "report_notes",
+           "with_subject",
+           "TEXT_CODE"]
+
+#: Code of a warning that a library part still gives as text (no structured note yet).
+TEXT_CODE = "text"
 
 #: Note code → its sentence (see the module docstring for the placeholders).
 TEMPLATES: dict[str, str | dict[str, str]] = {
@@ -31,6 +36,27 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
     "run.freezes": "the fluid cools to its freezing point ({freeze_c:.1f|}) along the run; "
                    "beyond that point the result is not valid",
     "run.needs_fluid": "the temperature change along the run needs the fluid (--fluid)",
+    # a checked line or section (pipeins.reports.check, pipeins.reports.section)
+    "surface.above_touch_limit": "surface {surface_c:.1f|} is above the touch limit of {limit_c:g|}",
+    "surface.below_dew_point": "{where} {surface_c:.1f|} is below the dew point {dew_point_c:.1f|}: it will sweat",
+    "condensation.not_checked.cold_line": "condensation not checked: the {what} is colder than the air; give --rh",
+    "condensation.not_checked.cold_surroundings": "condensation not checked: surroundings colder than the air "
+                                                  "cool the surface to {surface_c:.1f|}, below the air; give --rh",
+    # cautions (pipeins.cautions): where the work can hurt someone
+    "caution.general": ("Results are engineering estimates for the stated steady conditions; real surfaces vary with "
+                        "wind, sun, finish ageing, wet or damaged insulation and workmanship. Local codes, the owner's "
+                        "rules and licensed practice govern."),
+    "caution.hot": ("Hot surface: burn risk depends on surface temperature, material and contact time (ISO 13732-1, "
+                    "ASTM C1055). Guard, label or insulate surfaces people can touch; check bare flanges, valves and "
+                    "supports, which run at the fluid temperature."),
+    "caution.metal_jacket": ("A metal jacket's low emittance makes its surface run hotter than a painted or plastic one "
+                             "at the same thickness, and bare metal burns faster at the same temperature."),
+    "caution.cold": ("Cold line: a continuous, sealed vapour retarder is needed regardless of thickness; without it "
+                     "moisture migrates into the insulation, condenses and ruins it."),
+    "caution.freeze": ("Insulation only delays freezing; it never prevents it. Water that stands long enough in a cold "
+                       "space will freeze unless the pipe is heat-traced or kept flowing."),
+    "caution.code": ("Code minimum thicknesses are from the edition named and may be from memory: the edition adopted "
+                     "locally and its amendments govern; confirm with the authority having jurisdiction."),
 }
 
 
@@ -65,13 +91,15 @@ class _Formatter(string.Formatter):
 
 
 def render(note: Note, units: str = "si") -> str:
-    """The sentence of *note* in the unit system *units* ("si" or "us")."""
+    """The sentence of *note* in the unit system *units* ("si" or "us"), after its subject
+    (``service "chw": …``) when it has one."""
     template = TEMPLATES.get(note.code)
     if template is None:
         raise KeyError(f"no sentence for note code {note.code!r}: add it to pipeins.reports.notes.TEMPLATES")
     if isinstance(template, dict):
         template = template.get(units, template["si"])
-    return _Formatter(note, units).format(template)
+    text = _Formatter(note, units).format(template)
+    return f"{note.subject}: {text}" if note.subject else text
 
 
 def render_all(items: Iterable[Note | str], units: str = "si") -> list[str]:
@@ -87,3 +115,24 @@ def note_dict(note: Note, units: str = "si") -> dict[str, Any]:
 def notes_json(items: Iterable[Note], units: str = "si") -> list[dict[str, Any]]:
     """:func:`note_dict` of each distinct note, in order."""
     return [note_dict(n, units) for n in dict.fromkeys(items)]
+
+
+def notes_of(items: Iterable[Note | str]) -> list[Note]:
+    """The structured notes among *items* (text left out), each once."""
+    return list(dict.fromkeys(x for x in items if isinstance(x, Note)))
+
+
+def report_notes(report, units: str = "si") -> list[dict[str, Any]]:
+    """Every warning of *report* as a JSON note object, in the order of ``report.warnings``:
+    the structured note that renders to it, or ``{"code": "text", "severity": "warning",
+    "text": …}`` for a warning still given as text."""
+    by_text = {}
+    for n in getattr(report, "notes", ()) or ():
+        by_text.setdefault(render(n, units), n)
+    out = []
+    for text in report.warnings:
+        n = by_text.get(text)
+        out.append(note_dict(n, units) if n is not None else {"code": TEXT_CODE, "severity": "warning",
+                                                              "text": text})
+    return out
+

@@ -314,6 +314,10 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
     tables += list(_basis_tables(schedule, units, cur))
 
     footer = [f"units: {units}; currency: {cur or '–'}"]
+    from .notes import notes_of, render_all
+
+    warnings = render_all(schedule.warnings, units)
+    cautions = render_all(schedule.cautions, units)
     bare = sorted({f"{l.bare_surface}, emittance {l.bare_emittance:.2f}" for l in schedule.lines})
     footer.append("bare line: " + "; ".join(bare) + " (no insulation, bare fittings as bare pipe)")
     codes = dict.fromkeys(s.code for s in project.services.values() if s.code and "code" in s.criteria)
@@ -343,8 +347,8 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
             "simple_payback_years": _clean(t.payback_years)},
         "basis": _basis_data(schedule),
         "criteria": schedule.criteria_used,
-        "warnings": schedule.warnings,
-        "cautions": schedule.cautions,
+        "warnings": warnings,
+        "cautions": cautions,
     }
     return Report(f"Insulation schedule: {project.name}", tables, data,
-                  list(schedule.warnings), list(schedule.cautions), footer)
+                  warnings, cautions, footer, notes=notes_of(schedule.warnings))

@@ -218,22 +218,28 @@ def section_report(spec, result, units: str = "si", extra_rows=(), extra_data=No
                             note="the assumptions behind the numbers above"))
     warnings = list(result.warnings) + list(extra_warnings)
     surface = _f(result.surface_temp_c)
+    from ..notes import note
+
     if result.touch_limit_c is not None and surface > result.touch_limit_c:
-        warnings.append(f"surface {surface:.1f} °C is above the touch limit of {result.touch_limit_c:g} °C")
+        warnings.append(note("surface.above_touch_limit", surface_c=(surface, "temperature"),
+                             limit_c=(result.touch_limit_c, "temperature")))
     air = result.inputs["surroundings"]
     if air.relative_humidity_percent is None and float(np.min(result.inputs["fluid"].temp_c)) < float(np.min(air.air_temp_c)):
-        warnings.append("condensation not checked: the section is colder than the air; give --rh")
+        warnings.append(note("condensation.not_checked.cold_line", what="section"))
     if result.dew_point_c is not None and surface < _f(result.dew_point_c):
-        warnings.append(f"coldest surface {surface:.1f} °C is below the dew point {_f(result.dew_point_c):.1f} °C: "
-                        "it will sweat")
+        warnings.append(note("surface.below_dew_point", where="coldest surface", surface_c=(surface, "temperature"),
+                             dew_point_c=(_f(result.dew_point_c), "temperature")))
     if getattr(air, "solar_irradiance_w_m2", None) is not None and air.relative_humidity_percent is not None:
         warnings.append("sun raises the surface only by day: condensation is judged at night, without sun")
-    warnings = list(dict.fromkeys(warnings))
+    from .notes import notes_of, render_all
+
+    items = list(dict.fromkeys(warnings))
+    warnings = render_all(items, units)
     data = check_data(spec, result, extra_data)
     data["line"] = {"kind": result.kind, "section": section_text(result.inputs["pipe"], "si"),
                     **{k: v for k, v in data["line"].items() if k not in ("pipe", "outer_diameter_m")}}
     report = Report(f"Heat flow check: {result.inputs['pipe'].label}", tables, data, warnings,
-                    cautions_for(spec, result), csv_table="all")
+                    cautions_for(spec, result), csv_table="all", notes=notes_of(items))
     report.data["warnings"] = warnings
     report.data["cautions"] = report.cautions
     report.data["basis"] = [{k: b[k] for k in ("name", "value", "unit", "source")} for b in basis_lines]

@@ -149,12 +149,17 @@ def size_report(selection, check, units: str = "si") -> Report:
     if wrap:  # the nominal thickness is the one selected (and sold); the installed one is solved
         data["installed_thickness_mm"] = _mm(selection.material.installed_thickness_m(out.selected_m[0]))
         data["compression_percent"] = selection.material.compression_percent
-    warnings = list(dict.fromkeys(list(selection.notes) + list(out.messages[0]) + list(check.warnings)))
+    from .notes import notes_of, render_all
+
+    items = list(dict.fromkeys(list(selection.notes) + list(out.messages[0])))
+    warnings = list(dict.fromkeys(render_all(items, units) + list(check.warnings)))
+    notes = notes_of(items + list(check.notes))
     data["warnings"] = warnings
     cautions = _cautions(selection)
     data["cautions"] = cautions
     title = f"Insulation sizing: {selection.sizes[0].label}, {selection.material.name}"
-    return traced_alternative(Report(title, tables, data, warnings, cautions, footer, csv_table=0), selection, units)
+    return traced_alternative(Report(title, tables, data, warnings, cautions, footer, csv_table=0, notes=notes),
+                              selection, units)
 
 
 def conditions_footer(selection, units: str) -> list[str]:
@@ -218,17 +223,20 @@ def table_report(selection, units: str = "si") -> Report:
             "inner_layer": inner,
             "messages": out.messages[i],
         })
-    warnings = list(selection.notes)
+    from .notes import notes_of, render_all, with_subject
+
+    items = list(selection.notes)
     for i, size in enumerate(selection.sizes):
-        warnings += [f"{size.label}: {m}" for m in out.messages[i]]
-    warnings = list(dict.fromkeys(warnings + list(out.result.warnings)))
+        items += [with_subject(m, size.label) for m in out.messages[i]]
+    items = list(dict.fromkeys(items + list(out.result.warnings)))
+    warnings = render_all(items, units)
     cautions = _cautions(selection)
     footer = conditions_footer(selection, units)
     title = f"Thickness table: {selection.material.name}, {selection.sizes[0].label} to {selection.sizes[-1].label}"
     data = {"rows": json_rows, "criteria": keys, "material": selection.material.name,
             "series": selection.series_name, "conditions": footer, "warnings": warnings, "cautions": cautions}
     return traced_alternative(Report(title, [Table("Thickness per size", columns, rows)], data, warnings, cautions,
-                                     footer), selection, units)
+                                     footer, notes=notes_of(items)), selection, units)
 
 
 def matrix_report(selection, quantity: str, units: str = "si") -> Report:

@@ -25,9 +25,9 @@ def verification_report(outcomes):
     one table of the checks, the JSON payload ``{"pipeins_version", "checks", "passed",
     "failed"}`` and the basis (full citations, what "from memory" means, the caution).
     Usable as an appendix by other reports."""
-    from . import __version__
-    from .reports import Column, Report, Table
-    from .verification import REFERENCES
+    from .. import __version__
+    from ..verification import REFERENCES
+    from . import Column, Report, Table
 
     columns = [Column(h) for h in ("check", "source", "quantity", "unit", "published", "pipeins",
                                    "deviation", "tolerance", "result")]
