@@ -44,7 +44,8 @@ class CostStudy:
     installed_cost: float | None = None
     payback_years: float | None = None
     curve: EconomicCurve | None = None
-    warnings: list[str] = field(default_factory=list)
+    #: Texts and notes (:class:`pipeins.notes.Note`; the report writes them in its units).
+    warnings: list = field(default_factory=list)
     #: The surface a table per m² is priced on [m² per m of run, per vessel]; None per metre.
     area_m2_per_unit: float | None = None
 
@@ -143,8 +144,9 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
     study.profile = profile
     study.whole_vessel = whole
     if fit_len and spec.layers:
-        study.warnings.append(f"bare fittings count as {fit_len:.1f} m of bare pipe; insulating them "
-                              "(removable covers) saves most of their share")
+        from .notes import note
+
+        study.warnings.append(note("cost.bare_fittings", length_m=(fit_len, "length")))
     if table is not None and spec.layers:
         total_t = sum(float(np.max(l[1])) for l in spec.layers)  # nominal: as sold and priced
         area = None

@@ -18,6 +18,7 @@ from pipeins.reports.notes import TEMPLATES, note_dict, notes_json, render, rend
 EXAMPLES = {
     "run.freezes": note("run.freezes", freeze_c=(-0.3, "temperature")),
     "run.needs_fluid": note("run.needs_fluid"),
+    "cost.bare_fittings": note("cost.bare_fittings", length_m=(12.34, "length")),
     "surface.above_touch_limit": note("surface.above_touch_limit", surface_c=(71.23, "temperature"),
                                       limit_c=(60.0, "temperature")),
     "surface.below_dew_point": note("surface.below_dew_point", where="surface", surface_c=(12.0, "temperature"),
@@ -113,6 +114,12 @@ def test_caution_notes_keep_the_report_order_and_sentences():
     assert all(n.severity == "caution" for n in picked) and set(EXAMPLES) >= set(CAUTION_CODES)
     assert cautions([180.0], [20.0]) == [HOT, GENERAL]
     assert GENERAL.endswith("Local codes, the owner's rules and licensed practice govern.")
+
+
+def test_bare_fittings_length_in_metres_and_feet():
+    n = EXAMPLES["cost.bare_fittings"]
+    assert render(n, "si").startswith("bare fittings count as 12.3 m of bare pipe;")
+    assert render(n, "us").startswith(f"bare fittings count as {12.34 / 0.3048:.1f} ft of bare pipe;")  # NIST SP 811
 
 
 def test_touch_and_dew_point_sentences_in_si_keep_their_wording_and_us_says_fahrenheit():

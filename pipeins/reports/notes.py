@@ -36,6 +36,9 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
     "run.freezes": "the fluid cools to its freezing point ({freeze_c:.1f|}) along the run; "
                    "beyond that point the result is not valid",
     "run.needs_fluid": "the temperature change along the run needs the fluid (--fluid)",
+    # costs (pipeins.costing)
+    "cost.bare_fittings": "bare fittings count as {length_m:.1f|} of bare pipe; insulating them "
+                          "(removable covers) saves most of their share",
     # a checked line or section (pipeins.reports.check, pipeins.reports.section)
     "surface.above_touch_limit": "surface {surface_c:.1f|} is above the touch limit of {limit_c:g|}",
     "surface.below_dew_point": "{where} {surface_c:.1f|} is below the dew point {dew_point_c:.1f|}: it will sweat",
