@@ -127,7 +127,8 @@ class EconomicCurve:
     energy_pv: np.ndarray
     total: np.ndarray
     best_index: int
-    warnings: list[str] = field(default_factory=list)
+    #: Notes (:class:`pipeins.notes.Note`) of the economic search, e.g. ``economic.at_thickest``.
+    warnings: list = field(default_factory=list)
     per: str = "m"
     area_m2_per_unit: float | None = None
 

@@ -454,7 +454,9 @@ class EconomicResult:
     """Life-cycle cost curve over candidate thicknesses (last axis) and the cheapest one.
 
     Money per metre of pipe, present value over the evaluation period.  ``warnings`` holds
-    one-line notes, e.g. when the cheapest candidate is the thickest one given.
+    structured notes (:class:`pipeins.notes.Note`: ``economic.at_thickest`` and
+    ``economic.at_thinnest`` when the cheapest candidate is the thickest or thinnest one
+    given; :mod:`pipeins.reports.notes` writes them).
     """
 
     thickness_m: np.ndarray
@@ -464,7 +466,7 @@ class EconomicResult:
     total_per_m: np.ndarray
     best_index: np.ndarray
     present_worth_factor: np.ndarray
-    warnings: tuple[str, ...] = ()
+    warnings: tuple = ()
 
     @property
     def best_thickness_m(self) -> np.ndarray:
@@ -550,10 +552,12 @@ def economic_thickness(
     best = np.argmin(total, axis=-1)
     warnings = []
     if t.size > 1:
+        from .notes import note
+
         if np.any(best == t.size - 1):
-            warnings.append(f"the cheapest candidate is the thickest given ({t[-1] * 1000:g} mm); the optimum may be thicker")
+            warnings.append(note("economic.at_thickest", thickness_m=(float(t[-1]), "thickness")))
         if np.any(best == 0) and t[0] > 0:
-            warnings.append(f"the cheapest candidate is the thinnest given ({t[0] * 1000:g} mm); the optimum may be thinner")
+            warnings.append(note("economic.at_thinnest", thickness_m=(float(t[0]), "thickness")))
     return EconomicResult(
         thickness_m=t,
         installed_cost_per_m=installed.copy(),

@@ -20,6 +20,7 @@ from pipeins.economics import (
     simple_payback_years,
 )
 from pipeins.errors import InputError
+from pipeins.reports.notes import render
 
 UREG = pint.UnitRegistry()
 DEMO_COSTS = Path(__file__).resolve().parents[1] / "examples" / "costs_demo.csv"
@@ -305,10 +306,14 @@ def test_economic_thickness_per_size_rows_and_edge_warning():
     assert result.best_index.tolist() == expected == [0, 2]
     np.testing.assert_allclose(result.best_thickness_m, [0.025, 0.075])
     assert result.best_total_per_m.shape == (2,)
-    assert result.warnings == (
+    assert [w.code for w in result.warnings] == ["economic.at_thickest", "economic.at_thinnest"]
+    assert [render(w, "si") for w in result.warnings] == [
         "the cheapest candidate is the thickest given (75 mm); the optimum may be thicker",
         "the cheapest candidate is the thinnest given (25 mm); the optimum may be thinner",
-    )
+    ]
+    # in inches in a US report (NIST SP 811: 1 in = 25.4 mm exactly)
+    assert render(result.warnings[0], "us") == ("the cheapest candidate is the thickest given "
+                                                f"({0.075 / 0.0254:.2f} in); the optimum may be thicker")
 
 
 def test_economic_thickness_errors():

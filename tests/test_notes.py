@@ -19,6 +19,8 @@ EXAMPLES = {
     "run.freezes": note("run.freezes", freeze_c=(-0.3, "temperature")),
     "run.needs_fluid": note("run.needs_fluid"),
     "cost.bare_fittings": note("cost.bare_fittings", length_m=(12.34, "length")),
+    "economic.at_thickest": note("economic.at_thickest", thickness_m=(0.075, "thickness")),
+    "economic.at_thinnest": note("economic.at_thinnest", thickness_m=(0.0381, "thickness")),
     "surface.above_touch_limit": note("surface.above_touch_limit", surface_c=(71.23, "temperature"),
                                       limit_c=(60.0, "temperature")),
     "surface.below_dew_point": note("surface.below_dew_point", where="surface", surface_c=(12.0, "temperature"),
@@ -114,6 +116,13 @@ def test_caution_notes_keep_the_report_order_and_sentences():
     assert all(n.severity == "caution" for n in picked) and set(EXAMPLES) >= set(CAUTION_CODES)
     assert cautions([180.0], [20.0]) == [HOT, GENERAL]
     assert GENERAL.endswith("Local codes, the owner's rules and licensed practice govern.")
+
+
+def test_economic_edge_thickness_in_mm_as_before_and_inches():
+    # the SI sentence as pipeins.economics wrote it before the notes (f"{t * 1000:g} mm")
+    for code, t in (("economic.at_thickest", 0.075), ("economic.at_thinnest", 0.0381)):
+        assert f"({t * 1000:g} mm)" in render(EXAMPLES[code], "si")
+    assert "(1.50 in)" in render(EXAMPLES["economic.at_thinnest"], "us")  # 38.1 mm = 1.5 in, NIST SP 811
 
 
 def test_bare_fittings_length_in_metres_and_feet():

@@ -39,6 +39,11 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
     # costs (pipeins.costing)
     "cost.bare_fittings": "bare fittings count as {length_m:.1f|} of bare pipe; insulating them "
                           "(removable covers) saves most of their share",
+    # the economic thickness (pipeins.economics)
+    "economic.at_thickest": "the cheapest candidate is the thickest given ({thickness_m:g|}); "
+                            "the optimum may be thicker",
+    "economic.at_thinnest": "the cheapest candidate is the thinnest given ({thickness_m:g|}); "
+                            "the optimum may be thinner",
     # a checked line or section (pipeins.reports.check, pipeins.reports.section)
     "surface.above_touch_limit": "surface {surface_c:.1f|} is above the touch limit of {limit_c:g|}",
     "surface.below_dew_point": "{where} {surface_c:.1f|} is below the dew point {dew_point_c:.1f|}: it will sweat",
