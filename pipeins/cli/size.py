@@ -115,7 +115,7 @@ def _size_over_conditions(under, material, req, series, units, code, economic, c
     from ..reports.check import check_report
     from ..reports.conditions import add_size_conditions
     from ..reports.sizing import CRITERION_OPTIONS, size_report
-    from ..runs import run_extras
+    from ..reports.extras import run_extras
     from .condition_options import select_under_conditions
 
     conds = [c for c, _ in under]
