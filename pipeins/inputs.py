@@ -207,6 +207,21 @@ PARAMS: tuple[Param, ...] = (
     Param("valves", "--valves", "valves", _L, "count", "bare valves on the run", "0"),
     Param("flanges", "--flanges", "flanges", _L, "count", "bare flange pairs on the run", "0"),
     Param("strainers", "--strainers", "strainers", _L, "count", "bare strainers on the run", "0"),
+    # -- fittings as objects and their covers (pipeins.fittings, pipeins.schedule_fittings) ----
+    Param("valve", "--valve", "valve", _L, "list", "valves and strainers on the line as objects, each "
+          "KIND[:SIZE[:CLASS]] (gate, globe, ball, butterfly, check, strainer; the size defaults to the line's): "
+          "solved bare and covered in their own schedule section", "none"),
+    Param("flange", "--flange", "flange", _L, "list", "flanged joints on the line as objects, each [SIZE][:CLASS] "
+          "(the size defaults to the line's)", "none"),
+    Param("cover", "--cover", "cover", _L, "text", "removable cover of the line's listed fittings, "
+          "MATERIAL:THICKNESS", "bare"),
+    # -- design conductivity (pipeins.user_materials) -----------------------------------------
+    Param("ageing_percent", "--ageing-factor", "ageing_factor", _S, "percent", "design-conductivity allowance "
+          "for ageing [%] (the service's material)", "0 %", 0.0, 200.0),
+    Param("moisture_percent", "--moisture-factor", "moisture_factor", _S, "percent", "design-conductivity "
+          "allowance for moisture in service [%]", "0 %", 0.0, 200.0),
+    Param("joints_percent", "--joints-factor", "joints_factor", _S, "percent", "design-conductivity allowance "
+          "for joints and gaps [%]", "0 %", 0.0, 200.0),
 )
 
 BY_NAME = {p.name: p for p in PARAMS}
@@ -239,15 +254,9 @@ CLI_ONLY = {
     "--twin-casing": "a supply and a return in one buried casing (pipeins.twin_casing), checked one pair at a time",
     "--casing-insulation": "the insulation of a twin casing (pipeins.twin_casing), checked one pair at a time",
     "--return-temp": "two buried pipes in one trench, checked one pair at a time; not yet a project-file input",
-    "--ageing-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
-    "--moisture-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
-    "--joints-factor": "design conductivity of one checked line (pipeins.user_materials); not yet a project-file input",
     "--ducts": "a table's duct sizes; the project file lists its lines, each with its size",
     "--materials": "a user's materials file for one checked line (pipeins.user_materials); a project names its "
                    "own with [project] materials_file",
-    "--valve": "fittings as objects on one line (pipeins.fittings); a project line counts valves (equivalent lengths)",
-    "--flange": "fittings as objects on one line (pipeins.fittings); a project line counts flanges (equivalent lengths)",
-    "--cover": "removable covers of one line's fittings (pipeins.fittings); not yet a project-file input",
 }
 #: Project-file keys with no command-line option, and why.
 FILE_ONLY = {

@@ -271,6 +271,8 @@ def read_line_list(path, keys, columns: dict | None = None, sheet: str | None = 
         needed.remove("size")  # a pipe by its dimensions, or a duct, face or vessel
     if any(k in first_col for k in ("face", "vessel", "sphere")):
         needed.remove("length")  # a face has its area, a vessel its count (the rows say what they need)
+    if "conditions" in first_col:
+        needed.remove("condition")  # several design conditions per row, "summer; winter" (the rows say)
     for key in needed:
         if key not in first_col and key not in columns:
             listed = ", ".join(f'"{h}"' for h in headers if h)

@@ -241,6 +241,10 @@ class Line:
     area_m2: float | None = None   # a face's area [m²]
     count: int | None = None       # a vessel line's number of identical vessels
     table: str = "lines"           # the table it was given in
+    #: Fittings listed as objects (pipeins.catalog.fittings.Fitting) and their cover
+    #: (material, thickness [m]) or None: pipeins.schedule_fittings.
+    fitting_objects: tuple = ()
+    cover: tuple | None = None
 
     @property
     def quantity(self) -> float:
@@ -434,6 +438,12 @@ class _Reader:
         raw = table[key]
         if param.kind == "text":
             return self.text_value(table, key, path, entry, default)
+        if param.kind == "list":   # a list of texts, or one text of items split by ";" (a line list's cell)
+            items = raw.split(";") if isinstance(raw, str) else raw
+            if not isinstance(items, list) or not all(isinstance(x, str) for x in items):
+                self.problem(path, entry, key, f'{key} must be a list of texts, e.g. {key} = ["…", "…"]')
+                return default
+            return tuple(x.strip() for x in items if x.strip())
         if param.kind not in ("count", "choice") and (isinstance(raw, bool) or not isinstance(raw, (str, int, float))):
             self.problem(path, entry, key, f"{key} must be a number or text with a unit, e.g. {key} = \"…\"")
             return default
@@ -792,7 +802,13 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
     if material is not None:
         from .catalog.materials import lookup_material
 
-        r.guard(p, entry, "material", lookup_material, material)
+        found = r.guard(p, entry, "material", lookup_material, material)
+        factors = {k: v[k] for k in ("ageing_percent", "moisture_percent", "joints_percent") if k in v}
+        if found is not None and factors:   # the design conductivity (pipeins.user_materials)
+            from .user_materials import DesignFactors, register_design_material
+
+            material = r.guard(p, entry, "ageing_factor", lambda: register_design_material(
+                found, DesignFactors(**factors)))
     finish = r.text_value(table, "finish", p, entry)
     if finish is not None:
         from .catalog.finishes import lookup_finish
@@ -978,6 +994,19 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
         for fitting, n in fittings.items():
             if n:
                 r.cached(p, entry, fitting + "s", equivalent_length_m, fitting, size.outer_diameter_m)
+    objects, cover = (), None
+    if any(k in v for k in ("valve", "flange", "cover")):   # fittings as objects (pipeins.schedule_fittings)
+        from .schedule_fittings import parse_line_fittings
+
+        try:
+            if kind != "pipe":
+                raise InputError(next(k for k in ("valve", "flange", "cover") if k in v),
+                                 "fittings as objects are listed on pipe lines")
+            if size is not None:
+                objects, cover = parse_line_fittings(v.get("valve"), v.get("flange"), v.get("cover"), size.label,
+                                                     r.units)
+        except InputError as exc:
+            r.problem(p, entry, exc.name if exc.name in ("valve", "flange", "cover") else "valve", exc.message)
     section = ()
     if kind != "pipe" and len(r.problems) == before:
         section, size = _section_of(r, p, entry, kind, table, v, service)
@@ -993,7 +1022,7 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
         cname = _line_condition(conditions, cname, table, v, top)
     length = v["length_m"] if top == "lines" else None
     return Line(index, tag, sname, size, length, cname, fittings, r.pos.header(p), kind, section,
-                v.get("area_m2"), v.get("count", 1) if top == "vessels" else None, top)
+                v.get("area_m2"), v.get("count", 1) if top == "vessels" else None, top, objects, cover)
 
 
 #: The LineSpec fields of a section, by kind, from the item's values.
@@ -1127,6 +1156,8 @@ def _criteria_list(r: _Reader, table: dict, key: str, p: tuple, entry: str) -> t
 def _condition_list(r: _Reader, table: dict, p: tuple, entry: str, raw_conditions) -> tuple:
     """The names of a service's or line's ``conditions = [...]`` (unknown ones reported)."""
     items = table["conditions"]
+    if isinstance(items, str):   # a line list's cell: "summer; winter"
+        items = [x.strip() for x in items.split(";") if x.strip()]
     if not isinstance(items, list) or not items or not all(isinstance(x, str) and x for x in items):
         r.problem(p, entry, "conditions", 'conditions must be a list of [conditions.NAME] names, e.g. '
                                           'conditions = ["summer", "winter"]')

@@ -207,6 +207,8 @@ class Schedule:
     #: The cautions that apply (:class:`pipeins.notes.Note`, severity "caution"; the report writes them).
     cautions: list = field(default_factory=list)
     criteria_used: dict = field(default_factory=dict)   # service -> criterion descriptions
+    #: The fittings listed as objects, bare and covered (pipeins.schedule_fittings.FittingsSchedule).
+    fittings: Any = None
 
 
 def _size_order(size) -> tuple:
@@ -260,6 +262,10 @@ def compute_schedule(project: Project, progress=None) -> Schedule:
 
     with materials_in_use(getattr(project, "materials", None)), paused_gc():
         out = _compute_schedule(project, progress or (lambda stage, done, total: None))
+        from .schedule_fittings import schedule_fittings   # fittings listed as objects, apart from the pipe
+
+        out.fittings = schedule_fittings(project, project.lines)
+        out.warnings += [w for w in out.fittings.warnings if w not in out.warnings]
     out.warnings[:0] = [w for w in getattr(project, "materials_warnings", ()) if w not in out.warnings]
     return out
 

@@ -160,13 +160,33 @@ def design_material(material, factors: DesignFactors):
                    points=tuple((t, k * f) for t, k in material.points))
 
 
+def named_design_material(material, factors: DesignFactors):
+    """*material* at its design conductivity for a project service: the declared points times
+    ``factors.factor``, its key and name saying the basis (``design ×1.155: mineral wool pipe
+    section (ageing 10 %, moisture 5 %)``) so that every report names it; *material* itself when
+    every factor is 0."""
+    f = factors.factor
+    if f == 1.0:
+        return material
+    parts = [f"{word} {value:g} %" for word, value in (("ageing", factors.ageing_percent),
+                                                        ("moisture", factors.moisture_percent),
+                                                        ("joints", factors.joints_percent)) if value]
+    basis = f"{', '.join(parts)}"
+    # the name starts with "design", so that the plain name ("mineral wool") never finds it by its leading words
+    return replace(material, key=f"design ×{f:.4g}: {material.key} ({basis})",
+                   name=f"design ×{f:.4g}: {material.name} ({basis})",
+                   points=tuple((t, k * f) for t, k in material.points),
+                   source=f"{material.source}; declared conductivity × {f:.4g} ({DESIGN_FACTOR_BASIS})")
+
+
 @contextlib.contextmanager
 def materials_in_use(materials: dict | None = None, factors: DesignFactors | None = None):
     """Within the block, material names find *materials* (a user file's) before the
     catalogue, and every material found carries the design *factors*."""
     from .catalog import materials as catalogue
 
-    users = dict(materials or {})
+    global _ACTIVE
+    users = materials if materials is not None else {}   # the caller's dict: design materials join it
 
     def hook(spec, option):
         found = catalogue._match(spec, users) if users else None
@@ -174,12 +194,29 @@ def materials_in_use(materials: dict | None = None, factors: DesignFactors | Non
             found = catalogue._lookup(spec, option)
         return found if factors is None else design_material(found, factors)
 
-    previous = catalogue._HOOK
-    catalogue._HOOK = hook
+    previous, previous_active = catalogue._HOOK, _ACTIVE
+    catalogue._HOOK, _ACTIVE = hook, users
     try:
         yield
     finally:
-        catalogue._HOOK = previous
+        catalogue._HOOK, _ACTIVE = previous, previous_active
+
+
+#: The user materials of the innermost :func:`materials_in_use` block (None outside one).
+_ACTIVE = None
+
+
+def register_design_material(material, factors: DesignFactors) -> str:
+    """A service's design material (:func:`named_design_material`) put among the materials in
+    use (a project's, with its ``materials_file``), so that its name finds it; returns that name
+    (the material's own name when every factor is 0)."""
+    derived = named_design_material(material, factors)
+    if derived is material:
+        return material.name
+    if _ACTIVE is None:
+        raise InputError("ageing_percent", "design factors of a service need the project's materials in use")
+    _ACTIVE[derived.key] = derived
+    return derived.key
 
 
 def project_materials(text: str, file_name: str, base_dir, data: dict | None = None) -> tuple[dict, list[str], str | None]:

@@ -29,7 +29,9 @@ CSV_NAMES = {"Insulation schedule": "schedule.csv", "Lines": "lines.csv", "Faces
 
 def csv_files(report) -> list[tuple[str, Table]]:
     """``(file name, table)`` of every table of a schedule report, in order."""
-    return [(CSV_NAMES[t.title], t) for t in report.tables]
+    from .schedule_fittings import CSV_NAMES as FITTINGS
+
+    return [({**CSV_NAMES, **FITTINGS}[t.title], t) for t in report.tables]
 
 
 def _governing(key, condition=None):
@@ -311,6 +313,9 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
     t = schedule.totals
     if t.payback_lines or t.lines_left_out:
         tables.append(_investment_table(schedule, cur))
+    from .schedule_fittings import fittings_data, fittings_tables   # fittings as objects, apart from the pipe
+
+    tables += fittings_tables(getattr(schedule, "fittings", None), units)
     tables += list(_basis_tables(schedule, units, cur))
 
     footer = [f"units: {units}; currency: {cur or '–'}"]
@@ -345,6 +350,7 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
             "lines": list(t.payback_lines), "left_out": list(t.lines_left_out),
             "installed_cost": _clean(t.installed_cost), "cost_saving_per_year": _clean(t.cost_saving),
             "simple_payback_years": _clean(t.payback_years)},
+        "fittings": fittings_data(getattr(schedule, "fittings", None)),
         "basis": _basis_data(schedule),
         "criteria": schedule.criteria_used,
         "warnings": warnings,

@@ -1,0 +1,45 @@
+"""The schedule's section of fittings listed as objects (pipeins.schedule_fittings): each fitting
+bare and covered, and their own totals, apart from the pipe."""
+
+from __future__ import annotations
+
+from . import Column, Table
+
+__all__ = ["fittings_tables", "fittings_data", "CSV_NAMES"]
+
+#: The CSV file of each table in a ``--format csv`` folder.
+CSV_NAMES = {"Fittings": "fittings.csv", "Fittings totals": "fittings_totals.csv"}
+
+NOTE = ("Each fitting solved as a short horizontal cylinder of its flange outside diameter and bare area, at the "
+        "line's fluid temperature and location (in the manner of ASTM C1129); the cover is one layer of the given "
+        "material and thickness over it. Heat flow positive = lost by the fluid, negative = gained. These fittings "
+        "are not in the lines' heat flows; counted fittings (valves = 2) still are, as bare pipe.")
+
+
+def fittings_tables(fittings, units: str) -> list[Table]:
+    """The "Fittings" and "Fittings totals" tables of a
+    :class:`pipeins.schedule_fittings.FittingsSchedule` (none when no line lists fittings)."""
+    if fittings is None or not fittings.items:
+        return []
+    rows = [[f.tag, f.service, f.condition, f.label, f.area_m2, f.heat_flow_w, f.surface_temp_c, f.cover or "none",
+             f.covered_heat_flow_w, f.covered_surface_temp_c, f.saving_w] for f in fittings.items]
+    table = Table("Fittings", [
+        Column("line"), Column("service"), Column("location"), Column("fitting"), Column("bare area", "area"),
+        Column("bare heat flow", "power"), Column("bare surface", "temperature"), Column("cover"),
+        Column("covered heat flow", "power"), Column("cover surface", "temperature"), Column("saving", "power")],
+        rows, note=NOTE)
+    t = fittings.totals
+    totals = Table("Fittings totals", [Column("quantity"), Column("bare", "power"), Column("as installed", "power"),
+                                       Column("saving", "power")],
+                   [["heat loss", t.bare_heat_loss_w, t.installed_heat_loss_w, t.saving_heat_loss_w],
+                    ["heat gain", t.bare_heat_gain_w, t.installed_heat_gain_w, t.saving_heat_gain_w]],
+                   note=f"{t.count} fittings, {t.covered_count} of them covered; as installed = covered where a "
+                        "cover is given, bare where not; losses and gains apart, never netted")
+    return [table, totals]
+
+
+def fittings_data(fittings) -> dict | None:
+    """The JSON of the fittings section (SI), or None when no line lists fittings."""
+    if fittings is None or not fittings.items:
+        return None
+    return {"items": [f.to_dict() for f in fittings.items], "totals": fittings.totals.to_dict(), "method": NOTE}
