@@ -139,6 +139,7 @@ def schedule_fittings(project, lines) -> FittingsSchedule:
     from .model import Fluid, Layer, Pipe
     from .schedule import _spec
     from .solve import solve
+    from .units import format_quantity
 
     out = FittingsSchedule()
     groups: dict[tuple, list] = {}
@@ -195,7 +196,8 @@ def schedule_fittings(project, lines) -> FittingsSchedule:
                         "enough to stay above the dew point")
         for j, (i, f) in enumerate(rows):
             line = members[i]
-            cover = None if line.cover is None else f"{lookup_material(line.cover[0]).name} {line.cover[1] * 1000:g} mm"
+            cover = None if line.cover is None else (
+                f"{lookup_material(line.cover[0]).name} {format_quantity(line.cover[1], 'thickness', project.units)}")
             covered = None if line.cover is None else float(q_cov[j])
             out.items.append(ScheduleFitting(line.tag, sname, cname, f.label, f.kind, f.size, f.pressure_class,
                                              float(f.area_m2), float(q_bare[j]), float(t_bare[j]), cover, covered,
