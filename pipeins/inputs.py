@@ -175,10 +175,15 @@ PARAMS: tuple[Param, ...] = (
           "", 0.0, None, True),
     Param("ice_fraction", "--ice-fraction", "ice_fraction", _S, "fraction", "with hold_time: the ice fraction "
           "allowed to form [%]", "0 %", 0.0, 1.0),
-    Param("tracer_output_w_per_m", "--tracer-output", None, (), "heat_flow_per_length",
-          "a heat tracer's output at the maintain temperature [W/m]", "", 0.0, None, True),
-    Param("safety_factor_percent", "--safety-factor", None, (), "percent",
+    Param("tracer_output_w_per_m", "--tracer-output", "tracer_output", _S, "heat_flow_per_length",
+          "a heat tracer's output at the maintain temperature [W/m] (in the file: compared with the design heat "
+          "loss of each traced line)", "", 0.0, None, True),
+    Param("safety_factor_percent", "--safety-factor", "safety_factor", _S, "percent",
           "safety factor on the heat loss a tracer makes up [%]", "20 %", 0.0, 100.0),
+    Param("maintain_temp_c", "--maintain-temp", "maintain_temp", _S, "temperature", "heat tracing: the "
+          "temperature the tracer holds [°C]; gives each line's design heat loss (pipeins.tracing)", "not traced"),
+    Param("min_ambient_c", "--min-ambient", "min_ambient", _S, "temperature", "heat tracing: the minimum design "
+          "ambient [°C]", "the location's air"),
     Param("code", "--code", "code", ("project", "services"), "text", "code-minimum rule set "
           "(see `pipeins list rules`)", "none"),
     Param("code_table", "--code-table", "code_tables", ("project",), "path", "extra rule-set CSV files", "none"),
@@ -242,10 +247,6 @@ CLI_ONLY = {
     "--ascii": "how the console draws one command's text output (plain ASCII rules); not part of a project",
     "--condition": "several design conditions of one line sized on the command line; a project file names its "
                    "[conditions.NAME] tables and a service's or line's conditions list",
-    "--tracer-output": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
-    "--safety-factor": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
-    "--maintain-temp": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
-    "--min-ambient": "heat tracing of one line (pipeins.tracing); not yet a project-file input",
     "--buried": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
     "--soil-k": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
     "--soil": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",

@@ -196,6 +196,9 @@ class Service:
     base: str | None = None    # the service a line's overrides derive this one from
     thickness_m: float | None = None   # a line's given thickness: checked, not sized
     entry: str | None = None           # where a derived service comes from ("lines entry 3")
+    #: Heat tracing of its lines, ((parameter, value), …) of maintain_temp_c, min_ambient_c,
+    #: safety_factor_percent, tracer_output_w_per_m as given, or None: pipeins.schedule_tracing.
+    tracing: Any = None
     sheet: str | None = None           # sheet metal of a duct, face or vessel wall
     fluid_given: bool = True           # False: the fluid is the default (water; air in a duct)
 
@@ -878,6 +881,10 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
 
         if r.guard(p, entry, "fluid", normalise_fluid, fluid) not in ("water", None):
             r.problem(p, entry, "hold_time", "the freeze hold time is for water lines only")
+    tracing = {k: v[k] for k in ("maintain_temp_c", "min_ambient_c", "safety_factor_percent", "tracer_output_w_per_m")
+               if k in v} or None   # heat tracing of the service's lines (pipeins.schedule_tracing)
+    if tracing is not None and "maintain_temp_c" not in tracing:
+        r.problem(p, entry, file_word(next(iter(tracing))), "is a heat-tracing input: give maintain_temp too")
     if len(r.problems) > ok_before:
         return None
     # every requirement the service gives, then only its criteria asked for
@@ -887,7 +894,8 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
                    scode if "code" in criteria else None, senergy, scost, r.pos.header(p),
                    emittance=v.get("emittance"), pipe_material=pipe_material, velocity_m_s=v.get("velocity_m_s"),
                    inner_h_w_m2k=v.get("inner_h_w_m2k"), sheet=v.get("sheet"),
-                   fluid_given="fluid" in table or "steam_pressure" in table)
+                   fluid_given="fluid" in table or "steam_pressure" in table,
+                   tracing=tuple(tracing.items()) if tracing else None)
 
 
 def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict, raw_services, raw_conditions,

@@ -209,6 +209,8 @@ class Schedule:
     criteria_used: dict = field(default_factory=dict)   # service -> criterion descriptions
     #: The fittings listed as objects, bare and covered (pipeins.schedule_fittings.FittingsSchedule).
     fittings: Any = None
+    #: The traced lines' design heat loss (pipeins.schedule_tracing.TracingSchedule).
+    tracing: Any = None
 
 
 def _size_order(size) -> tuple:
@@ -266,6 +268,12 @@ def compute_schedule(project: Project, progress=None) -> Schedule:
 
         out.fittings = schedule_fittings(project, project.lines)
         out.warnings += [w for w in out.fittings.warnings if w not in out.warnings]
+        from .schedule_tracing import schedule_tracing   # the design heat loss of traced services' lines
+
+        out.tracing = schedule_tracing(project, out.lines)
+        if out.tracing.problems:
+            raise ProjectError(out.tracing.problems)
+        out.warnings += [w for w in out.tracing.warnings if w not in out.warnings]
     out.warnings[:0] = [w for w in getattr(project, "materials_warnings", ()) if w not in out.warnings]
     return out
 

@@ -313,9 +313,10 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
     t = schedule.totals
     if t.payback_lines or t.lines_left_out:
         tables.append(_investment_table(schedule, cur))
-    from .schedule_fittings import fittings_data, fittings_tables   # fittings as objects, apart from the pipe
+    from .schedule_fittings import fittings_data, fittings_tables, tracing_data, tracing_tables
 
-    tables += fittings_tables(getattr(schedule, "fittings", None), units)
+    tables += fittings_tables(getattr(schedule, "fittings", None), units)   # fittings as objects, apart from the pipe
+    tables += tracing_tables(getattr(schedule, "tracing", None), units)     # traced lines' design heat loss
     tables += list(_basis_tables(schedule, units, cur))
 
     footer = [f"units: {units}; currency: {cur or '–'}"]
@@ -351,6 +352,7 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
             "installed_cost": _clean(t.installed_cost), "cost_saving_per_year": _clean(t.cost_saving),
             "simple_payback_years": _clean(t.payback_years)},
         "fittings": fittings_data(getattr(schedule, "fittings", None)),
+        "tracing": tracing_data(getattr(schedule, "tracing", None)),
         "basis": _basis_data(schedule),
         "criteria": schedule.criteria_used,
         "warnings": warnings,

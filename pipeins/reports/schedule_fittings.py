@@ -1,14 +1,15 @@
-"""The schedule's section of fittings listed as objects (pipeins.schedule_fittings): each fitting
-bare and covered, and their own totals, apart from the pipe."""
+"""The schedule's field sections: fittings listed as objects (pipeins.schedule_fittings), each
+bare and covered with their own totals apart from the pipe, and the traced lines' design heat
+loss (pipeins.schedule_tracing)."""
 
 from __future__ import annotations
 
 from . import Column, Table
 
-__all__ = ["fittings_tables", "fittings_data", "CSV_NAMES"]
+__all__ = ["fittings_tables", "fittings_data", "tracing_tables", "tracing_data", "CSV_NAMES"]
 
 #: The CSV file of each table in a ``--format csv`` folder.
-CSV_NAMES = {"Fittings": "fittings.csv", "Fittings totals": "fittings_totals.csv"}
+CSV_NAMES = {"Fittings": "fittings.csv", "Fittings totals": "fittings_totals.csv", "Heat tracing": "tracing.csv"}
 
 NOTE = ("Each fitting solved as a short horizontal cylinder of its flange outside diameter and bare area, at the "
         "line's fluid temperature and location (in the manner of ASTM C1129); the cover is one layer of the given "
@@ -43,3 +44,32 @@ def fittings_data(fittings) -> dict | None:
     if fittings is None or not fittings.items:
         return None
     return {"items": [f.to_dict() for f in fittings.items], "totals": fittings.totals.to_dict(), "method": NOTE}
+
+
+TRACING_NOTE = ("Each traced line solved with the fluid still at the maintain temperature, the air and radiant "
+                "surroundings at the minimum design ambient, the location's wind, at its scheduled insulation; the "
+                "design heat loss is that loss × (1 + safety factor) (default 20 %, common practice after IEEE 515 / "
+                "IEC/IEEE 60079-30-2, from memory). Valves and flanges add their own loss: size the tracer with the "
+                "maker's allowances. Follow the tracer maker's rules and the local electrical code.")
+
+
+def tracing_tables(tracing, units: str) -> list[Table]:
+    """The "Heat tracing" table of a :class:`pipeins.schedule_tracing.TracingSchedule`."""
+    if tracing is None or not tracing.items:
+        return []
+    rows = [[i.tag, i.service, i.condition, i.maintain_temp_c, i.min_ambient_c, i.thickness_m, i.heat_loss_w_per_m,
+             i.safety_factor_percent, i.design_heat_loss_w_per_m, i.design_heat_loss_w, i.tracer_output_w_per_m,
+             i.margin_percent] for i in tracing.items]
+    return [Table("Heat tracing", [
+        Column("line"), Column("service"), Column("location"), Column("maintain", "temperature"),
+        Column("min. ambient", "temperature"), Column("thickness", "thickness"),
+        Column("heat loss", "heat_flow_per_length"), Column("safety factor", "percent", 0),
+        Column("design loss", "heat_flow_per_length"), Column("design loss, line", "power"),
+        Column("tracer output", "heat_flow_per_length"), Column("margin", "percent", 0)], rows, note=TRACING_NOTE)]
+
+
+def tracing_data(tracing) -> dict | None:
+    if tracing is None or not tracing.items:
+        return None
+    return {"items": [i.to_dict() for i in tracing.items], "total_design_heat_loss_w": tracing.total_design_heat_loss_w,
+            "method": TRACING_NOTE}
