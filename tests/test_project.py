@@ -73,7 +73,7 @@ def test_good_file_reads():
                  'air_pressure, altitude, criteria_here, height, orientation, outer_h, rh, solar, surroundings, wind',
                  id="unknown-key"),
     pytest.param('valves = 1', 'valvs = 1',
-                 'project.toml: line 21 (lines entry 1): valvs: unknown key "valvs"; did you mean "valves"?',
+                 'project.toml: line 21 (lines entry 1): valvs: unknown key "valvs"; did you mean "valves" or "valve"?',
                  id="unknown-key-did-you-mean"),
     pytest.param('length = "10 m"\n', '',
                  'project.toml: line 16 (lines entry 1): the key "length" is missing', id="missing-key"),
