@@ -245,6 +245,10 @@ CLI_ONLY = {
     "--profile": "an operating profile of one line; a project service runs at one temperature",
     "--plot": "an extra chart file beside one command's output; the schedule's formats carry their charts",
     "--ascii": "how the console draws one command's text output (plain ASCII rules); not part of a project",
+    "--tracer-output": "as a sizing criterion (size, table) for one line; in a project file tracer_output is "
+                       "compared with each traced line's design heat loss (pipeins.schedule_tracing), not sized for",
+    "--safety-factor": "as part of the tracer-output sizing criterion for one line; in a project file "
+                       "safety_factor applies to the traced lines' design heat loss (pipeins.schedule_tracing)",
     "--condition": "several design conditions of one line sized on the command line; a project file names its "
                    "[conditions.NAME] tables and a service's or line's conditions list",
     "--buried": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",

@@ -1164,7 +1164,7 @@ def _criteria_list(r: _Reader, table: dict, key: str, p: tuple, entry: str) -> t
 def _condition_list(r: _Reader, table: dict, p: tuple, entry: str, raw_conditions) -> tuple:
     """The names of a service's or line's ``conditions = [...]`` (unknown ones reported)."""
     items = table["conditions"]
-    if isinstance(items, str):   # a line list's cell: "summer; winter"
+    if isinstance(items, str) and p in r.places:   # a line list's cell: "summer; winter"
         items = [x.strip() for x in items.split(";") if x.strip()]
     if not isinstance(items, list) or not items or not all(isinstance(x, str) and x for x in items):
         r.problem(p, entry, "conditions", 'conditions must be a list of [conditions.NAME] names, e.g. '
