@@ -87,6 +87,7 @@ class PipeSize:
 
 
 # --------------------------------------------------------------------------- parsing
+@functools.lru_cache(maxsize=1024)  # a table repeats each size once per schedule; Fractions are immutable
 def _nominal_value(text: str) -> Fraction | None:
     """``"1-1/2"``, ``"1 1/2"``, ``"1.5"``, ``"3/4"``, ``"2"`` → Fraction; None if not a size."""
     text = text.strip()

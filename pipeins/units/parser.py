@@ -615,11 +615,8 @@ def energy_unit_joules(name: str) -> float:
         "energy unit", f'unknown energy unit "{name}"; {closest_names(word, _ENERGY_PRICE_UNITS)}')
 
 
-_PRICE_RE = re.compile(
-    r"^\s*[$€£¥]?\s*(?P<number>(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*[$€£¥]?\s*"
-    r"(?:/|\bper\b)\s*(?P<unit>\S+)\s*$",
-    re.IGNORECASE,
-)
+_PRICE_PATTERN = (r"^\s*[$€£¥]?\s*(?P<number>(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*[$€£¥]?\s*"
+                  r"(?:/|\bper\b)\s*(?P<unit>\S+)\s*$")  # compiled on the first price (re caches it)
 
 
 def parse_money_per_energy(text, option: str = "--energy-price") -> float:
@@ -651,7 +648,7 @@ def parse_money_per_energy(text, option: str = "--energy-price") -> float:
     if shown == "":
         raise InputError(option, f"the energy price is missing; {examples}")
     unreadable = InputError(option, f'cannot read "{shown}" as an energy price; {examples}')
-    match = _PRICE_RE.match(shown)
+    match = re.match(_PRICE_PATTERN, shown, re.IGNORECASE)
     if not match:
         raise unreadable
     try:
