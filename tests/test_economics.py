@@ -207,7 +207,11 @@ def test_cost_table_missing_rows():
 @pytest.mark.parametrize(
     "text, message",
     [
-        ("size,thickness_mm\nNPS 1,25\n", "bad.csv needs the columns size, thickness_mm, cost_per_m; missing cost_per_m"),
+        (
+            "size,thickness_mm\nNPS 1,25\n",
+            "bad.csv needs a thickness column (thickness_mm or thickness_in) and one cost column: cost_per_m "
+            "(per metre of pipe, with size), cost_per_m2 or cost_per_ft2 (per area of surface); it has size, thickness_mm",
+        ),
         ("size,thickness_mm,cost_per_m\nNPS 1,25,cheap\n", 'bad.csv row 1: cost_per_m "cheap" is not a number'),
         ("size,thickness_mm,cost_per_m\nNPS 1,-25,3\n", 'bad.csv row 1: thickness_mm "-25" must be a number ≥ 0'),
         ("size,thickness_mm,cost_per_m\nNPS 1,25,3\nNPS 1,25.0,4\n", "bad.csv row 2: a second row for NPS 1 at 25 mm"),
