@@ -557,10 +557,13 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
         q_bare = np.ravel(np.broadcast_to(bare.heat_flow, thickness.shape))
         ts = np.ravel(np.broadcast_to(result.surface_temp_c, thickness.shape))
         parts = _governing_parts(result, thickness.shape)
+        leaving = [None] * len(members)
+        if key[0] == "duct" and (spec.flow is not None or spec.velocity_m_s is not None):
+            leaving = _leaving_air(spec, result, members, thickness.shape, service, warnings)
         for i, line in enumerate(members):
             j = i if key[0] == "duct" else 0
             solved.append((line, float(q[j]), float(q_bare[j]), float(ts[j]), parts[j], bare_surface,
-                           float(thickness[j, 0]), result.basis))
+                           float(thickness[j, 0]), result.basis, leaving[i]))
     n = len(solved)
     quantity = np.array([l.quantity for l, *_ in solved])
     heat = np.array([x[1] for x in solved]) * quantity
@@ -581,7 +584,7 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
     priced = [not g for g in gaining.tolist()] if basis.cop is None else [True] * n
     table = service.cost_table or project.cost_table
     out = []
-    for i, (line, qi, qb, tsi, part, bare_surface, t, unit) in enumerate(solved):
+    for i, (line, qi, qb, tsi, part, bare_surface, t, unit, outlet) in enumerate(solved):
         figures = [money[duty][case][key][i] if priced[i] else None
                    for duty in ("heating", "cooling") for key in ("energy_j", "cost", "co2_kg")
                    for case in ("insulated", "bare")]
@@ -595,10 +598,25 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
         out.append(LineResult(
             line.tag, line.service, line.size.label, line.condition, line.length_m if run else None, t,
             qi if run else None, qb if run else None, 0.0, float(heat[i]), float(heat_bare[i]), tsi,
-            None if dew_margin[i] is None else float(dew_margin[i]), None, bare_surface.name,
+            None if dew_margin[i] is None else float(dew_margin[i]), outlet, bare_surface.name,
             float(bare_surface.emittance), priced[i], *figures, installed, note,
             kind=line.kind, basis=unit, area_m2=line.area_m2, count=line.count, governing_surface=part, **per))
     return out
+
+
+def _leaving_air(spec, result, members, shape, service, warnings) -> list:
+    """The leaving-air temperature [°C] of every duct run of one solve, marched along each
+    run's length at the schedule thickness (:func:`pipeins.sections.duct_air_run`, as ``check
+    --length --flow`` does); the line's heat flow stays per metre at the entering air, as a
+    pipe's does."""
+    from dataclasses import replace
+
+    from .sections import duct_air_run
+
+    lengths = np.array([l.length_m for l in members], dtype=float)[:, None]
+    run, _ = duct_air_run(replace(spec, length_m=lengths), result)
+    warnings += [f'service "{service.name}": {w}' for w in run.notes]
+    return [float(x) for x in np.ravel(np.broadcast_to(run.leaving_temp_c, shape))]
 
 
 def _column(fluid):

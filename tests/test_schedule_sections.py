@@ -164,6 +164,16 @@ def test_each_item_equals_check_times_its_quantity(run, schedule, tag):
     assert line.surface_temp_c == pytest.approx(data["surface_temp_c"], abs=1e-7)  # the governing part's
 
 
+@pytest.mark.parametrize("tag", ["SA-1", "SA-2"])
+def test_duct_leaving_air_equals_check_along_the_run(run, schedule, tag):
+    """The leaving air of a duct run with a velocity: the march of ``check --length --velocity``
+    (the same RK4 march; its closed-form check is in tests/test_duct_wiring.py)."""
+    line = next(l for l in schedule.lines if l.tag == tag)
+    data = _check(run, line, "supply", "void")
+    assert line.outlet_temp_c == pytest.approx(data["leaving_temp_c"], abs=1e-9)
+    assert 13.0 < line.outlet_temp_c < 26.0  # warmed towards the void's air, never past it
+
+
 def test_quantities_and_bases(schedule):
     by_tag = {l.tag: l for l in schedule.lines}
     assert [by_tag[t].basis for t in CLI] == ["W/m", "W/m", "W/m", "W/m²", "W/m²", "W", "W"]
