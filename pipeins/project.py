@@ -1015,6 +1015,8 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
                                                      r.units)
         except InputError as exc:
             r.problem(p, entry, exc.name if exc.name in ("valve", "flange", "cover") else "valve", exc.message)
+    if service is not None and service.code is not None and "code" in service.criteria:
+        _code_for(r, p, entry, kind, service)
     section = ()
     if kind != "pipe" and len(r.problems) == before:
         section, size = _section_of(r, p, entry, kind, table, v, service)
@@ -1031,6 +1033,26 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     length = v["length_m"] if top == "lines" else None
     return Line(index, tag, sname, size, length, cname, fittings, r.pos.header(p), kind, section,
                 v.get("area_m2"), v.get("count", 1) if top == "vessels" else None, top, objects, cover)
+
+
+def _code_for(r: _Reader, p, entry, kind: str, service) -> None:
+    """A code minimum fits the item: a pipe rule set for a pipe, a duct rule set for a duct;
+    a face or vessel takes none (the rule sets band pipes by size and ducts by location)."""
+    from .duct_codes import load_duct_rule_sets
+
+    duct_set = service.code in load_duct_rule_sets()
+    name = service.base or service.name
+    if kind in ("face", "vessel", "sphere"):
+        r.problem(p, entry, "service", f'service "{name}" asks for the code minimum "{service.code}"; code '
+                                       "minimums band pipes by size and ducts by location, not faces or vessels: "
+                                       'give this item a service without "code" in its criteria')
+    elif kind == "pipe" and duct_set:
+        r.problem(p, entry, "service", f'service "{name}" has the duct rule set "{service.code}"; a pipe takes a '
+                                       "pipe rule set (see `pipeins list rules`)")
+    elif kind == "duct" and not duct_set:
+        sets = " or ".join(sorted(load_duct_rule_sets()))
+        r.problem(p, entry, "service", f'service "{name}" has the pipe rule set "{service.code}"; a duct takes a '
+                                       f"duct rule set: {sets}")
 
 
 #: The LineSpec fields of a section, by kind, from the item's values.

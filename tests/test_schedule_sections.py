@@ -373,6 +373,27 @@ def test_bad_service_keys():
         assert f'(service "hot"): {key}: ' in words, words
 
 
+@pytest.mark.parametrize("code, item, problem", [
+    ("iecc-2018-c403", '[[lines]]\nservice = "air"\nsize = "DN50"\nlength = "3 m"\ncondition = "room"\n',
+     'e.toml: line 15 (lines entry 1): service: service "air" has the duct rule set "iecc-2018-c403"; a pipe '
+     "takes a pipe rule set (see `pipeins list rules`)"),
+    ("ashrae-90.1-2019", '[[lines]]\nservice = "air"\nduct = "600x400mm"\nlength = "3 m"\ncondition = "room"\n',
+     'e.toml: line 15 (lines entry 1): service: service "air" has the pipe rule set "ashrae-90.1-2019"; a duct '
+     "takes a duct rule set: iecc-2018-c403"),
+    ("ashrae-90.1-2019", '[[vessels]]\nservice = "air"\nsphere = "2 m"\ncondition = "room"\n',
+     'e.toml: line 15 (vessels entry 1): service: service "air" asks for the code minimum "ashrae-90.1-2019"; '
+     "code minimums band pipes by size and ducts by location, not faces or vessels: give this item a service "
+     'without "code" in its criteria'),
+])
+def test_a_code_minimum_fits_the_item(code, item, problem):
+    text = ('[project]\nname = "E"\n[conditions.room]\nair = "30 C"\n[services.air]\nfluid = "air"\n'
+            f'temperature = "14 C"\nmaterial = "glass wool"\ncriteria = ["code"]\ncode = "{code}"\n'
+            'duct_location = "outdoors"\nclimate_zone = "4"\n\n')
+    with pytest.raises(ProjectError) as exc:
+        parse_project(text + item, "e.toml")
+    assert exc.value.problems == [problem]
+
+
 def test_cli_error_line(run, tmp_path):
     path = tmp_path / "bad.toml"
     path.write_text(BAD_BASE + '[[faces]]\nservice = "hot"\nface = "up"\narea = "-2 m2"\nlength = "1 m"\n'
