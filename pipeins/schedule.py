@@ -532,6 +532,7 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
     from .solve import solve
 
     material = lookup_material(service.material)
+    table = service.cost_table or project.cost_table
     groups: dict = {}
     for line in lines:
         groups.setdefault(("duct", line.size.kind) if line.kind == "duct" else (line.kind, line.size.label),
@@ -557,13 +558,19 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
         q_bare = np.ravel(np.broadcast_to(bare.heat_flow, thickness.shape))
         ts = np.ravel(np.broadcast_to(result.surface_temp_c, thickness.shape))
         parts = _governing_parts(result, thickness.shape)
+        area = [None] * len(members)   # surface before insulating per unit, what a table per m² prices
+        if table is not None and table.per_area:
+            from .annual import surface_area_m2
+
+            area = np.ravel(np.broadcast_to(surface_area_m2(pipe, fluid, surroundings, surface),
+                                            thickness.shape)).tolist()
         leaving = [None] * len(members)
         if key[0] == "duct" and (spec.flow is not None or spec.velocity_m_s is not None):
             leaving = _leaving_air(spec, result, members, thickness.shape, service, warnings)
         for i, line in enumerate(members):
             j = i if key[0] == "duct" else 0
             solved.append((line, float(q[j]), float(q_bare[j]), float(ts[j]), parts[j], bare_surface,
-                           float(thickness[j, 0]), result.basis, leaving[i]))
+                           float(thickness[j, 0]), result.basis, leaving[i], area[j]))
     n = len(solved)
     quantity = np.array([l.quantity for l, *_ in solved])
     heat = np.array([x[1] for x in solved]) * quantity
@@ -582,16 +589,20 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
         warnings.append(f'service "{service.name}" gains heat with no chiller COP (give cop in [energy] or the '
                         f"service): {tags} left out of the energy, cost and CO2 columns")
     priced = [not g for g in gaining.tolist()] if basis.cop is None else [True] * n
-    table = service.cost_table or project.cost_table
     out = []
-    for i, (line, qi, qb, tsi, part, bare_surface, t, unit, outlet) in enumerate(solved):
+    for i, (line, qi, qb, tsi, part, bare_surface, t, unit, outlet, area_per_unit) in enumerate(solved):
         figures = [money[duty][case][key][i] if priced[i] else None
                    for duty in ("heating", "cooling") for key in ("energy_j", "cost", "co2_kg")
                    for case in ("insulated", "bare")]
         installed, note = None, ""
-        if table is not None:
+        if table is not None and not table.per_area:
             note = (f"{table.name} prices insulation per metre of pipe by size; the {line.kind} "
-                    f"{line.size.label} is not in it")
+                    f"{line.size.label} is priced per m² of its surface (a table with cost_per_m2)")
+        elif table is not None:
+            try:
+                installed = float(np.ravel(table.installed_cost(line.size.label, t, area_per_unit))[0]) * line.quantity
+            except InputError:
+                note = f"{table.name} has no price for {line.size.label} at {1000 * t:g} mm"
         per = {"W/m": {}, "W/m²": {"heat_flow_w_per_m2": qi, "bare_heat_flow_w_per_m2": qb},
                "W": {"heat_flow_w_each": qi, "bare_heat_flow_w_each": qb}}[unit]
         run = unit == "W/m"

@@ -394,6 +394,26 @@ def test_a_code_minimum_fits_the_item(code, item, problem):
     assert exc.value.problems == [problem]
 
 
+def test_installed_cost_of_ducts_and_vessels_per_m2_of_their_surface():
+    """A cost table per m² prices a duct by its sheet's surface per metre (2·(w + h) of a
+    rectangular duct) times its length, a sphere by its surface π·D² times the count (the
+    invented demo tables examples/costs_duct_demo.csv, costs_vessel_demo.csv; by hand)."""
+    head = ('[project]\nname = "E"\n[energy]\nprice = "0.1/kWh"\ncop = 3\n[conditions.room]\nair = "30 C"\n'
+            '[services.air]\nfluid = "air"\ntemperature = "14 C"\nmaterial = "glass wool"\n'
+            'criteria = ["heat_flow"]\nmax_heat_flow = "1000 W/m"\ncost_table = "costs_duct_demo.csv"\n'
+            '[services.hot]\ntemperature = "90 C"\nmaterial = "mineral wool"\ncriteria = ["touch"]\n'
+            'cost_table = "costs_vessel_demo.csv"\n\n')
+    items = ('[[lines]]\ntag = "D"\nservice = "air"\nduct = "600x400mm"\nlength = "12 m"\nthickness = "50 mm"\n'
+             'condition = "room"\n\n[[vessels]]\ntag = "S"\nservice = "hot"\nsphere = "2 m"\ncount = 3\n'
+             'thickness = "50 mm"\ncondition = "room"\n')
+    sched = compute_schedule(parse_project(head + items, "e.toml", ROOT / "examples"))
+    by_tag = {l.tag: l for l in sched.lines}
+    assert by_tag["D"].installed_cost == pytest.approx(31.80 * 2 * (0.6 + 0.4) * 12, rel=1e-9)
+    assert by_tag["S"].installed_cost == pytest.approx(62.50 * math.pi * 2.0**2 * 3, rel=1e-9)
+    assert sched.totals.installed_cost == pytest.approx(by_tag["D"].installed_cost + by_tag["S"].installed_cost,
+                                                        rel=1e-12)
+
+
 def test_cli_error_line(run, tmp_path):
     path = tmp_path / "bad.toml"
     path.write_text(BAD_BASE + '[[faces]]\nservice = "hot"\nface = "up"\narea = "-2 m2"\nlength = "1 m"\n'
