@@ -12,6 +12,9 @@ from .base import Criterion, _in, _q
 
 __all__ = ["HeatFlowCap", "decide"]
 
+#: A result's heat-flow basis and the quantity kind it is written as.
+_BASIS_KINDS = {"W/m": ("heat_flow_per_length", "W/m"), "W/m²": ("heat_flux", "W/m²"), "W": ("power", "W")}
+
 
 @dataclass
 class HeatFlowCap(Criterion):
@@ -59,8 +62,10 @@ class HeatFlowCap(Criterion):
         q = abs(float(np.ravel(result.heat_flow)[index]))
         cap = float(np.ravel(np.broadcast_to(self.cap(problem), result.shape))[index])
         u = self.units
-        return (f"|heat flow| {_in(u, q, 'heat_flow_per_length', f'{q:.1f} W/m')}, {100 * (cap - q) / cap:.0f} % "
-                f"under the cap of {_in(u, cap, 'heat_flow_per_length', f'{cap:.1f} W/m')}")
+        # the section's own basis: W/m of a run, W/m² of a face, W of a vessel
+        kind, unit = _BASIS_KINDS.get(getattr(result, "basis", "W/m"), _BASIS_KINDS["W/m"])
+        return (f"|heat flow| {_in(u, q, kind, f'{q:.1f} {unit}')}, {100 * (cap - q) / cap:.0f} % "
+                f"under the cap of {_in(u, cap, kind, f'{cap:.1f} {unit}')}")
 
     def miss(self, margin, thickness_m):
         return (f"heat-flow cap cannot be met: with "
