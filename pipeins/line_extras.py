@@ -67,7 +67,6 @@ def line_extras(spec, result) -> LineExtras:
     * for water with the air below 0 °C: the time until still water cools to 0 °C
       (:func:`pipeins.freezing.freeze_times`).
     """
-    from .runs import condensate_kg_per_h, mass_flow_kg_s, temperature_along_run
     from .run_cases import is_run
 
     out = LineExtras()
@@ -86,6 +85,8 @@ def line_extras(spec, result) -> LineExtras:
             if not spec.fluid:
                 out.notes.append(note("run.needs_fluid"))
             else:
+                from .runs import mass_flow_kg_s, temperature_along_run  # only for a run with a flow
+
                 mdot = _one(mass_flow_kg_s(spec.flow, spec.fluid, temp_c))
                 run = temperature_along_run(pipe, layers, spec.fluid, temp_c, mdot, length, surroundings,
                                             surface, fluid.film_coefficient_w_m2k)
@@ -95,6 +96,8 @@ def line_extras(spec, result) -> LineExtras:
                 out.notes += run.notes
         out.heat_flow_w = heat
     if steam:
+        from .runs import condensate_kg_per_h
+
         per_m_kg_s = _one(condensate_kg_per_h(q, spec.steam_pressure_pa)) / 3600.0
         out.condensate_kg_per_h_per_m = per_m_kg_s * 3600.0
         if length is not None:

@@ -1,7 +1,8 @@
 """The command's start-up path stays light: ``import pipeins.cli`` and a ``check`` of a water
 line as text import none of CoolProp, scipy, matplotlib, openpyxl, nor the modules made lazy
 for start-up (tabulate and its wcwidth, importlib.metadata for --version; the chart data of
-pipeins.reports.charts, the fitting catalogue, numpy.polynomial, the file writer), checked in
+pipeins.reports.charts, the fitting catalogue, numpy.polynomial, the file writer; the sizing search and the run march, which a check with
+no run or steam needs not), checked in
 ``sys.modules`` of a fresh interpreter; ``--help`` of every command loads no numpy.
 Project conventions (issue 11 and DEVELOPERS.md, "Benchmarks"); no outside source applies."""
 
@@ -14,7 +15,8 @@ from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[1]
 HEAVY = ("CoolProp", "scipy", "matplotlib", "openpyxl", "tabulate", "wcwidth", "importlib.metadata",
-         "pipeins.reports.charts", "pipeins.catalog.fittings", "numpy.polynomial", "pipeins.fileio")
+         "pipeins.reports.charts", "pipeins.catalog.fittings", "numpy.polynomial", "pipeins.fileio",
+         "pipeins.sizing", "pipeins.runs")
 
 _PROBE = """
 import sys, json
