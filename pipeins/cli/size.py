@@ -45,11 +45,8 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
           --condition "winter: ambient-temp=-15C, wind=8m/s" --hold-time 6h
     """
     from ..errors import InputError
-    from ..line import LineSpec
     from ..reports.charts import size_charts
-    from ..reports.check import check_report
     from ..reports.sizing import CRITERION_OPTIONS, size_report
-    from ..reports.extras import run_extras
     from ..selection import select
     from ..units import material_in_si
 
@@ -78,6 +75,17 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
         option = CRITERION_OPTIONS.get(failed[0].key if failed else "", "--series")
         message = failed[0].messages[0] if failed else out.messages[0][0]
         raise InputError(option, message)
+    result, check = _check_at(spec, selection, units)
+    report = size_report(selection, check, units)
+    report.charts = size_charts(selection, result)
+    emit(report, fmt, units, output)
+
+
+def _check_at(spec, selection, units):
+    """The line (or section) *spec* re-solved with the layers *selection* added, and its check
+    report titled as the check at the selected thickness."""
+    from ..line import LineSpec
+
     at = LineSpec(**{**spec.__dict__, "layers": spec.layers + selection.added_layers(0),
                      "touch_limit_c": selection.problem.touch_limit_c or spec.touch_limit_c})
     result = at.solve()
@@ -89,12 +97,12 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
         check = section_report(at, result, units, rows, data, warnings)
         check.title = "Check at the selected thickness"
     else:
+        from ..reports.check import check_report
+        from ..reports.extras import run_extras
+
         rows, data, warnings = run_extras(at, result, units)
-        check = check_report(at, result, units, rows, data, warnings,
-                             title="Check at the selected thickness")
-    report = size_report(selection, check, units)
-    report.charts = size_charts(selection, result)
-    emit(report, fmt, units, output)
+        check = check_report(at, result, units, rows, data, warnings, title="Check at the selected thickness")
+    return result, check
 
 
 def _conditions(parsed, opts, units, items):
@@ -110,12 +118,9 @@ def _size_over_conditions(under, material, req, series, units, code, economic, c
     """``size`` with ``--condition``: :func:`pipeins.design_conditions.select_over_conditions`
     over the given conditions, the report built from the governing condition's selection."""
     from ..errors import InputError
-    from ..line import LineSpec
     from ..reports.charts import size_charts
-    from ..reports.check import check_report
     from ..reports.conditions import add_size_conditions
     from ..reports.sizing import CRITERION_OPTIONS, size_report
-    from ..reports.extras import run_extras
     from .condition_options import select_under_conditions
 
     conds = [c for c, _ in under]
@@ -129,19 +134,7 @@ def _size_over_conditions(under, material, req, series, units, code, economic, c
                 message = failed[0].messages[0] if failed else sel.outcome.messages[0][0]
                 raise InputError(option, f'under "{name}": {message}')
     spec = next(s for c, s in under if c.name == combined.governing_condition[0])
-    at = LineSpec(**{**spec.__dict__, "layers": spec.layers + selection.added_layers(0),
-                     "touch_limit_c": selection.problem.touch_limit_c or spec.touch_limit_c})
-    result = at.solve()
-    if at.section_kind != "pipe":
-        from ..reports.section import section_report
-        from ..sections import section_extras
-
-        rows, data, warnings = section_extras(at, result, units)
-        check = section_report(at, result, units, rows, data, warnings)
-        check.title = "Check at the selected thickness"
-    else:
-        rows, data, warnings = run_extras(at, result, units)
-        check = check_report(at, result, units, rows, data, warnings, title="Check at the selected thickness")
+    result, check = _check_at(spec, selection, units)
     report = size_report(selection, check, units)
     add_size_conditions(report, combined, conds, units)
     report.charts = size_charts(selection, result)
