@@ -27,7 +27,7 @@ import numpy as np
 
 from .errors import InputError
 
-__all__ = ["METHOD", "FittingOnLine", "FittingsResult", "solve_fittings"]
+__all__ = ["METHOD", "CoverSaving", "FittingOnLine", "FittingsResult", "solve_fittings"]
 
 METHOD = ("each fitting solved as a short horizontal cylinder of its flange outside diameter and of its bare "
           "area (in the manner of ASTM C1129), at the line's fluid temperature through the pipe wall, with the "
@@ -35,8 +35,20 @@ METHOD = ("each fitting solved as a short horizontal cylinder of its flange outs
           "thickness over that cylinder")
 
 
+class CoverSaving:
+    """``saving_w`` of a solved fitting: bare − covered heat flow [W] (None without a cover).
+    Mixed into every record with ``heat_flow_w`` and ``covered_heat_flow_w``."""
+
+    __slots__ = ()
+
+    @property
+    def saving_w(self) -> float | None:
+        """bare − covered heat flow [W] (None without a cover)."""
+        return None if self.covered_heat_flow_w is None else self.heat_flow_w - self.covered_heat_flow_w
+
+
 @dataclass(frozen=True)
-class FittingOnLine:
+class FittingOnLine(CoverSaving):
     """One fitting solved on a line (SI; heat flow + out of the fluid).
 
     Attributes
@@ -59,11 +71,6 @@ class FittingOnLine:
     h_rad_w_m2k: float
     covered_heat_flow_w: float | None = None
     covered_surface_temp_c: float | None = None
-
-    @property
-    def saving_w(self) -> float | None:
-        """bare − covered heat flow [W] (None without a cover)."""
-        return None if self.covered_heat_flow_w is None else self.heat_flow_w - self.covered_heat_flow_w
 
     def to_dict(self) -> dict:
         f = self.fitting

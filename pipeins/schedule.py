@@ -479,13 +479,7 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
         outlet = list(np.ravel(run.outlet_temp_c))
         warnings += [with_subject(n, f'service "{service.name}"') for n in run.notes]
 
-    basis = _basis(service, False)
-    money = _line_money(heat, heat_bare, basis)
-    gaining = (heat < 0) | (heat_bare < 0)
-    if basis.cop is None and gaining.any():
-        tags = ", ".join(f'"{l.tag}"' for l, g in zip(lines, gaining) if g)
-        warnings.append(f'service "{service.name}" gains heat with no chiller COP (give cop in [energy] or the '
-                        f"service): {tags} left out of the energy, cost and CO2 columns")
+    basis, money, gaining = _money_and_gains(service, heat, heat_bare, [l.tag for l in lines], warnings)
     installed = [None] * n
     installed_note = [""] * n
     table = service.cost_table or project.cost_table
@@ -581,13 +575,7 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
 
         dew = float(dew_point_c(float(condition.air_temp_c), float(condition.rh_percent), float(condition.pressure_pa)))
         dew_margin = [x[3] - dew for x in solved]
-    basis = _basis(service, False)
-    money = _line_money(heat, heat_bare, basis)
-    gaining = (heat < 0) | (heat_bare < 0)
-    if basis.cop is None and gaining.any():
-        tags = ", ".join(f'"{x[0].tag}"' for x, g in zip(solved, gaining) if g)
-        warnings.append(f'service "{service.name}" gains heat with no chiller COP (give cop in [energy] or the '
-                        f"service): {tags} left out of the energy, cost and CO2 columns")
+    basis, money, gaining = _money_and_gains(service, heat, heat_bare, [x[0].tag for x in solved], warnings)
     priced = [not g for g in gaining.tolist()] if basis.cop is None else [True] * n
     out = []
     for i, (line, qi, qb, tsi, part, bare_surface, t, unit, outlet, area_per_unit) in enumerate(solved):
@@ -656,6 +644,20 @@ def _governing_parts(result, shape) -> list:
                 names[i] = p.name
     return names
 
+
+
+def _money_and_gains(service, heat, heat_bare, tags, warnings):
+    """The energy basis of *service*, the money of its items' heat flows (insulated and bare, W)
+    and which items gain heat; a gain with no chiller COP is left unpriced, with a warning naming
+    the items (*tags*, in the items' order)."""
+    basis = _basis(service, False)
+    money = _line_money(heat, heat_bare, basis)
+    gaining = (heat < 0) | (heat_bare < 0)
+    if basis.cop is None and gaining.any():
+        named = ", ".join(f'"{t}"' for t, g in zip(tags, gaining) if g)
+        warnings.append(f'service "{service.name}" gains heat with no chiller COP (give cop in [energy] or the '
+                        f"service): {named} left out of the energy, cost and CO2 columns")
+    return basis, money, gaining
 
 def _line_money(heat, heat_bare, basis) -> dict:
     """``{duty: {"insulated"|"bare": {"energy_j"|"cost"|"co2_kg": list}}}`` per line; a line

@@ -22,11 +22,13 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
+from .fittings import CoverSaving
+
 __all__ = ["ScheduleFitting", "FittingsTotals", "FittingsSchedule", "schedule_fittings", "parse_line_fittings"]
 
 
 @dataclass(frozen=True, slots=True)
-class ScheduleFitting:
+class ScheduleFitting(CoverSaving):
     """One fitting on one line, solved (SI; heat flow + out of the fluid)."""
 
     tag: str
@@ -42,11 +44,6 @@ class ScheduleFitting:
     cover: str | None = None
     covered_heat_flow_w: float | None = None
     covered_surface_temp_c: float | None = None
-
-    @property
-    def saving_w(self) -> float | None:
-        """bare − covered heat flow [W] (None when the fitting has no cover)."""
-        return None if self.covered_heat_flow_w is None else self.heat_flow_w - self.covered_heat_flow_w
 
     def to_dict(self) -> dict:
         out = {k: getattr(self, k) for k in self.__slots__}
