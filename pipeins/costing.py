@@ -24,18 +24,23 @@ __all__ = ["CostStudy", "cost_study"]
 
 @dataclass
 class CostStudy:
-    """Per-metre and per-run heat flows [W/m, W], signed (+ lost by the fluid), and the
-    year's figures of the bare line and the insulated one, heat loss and heat gain apart
+    """Heat flows per unit of the section's basis (``heat_basis``: W/m of a run, W/m² of a
+    face, W of a vessel) and over what is priced [W] (the run and its fittings, the face's
+    area, the vessel), signed (+ lost by the fluid), and the year's figures of the bare line
+    and the insulated one over what is priced, heat loss and heat gain apart
     (:func:`pipeins.annual.split_figures`).  With no layer (a bare line priced alone)
-    ``insulated_*`` are ``None``."""
+    ``insulated_*`` are ``None``.
+
+    What is priced: a run over ``length_m`` [m], a face over ``area_m2`` [m²] (1 when none is
+    given, i.e. per m² of face; ``length_m`` None), a vessel whole (``length_m`` 1)."""
 
     spec: object
     basis: EnergyBasis
-    length_m: float
+    length_m: float | None
     fittings: dict
     fitting_length_m: float
-    bare_w_per_m: float
-    insulated_w_per_m: float | None
+    bare_per_unit: float
+    insulated_per_unit: float | None
     bare_w: float
     insulated_w: float | None
     bare: dict
@@ -46,8 +51,34 @@ class CostStudy:
     curve: EconomicCurve | None = None
     #: Texts and notes (:class:`pipeins.notes.Note`; the report writes them in its units).
     warnings: list = field(default_factory=list)
-    #: The surface a table per m² is priced on [m² per m of run, per vessel]; None per metre.
+    #: The surface a table per m² is priced on [m² per m of run, per m² of face, per vessel]; None per metre.
     area_m2_per_unit: float | None = None
+    #: The heat-flow basis of the section (``"W/m"``, ``"W/m²"``, ``"W"``).
+    heat_basis: str = "W/m"
+    #: A face's area priced [m²] (1 when not given: the figures are per m² of face); None for a run or vessel.
+    area_m2: float | None = None
+    #: Whether the face's area was given (False: priced per m² of face).
+    area_given: bool = False
+
+    @property
+    def per(self) -> str:
+        """The unit of the section the heat flow per unit is for: ``"m"``, ``"m²"``, ``"vessel"``."""
+        return PER_UNIT[self.heat_basis]
+
+    @property
+    def whole_vessel(self) -> bool:
+        """Whether the whole vessel (or sphere) is priced (its heat flow is in W)."""
+        return self.heat_basis == "W"
+
+    @property
+    def bare_w_per_m(self) -> float | None:
+        """Bare heat flow per metre of run [W/m] (None for a face or vessel)."""
+        return self.bare_per_unit if self.heat_basis == "W/m" else None
+
+    @property
+    def insulated_w_per_m(self) -> float | None:
+        """Insulated heat flow per metre of run [W/m] (None for a face, vessel or bare line)."""
+        return self.insulated_per_unit if self.heat_basis == "W/m" else None
 
     @property
     def saving(self) -> dict | None:
@@ -75,13 +106,16 @@ def _scalar(fig):
     return None if fig is None else float(np.asarray(fig))
 
 
-def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=None) -> CostStudy:
+def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=None,
+               area_m2: float | None = None) -> CostStudy:
     """The year's money of a line: bare (:func:`pipeins.bare.bare_surface`, the pipe's own
     surface) against insulated with the spec's layers; with no layer the bare line alone.
 
-    Bare fittings count as equivalent lengths of bare pipe; ``length_m = 0`` with fittings
-    prices the fittings alone.  A heat gain is priced through the basis's COP (refused
-    without one: never as heating).
+    A run is priced over its length (``spec.length_m``, 1 m when not given), a vessel whole,
+    a flat face over *area_m2* [m²] (per m² of face when not given: its heat flow is per m²);
+    *area_m2* for anything but a face is refused.  Bare fittings count as equivalent lengths
+    of bare pipe; ``length_m = 0`` with fittings prices the fittings alone.  A heat gain is
+    priced through the basis's COP (refused without one: never as heating).
 
     *profile*, optional: ``[(fluid_temp_c, hours), ...]`` operating conditions over the year,
     replacing the spec's fluid temperature and the basis's hours; energy is summed over them
@@ -101,18 +135,26 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
         weights = hours / hours.sum()
     fittings = {k: int(v) for k, v in (fittings or {}).items() if v}
     kind = spec.section_kind
-    if kind == "face":
-        raise InputError("--face", "cost prices a run (W/m) or a whole vessel (W); a face's heat flow is per m²: "
-                                   "check it and multiply by the face's area")
+    face = kind == "face"  # priced over its area: its heat flow is in W/m²
+    if area_m2 is not None and not face:
+        raise InputError("area_m2", "only a flat face ({face}) is priced by its area; a " + kind + " is priced "
+                                    + ("whole" if kind in ("sphere", "vessel") else "over its run ({length_m})"))
+    if area_m2 is not None and not (np.isfinite(area_m2) and area_m2 > 0):
+        raise InputError("area_m2", "area of a flat face must be greater than zero")
     whole = kind in ("sphere", "vessel")  # priced for the whole vessel: its heat flow is in W
     if whole and fittings:
         raise InputError("--valves", "a vessel is priced on its heat flow alone: no fittings")
+    if face and fittings:
+        raise InputError("--valves", "a face is priced on its heat flow alone: no fittings")
     table = basis.cost_table
     if table is not None and kind != "pipe" and not table.per_area:
         raise InputError("--cost-table", f"{table.name} prices per metre of pipe by size; a {kind} is priced per m² "
                                          "of its surface: give a table with thickness_mm and cost_per_m2 "
                                          "(or cost_per_ft2)")
-    length = 1.0 if (spec.length_m is None or whole) else float(spec.length_m)
+    if face:  # a face's length_m is its film length, not a quantity
+        length = 1.0 if area_m2 is None else float(area_m2)
+    else:
+        length = 1.0 if (spec.length_m is None or whole) else float(spec.length_m)
     if length < 0:
         raise InputError("--length", "the run length must be zero or more")
     size = spec.pipe_size()
@@ -122,27 +164,31 @@ def cost_study(spec, basis: EnergyBasis, fittings: dict | None = None, profile=N
     pipe, layers, fluid, air, surface = spec.build_model()
     bare_face = bare_surface(pipe, surface)
     bare = solve(pipe, [], fluid, air, bare_face)
-    q_bare = np.asarray(bare.heat_flow)  # W/m of a run, W of a vessel (then length 1)
+    q_bare = np.asarray(bare.heat_flow)  # W/m of a run, W/m² of a face (length: its area), W of a vessel (1)
     bare_w = q_bare * (length + fit_len)
 
     def mean(x):
         return float(x) if weights is None else float(np.sum(weights * x))
+
+    run = None if face else length
 
     bare_fig = _scalar(split_figures(bare_w, basis, weights))
     if spec.layers:
         insulated = solve(pipe, layers, fluid, air, surface)
         q_ins = np.asarray(insulated.heat_flow)
         ins_w = q_ins * length + q_bare * fit_len
-        study = CostStudy(spec, basis, length, fittings, fit_len, mean(q_bare), mean(q_ins), mean(bare_w),
+        study = CostStudy(spec, basis, run, fittings, fit_len, mean(q_bare), mean(q_ins), mean(bare_w),
                           mean(ins_w), bare_fig, _scalar(split_figures(ins_w, basis, weights)),
                           bare_face, warnings=list(insulated.warnings))
         study.result = insulated
     else:
-        study = CostStudy(spec, basis, length, fittings, fit_len, mean(q_bare), None, mean(bare_w), None,
+        study = CostStudy(spec, basis, run, fittings, fit_len, mean(q_bare), None, mean(bare_w), None,
                           bare_fig, None, bare_face, warnings=list(bare.warnings))
         study.result = bare
     study.profile = profile
-    study.whole_vessel = whole
+    study.heat_basis = bare.basis
+    if face:
+        study.area_m2, study.area_given = length, area_m2 is not None
     if fit_len and spec.layers:
         from .notes import note
 

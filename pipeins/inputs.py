@@ -99,7 +99,7 @@ PARAMS: tuple[Param, ...] = (
     Param("heads", "--heads", "heads", _V, "choice", "vessel heads", "flat", choices=("flat", "2:1", "hemispherical")),
     Param("floor", "--floor", "floor", _V, "text", 'a vertical tank\'s flat floor, bare: "air" (open beneath) or '
           '"ground:TEMP" (on its foundation to the ground at TEMP)', "an insulated bottom head"),
-    Param("area_m2", None, "area", _F, "area", "area of a flat face, insulated as one [m²]", "(required for a face)",
+    Param("area_m2", "--area", "area", _F, "area", "area of a flat face, insulated as one [m²]", "(required for a face)",
           0.0, None, True),
     Param("count", None, "count", _V, "count", "number of identical vessels", "1"),
     # -- the fluid -----------------------------------------------------------------------
@@ -279,7 +279,6 @@ FILE_ONLY = {
     "units": "the project's unit system; --units on the command line",
     "lines_file": "a line list gives a project many lines; the command line describes one",
     "lines_sheet": "the sheet of a project's XLSX line list",
-    "area": "a flat face's area in a project's [[faces]]; check and size give the heat flow per m²",
     "count": "identical vessels in a project's [[vessels]]; check and size solve one",
 }
 

@@ -203,7 +203,7 @@ def test_inline_svg_is_clean_xml():
 
 def test_chart_data_is_lazy():
     calls = []
-    chart = charts.Chart("bare_insulated", "t", lambda: calls.append(1) or {"bare_w_per_m": 1, "insulated_w_per_m": 0})
+    chart = charts.Chart("bare_insulated", "t", lambda: calls.append(1) or {"bare": 1, "insulated": 0})
     assert calls == []
     assert chart.data == chart.data and calls == [1]
 

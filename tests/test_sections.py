@@ -273,12 +273,6 @@ def test_cost_of_a_vessel_prices_its_whole_heat_flow(run):
     assert ins["heating"]["energy_j"] == pytest.approx(ins["heat_flow_w"] * 8760 * 3600, rel=1e-9)
 
 
-def test_cost_of_a_face_is_refused_in_one_line(run):
-    code, out, err = run("cost", "--face", "vertical", "--height", "3m", "--fluid-temp", "80C",
-                         "--layer", "mineral wool:75mm", "--energy-price", "0.08/kWh")
-    assert code == 2 and out == "" and err.startswith("Error: --face")
-
-
 def test_check_with_sun_reports_the_night_surface_and_its_sweating(run):
     args = ("check", "--pipe", "DN50", "--fluid-temp", "5C", "--ambient-temp", "30C", "--rh", "80",
             "--layer", "k=0.035:9mm", "--finish", "pvc jacket")

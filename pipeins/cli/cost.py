@@ -14,17 +14,20 @@ from .options import emit, line_options, output_options, plot_option, spec_from_
 @click.option("--valves", default=0, type=click.IntRange(min=0, max=1_000_000), help="Bare valves on the run (count).")
 @click.option("--flanges", default=0, type=click.IntRange(min=0, max=1_000_000), help="Bare flange pairs on the run (count).")
 @click.option("--strainers", default=0, type=click.IntRange(min=0, max=1_000_000), help="Bare strainers on the run (count).")
+@click.option("--area", help="Area of a flat face (--face) to price, e.g. 12m2 or 130ft2 (bare numbers in m² or "
+                              "ft² by --units); without it a face is priced per m².")
 @click.option("--profile", help='Operating profile instead of --fluid-temp/--hours: "TEMP:HOURS,…", '
                                  'e.g. "82C:3000h,70C:2500h,55C:1500h".')
 @fitting_options
 @energy_options
 @output_options
 @plot_option
-def cost(fmt, units, output, valves, flanges, strainers, profile, valve, flange, cover, **opts):
+def cost(fmt, units, output, valves, flanges, strainers, area, profile, valve, flange, cover, **opts):
     """Annual energy, cost and CO2 of a line: bare against insulated, and the economic thickness.
 
     The line is solved bare (the pipe's own surface, no insulation) and with its --layer
-    build-up; the difference over the run (--length, default 1 m) and the operating hours
+    build-up; the difference over the run (--length, default 1 m; a vessel whole; a flat
+    face over --area, default per m² of face) and the operating hours
     gives the energy saved, its cost and CO2, and with --cost-table the installed cost and
     simple payback.  Heat losses (heating, through --efficiency) and heat gains (cooling,
     through --cop, which a chilled line needs) are kept apart.  With no --layer the bare
@@ -74,7 +77,13 @@ def cost(fmt, units, output, valves, flanges, strainers, profile, valve, flange,
         report = _fittings_alone(spec, basis, conditions, dict(valve=valve, flange=flange, cover=cover), units)
         emit(report, fmt, units, output)
         return
-    study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers}, conditions)
+    area_m2 = None
+    if area:
+        from ..inputs import parse_value
+
+        area_m2 = parse_value("area_m2", area, units)
+    study = cost_study(spec, basis, {"valve": valves, "flange": flanges, "strainer": strainers}, conditions,
+                       area_m2)
     report = cost_report(study, units)
     if valve or flange or cover:
         _add_fittings(report, spec, basis, conditions, dict(valve=valve, flange=flange, cover=cover), units)

@@ -219,9 +219,15 @@ def schedule_thickness_data(schedule) -> dict:
                      for r in schedule.rows]}
 
 
+#: Display kind of a cost study's heat flow per unit, by its basis.
+_BASIS_KINDS = {"W/m": "heat_flow_per_length", "W/m²": "heat_flux", "W": "power"}
+
+
 def bare_insulated_data(study) -> dict:
-    """Heat flow per metre bare and insulated of a cost study."""
-    return {"bare_w_per_m": _f(study.bare_w_per_m), "insulated_w_per_m": _f(study.insulated_w_per_m)}
+    """Heat flow bare and insulated of a cost study, per unit of its basis (W/m of a run, W/m²
+    of a face, W of a vessel; ``kind`` its display kind)."""
+    return {"bare": _f(study.bare_per_unit), "insulated": _f(study.insulated_per_unit),
+            "kind": _BASIS_KINDS[study.heat_basis]}
 
 
 # ----------------------------------------------------------------------------- per command
@@ -422,11 +428,12 @@ def _draw_economic(axes, d, units):
 
 def _draw_bare_insulated(axes, d, units):
     (ax,) = axes
-    values = _disp([d["bare_w_per_m"], d["insulated_w_per_m"]], "heat_flow_per_length", units)
+    kind = d.get("kind", "heat_flow_per_length")
+    values = _disp([d["bare"], d["insulated"]], kind, units)
     bars = ax.bar(["bare", "insulated"], values, color=["#c9d3d4", "#5f7f84"], edgecolor=_INK, hatch=["//", ""])
     for bar, v in zip(bars, values):
         ax.annotate(f"{v:.1f}", (bar.get_x() + bar.get_width() / 2, v), ha="center", va="bottom", fontsize=8)
-    ax.set_ylabel(f"heat flow [{_lab('heat_flow_per_length', units)}]", fontsize=9)
+    ax.set_ylabel(f"heat flow [{_lab(kind, units)}]", fontsize=9)
     _style(ax)
 
 

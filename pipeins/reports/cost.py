@@ -15,7 +15,7 @@ import numpy as np
 from . import Column, Report, Table
 from .cautions import cautions_for
 
-__all__ = ["cost_report", "per_energy_text"]
+__all__ = ["cost_report", "per_energy_text", "face_basis_text"]
 
 #: Energy unit prices and emission factors are shown per: kWh in SI, MMBtu (10^6 Btu, IT) in US units.
 _ENERGY_UNIT = {"si": ("kWh", 3.6e6), "us": ("MMBtu", 1.05505585262e9)}
@@ -29,8 +29,20 @@ def per_energy_text(value_per_j: float, units: str, what: str = "") -> str:
 
 #: JSON key endings of the economic curve's money by the unit priced (per metre of a run, per vessel).
 _PER_KEYS = {"m": "_per_m", "m²": "_per_m2", "vessel": "_per_vessel"}
+#: Money per metre of run and per m² of face are shown per foot and per ft² in US units: (unit, factor).
+_US_PER = {"m": ("ft", 0.3048), "m²": ("ft²", 0.09290304)}
 #: Display kind of the surface a table per m² is priced on, by the unit priced.
 _AREA_KINDS = {"m": "area_per_length", "m²": "area", "vessel": "area"}
+
+
+def face_basis_text(study, units: str) -> str:
+    """What a face's figures are for: ``"over 12 m² of face"`` (an area given) or ``"per m² of
+    face (no --area given)"`` (:attr:`pipeins.costing.CostStudy.area_given`)."""
+    from ..units import format_quantity
+
+    if study.area_given:
+        return f"over {format_quantity(study.area_m2, 'area', units)} of face"
+    return "per m² of face (no --area given)"
 
 
 def _wrap(study) -> bool:
@@ -84,7 +96,8 @@ def cost_report(study, units: str = "si") -> Report:
         key = "heat_loss_w" if duty == "heating" else "heat_gain_w"
         over = _rounded(to_display(bare[key], "power", units), None if ins is None else
                         to_display(ins[key], "power", units), digits_q)
-        where = "for the vessel" if getattr(study, "whole_vessel", False) else "over the run"
+        where = {"vessel": "for the vessel", "m²": "over the face" if study.area_given else "per m² of face"
+                 }.get(study.per, "over the run")
         cols.append(Column(f"{word}, {where}", unit=unit_label("power", units), digits=digits_q, grouped=True))
         columns.append(over)
         e_b, e_i = bare[duty]["energy_j"], ins_get(duty, "energy_j")
@@ -109,22 +122,33 @@ def cost_report(study, units: str = "si") -> Report:
                  else f"Bare line over {fq(study.length_m, 'length', units)}")
         if study.fitting_length_m:
             title += f" with {fittings} ({fq(study.fitting_length_m, 'length', units)} of bare pipe)"
-    if getattr(study, "whole_vessel", False):
+    if study.whole_vessel:
         title = "Bare against insulated, the whole vessel" if ins is not None else "Bare vessel"
         per_m_cols = [Column("case"), Column("heat flow", "power")]
         per_m_rows = [["bare", study.bare_w]] + ([["insulated", study.insulated_w]] if ins is not None else [])
     else:
-        per_m_cols = [Column("case"), Column("heat flow", "heat_flow_per_length"), Column("over the run", "power")]
-        per_m_rows = [["bare", study.bare_w_per_m, study.bare_w]]
+        face = study.per == "m²"
+        if face:
+            title = (("Bare against insulated" if ins is not None else "Bare face")
+                     + (" " if study.area_given else ", ") + face_basis_text(study, units))
+        per_m_cols = [Column("case"), Column("heat flow", "heat_flux" if face else "heat_flow_per_length"),
+                      Column("over the face" if face else "over the run", "power")]
+        per_m_rows = [["bare", study.bare_per_unit, study.bare_w]]
         if ins is not None:
-            per_m_rows.append(["insulated", study.insulated_w_per_m, study.insulated_w])
+            per_m_rows.append(["insulated", study.insulated_per_unit, study.insulated_w])
+        if face and not study.area_given:  # per m²: the total over 1 m² says nothing more
+            per_m_cols, per_m_rows = per_m_cols[:2], [row[:2] for row in per_m_rows]
+    noun = {"m²": "face", "vessel": "vessel"}.get(study.per, "line")
     note = ("Heat losses and heat gains are kept apart; saving = bare − insulated as printed." if ins is not None
-            else "The bare line: the pipe's own surface, no insulation (no --layer given).")
+            else f"The bare {noun}: the {'pipe' if noun == 'line' else noun}'s own surface, no insulation "
+                 "(no --layer given).")
     tables = [Table(title, cols, rows, note=note),
               Table("Heat flow (+ lost by the fluid, − gained)", per_m_cols, per_m_rows)]
 
-    def block(fig, w_per_m, w):
-        out = {} if getattr(study, "whole_vessel", False) else {"heat_flow_w_per_m": w_per_m}
+    per_key = {"m": "heat_flow_w_per_m", "m²": "heat_flow_w_per_m2"}.get(study.per)
+
+    def block(fig, per_unit, w):
+        out = {} if per_key is None else {per_key: per_unit}
         out.update({"heat_flow_w": w,
                "heat_loss_w": fig["heat_loss_w"], "heat_gain_w": fig["heat_gain_w"],
                "heating": dict(fig["heating"]), "cooling": dict(fig["cooling"]),
@@ -133,18 +157,19 @@ def cost_report(study, units: str = "si") -> Report:
         out["co2_kg"] = None if any(c is None for c in co2) else float(sum(co2))
         return out
 
-    bare_block = block(bare, study.bare_w_per_m, study.bare_w)
+    bare_block = block(bare, study.bare_per_unit, study.bare_w)
     bare_block.update({"surface": study.bare_surface.name, "emittance": float(np.asarray(study.bare_surface.emittance))})
-    data = {
-        "length_m": study.length_m,
+    data = {"length_m": study.length_m} if study.per != "m²" else {
+        "area_m2": study.area_m2, "area_given": study.area_given, "priced_per": face_basis_text(study, "si")}
+    data.update({
         "fittings": study.fittings,
         "fitting_equivalent_length_m": study.fitting_length_m,
         "bare": bare_block,
-        "insulated": None if ins is None else block(ins, study.insulated_w_per_m, study.insulated_w),
+        "insulated": None if ins is None else block(ins, study.insulated_per_unit, study.insulated_w),
         "currency": cur,
         "installed_cost": _money(study.installed_cost),
         "simple_payback_years": _money(study.payback_years),
-    }
+    })
     if ins is not None:
         sav = study.saving
         data["saving"] = {"heat_loss_w": sav["heat_loss_w"], "heat_gain_w": sav["heat_gain_w"],
@@ -157,12 +182,12 @@ def cost_report(study, units: str = "si") -> Report:
                                            Column("cost saving per year", unit=cur or None, digits=2, grouped=True),
                                            Column("simple payback", unit="years", digits=1)],
                             [[study.installed_cost, saving_cost, study.payback_years]],
-                            note="the payback is on the heating and cooling savings of this line together"))
+                            note=f"the payback is on the heating and cooling savings of this {noun} together"))
     curve = study.curve
     if curve is not None:
         per = curve.per  # m of a run, vessel
-        # money per metre of run shown per foot in US units (JSON stays per metre)
-        shown, scale = ("ft", 0.3048) if (per == "m" and units == "us") else (per, 1.0)
+        # money per metre of run (per m² of face) shown per foot (per ft²) in US units (JSON stays SI)
+        shown, scale = _US_PER.get(per, (per, 1.0)) if units == "us" else (per, 1.0)
         unit = f"{cur}/{shown}" if cur else f"per {shown}"
         ccols = [Column("thickness" + (", nominal" if _wrap(study) else ""), "thickness"),
                  Column("installed", unit=unit, digits=2, grouped=True),
@@ -173,7 +198,9 @@ def cost_report(study, units: str = "si") -> Report:
                 for j, (t, i, e, tot) in enumerate(zip(curve.thickness_m, curve.installed,
                                                        curve.energy_pv, curve.total))]
         note = "the flat bottom of the curve: thicknesses near the least total cost about the same over the life"
-        if curve.area_m2_per_unit is not None:
+        if per == "m²":
+            note += "; installed cost: the table's cost per unit area of face"
+        elif curve.area_m2_per_unit is not None:
             note += ("; installed cost = the table's cost per unit area × the surface before insulating, "
                      f"{fq(curve.area_m2_per_unit, _AREA_KINDS[per], units)}")
         tables.append(Table(f"Economic thickness over {basis.years:g} years at {100 * basis.discount_rate:g} %"
@@ -201,10 +228,11 @@ def cost_report(study, units: str = "si") -> Report:
     source = [f"heat losses through a heat source efficiency of {basis.efficiency:g}"] if "heating" in duties else []
     if "cooling" in duties:
         source.append(f"heat gains through a chiller COP of {basis.cop:g}")
-    footer = [footer_hours + "; " + ", ".join(source)
+    priced = [f"priced {face_basis_text(study, units)}"] if study.per == "m²" else []
+    footer = priced + [footer_hours + "; " + ", ".join(source)
               + (f"; energy {per_energy_text(basis.price.price_per_j, units, cur)}" if basis.price else "")
               + (f"; CO2 {per_energy_text(basis.emission.kg_per_j, units, 'kg')}" if basis.emission else ""),
-              f"bare line: {study.bare_surface.name}, emittance {float(np.asarray(study.bare_surface.emittance)):.2f}, "
+              f"bare {noun}: {study.bare_surface.name}, emittance {float(np.asarray(study.bare_surface.emittance)):.2f}, "
               "no insulation",
               "energy, price and emission inputs are the user's; demo values in examples/ are invented"]
     cautions = cautions_for(study.spec, study.result)
