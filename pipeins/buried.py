@@ -39,7 +39,8 @@ from .errors import InputError, closest_names
 from .tables import read_table
 
 __all__ = ["twin_heat_flows", "mutual_resistance_mk_w", "Soil", "lookup_soil", "list_soils", "shape_factor_per_m", "soil_resistance_mk_w",
-           "BuriedLine", "buried_spec", "solve_buried", "SOIL_K_RANGE_W_MK"]
+           "BuriedLine", "buried_spec", "solve_buried", "SOIL_K_RANGE_W_MK",
+           "soil_coefficient_w_m2k", "ground_spec", "check_buried"]
 
 #: The soil conductivities taken as physical [W/(m·K)]: dry sand to saturated rock.
 SOIL_K_RANGE_W_MK = (0.1, 5.0)
@@ -112,6 +113,29 @@ def soil_resistance_mk_w(depth_m, outer_diameter_m, soil_k_w_mk):
     return 1.0 / (shape_factor_per_m(depth_m, outer_diameter_m) * soil_k_w_mk)
 
 
+#: Where a trial build-up of a sizing search reaches the ground surface (casing radius at or
+#: above the depth), the soil is taken as this thin: 2z/D held at 1 + CLAMP (a huge but finite
+#: coefficient, so the search stays bracketed); a selected build-up there is refused.
+CLAMP = 1e-9
+
+
+def soil_coefficient_w_m2k(depth_m, outer_diameter_m, soil_k_w_mk, clamp: bool = False):
+    """The soil as a fixed outer coefficient on the outer surface of diameter D [W/(m²·K)]:
+    1 / (R_s · π D) with R_s = acosh(2z/D) / (2π k_s) (arrays broadcast).  With *clamp*, a
+    build-up that reaches the ground surface (D/2 ≥ z, a trial of a sizing search) is taken
+    at 2z/D = 1 + :data:`CLAMP` instead of refused.
+
+    >>> round(float(soil_coefficient_w_m2k(1.0, 0.2, 1.5)), 4)
+    5.0113
+    """
+    z, d = np.asarray(depth_m, dtype=float), np.asarray(outer_diameter_m, dtype=float)
+    if clamp:
+        z = np.maximum(z, 0.5 * d * (1.0 + CLAMP))
+    s = shape_factor_per_m(z, d)
+    r = 1.0 / (s * soil_k_w_mk)
+    return 1.0 / (r * math.pi * d)
+
+
 @dataclass(frozen=True)
 class BuriedLine:
     """A buried line solved (SI): the inputs, the soil's part and the solved result."""
@@ -152,10 +176,64 @@ def buried_spec(spec, depth_m: float, soil_k_w_mk: float, ground_temp_c: float):
                                     f"casing radius {diameter / 2:g} m")
     s = float(shape_factor_per_m(depth_m, diameter))
     r = 1.0 / (s * soil_k_w_mk)
-    h = 1.0 / (r * math.pi * diameter)
-    buried = replace(spec, air_temp_c=float(ground_temp_c), surroundings_temp_c=None, wind_m_s=0.0, rh_percent=None,
-                     orientation="horizontal", height_m=None, finish=None, emittance=None, outer_h_w_m2k=h)
-    return buried, diameter, s, r, h
+    h = float(soil_coefficient_w_m2k(depth_m, diameter, soil_k_w_mk))
+    return replace(ground_spec(spec, ground_temp_c), outer_h_w_m2k=h), diameter, s, r, h
+
+
+def ground_spec(spec, ground_temp_c: float):
+    """*spec* in the ground: the ground surface temperature for the air, no wind, humidity,
+    sun, radiant surroundings or finish (the soil's coefficient is set apart, per build-up)."""
+    return replace(spec, air_temp_c=float(ground_temp_c), surroundings_temp_c=None, wind_m_s=0.0, rh_percent=None,
+                   orientation="horizontal", height_m=None, finish=None, emittance=None, outer_h_w_m2k=None,
+                   solar_w_m2=None, absorptance=None)
+
+
+#: The criteria a buried line is sized for (a project service's names): touch and condensation
+#: on the outer surface do not apply to a line in the soil; freeze holds and tracers are sized
+#: for lines in air (pipeins.schedule_buried says so in a note).
+SIZED_FOR = ("heat_flow", "heat_flux", "temp_change", "economic", "code")
+
+#: The buried-line inputs (parameter names of :data:`pipeins.inputs.PARAMS`) besides the depth.
+BURIED_INPUTS = ("soil", "soil_k_w_mk", "ground_temp_c", "twin_spacing_m", "return_temp_c", "casing_diameter_m",
+                 "casing_insulation")
+
+
+def check_buried(given: dict) -> list[tuple[str, str]]:
+    """The rules between the buried-line inputs *given* (parameter → value, absent when not
+    given): a list of (parameter, message), empty when all is well.  The soil type is looked
+    up; the geometry against the pipe is checked where the line is built."""
+    out = []
+    has = lambda n: given.get(n) is not None  # noqa: E731
+    if not has("depth_m"):
+        for name in BURIED_INPUTS:
+            if has(name):
+                out.append((name, "is a buried-line input: give {depth_m} (the depth of the pipe centre) too"))
+        return out
+    if has("soil") and has("soil_k_w_mk"):
+        out.append(("soil_k_w_mk", "give {soil} or {soil_k_w_mk}, not both"))
+    elif not (has("soil") or has("soil_k_w_mk")):
+        out.append(("depth_m", "a buried line needs the soil: give {soil} (a type) or {soil_k_w_mk}"))
+    if has("soil"):
+        try:
+            lookup_soil(given["soil"])
+        except InputError as exc:
+            out.append(("soil", exc.message))
+    if not has("ground_temp_c"):
+        out.append(("depth_m", "a buried line needs the ground surface temperature: give {ground_temp_c}"))
+    if has("twin_spacing_m") != has("return_temp_c"):
+        missing = "return_temp_c" if has("twin_spacing_m") else "twin_spacing_m"
+        other = "twin_spacing_m" if missing == "return_temp_c" else "return_temp_c"
+        out.append((other, "two buried pipes need both {twin_spacing_m} (between the centres) and {return_temp_c}"))
+    if has("casing_insulation") and not has("casing_diameter_m"):
+        out.append(("casing_insulation", "is the insulation of a twin casing: give {casing_diameter_m} too"))
+    if has("casing_diameter_m"):
+        if not (has("twin_spacing_m") and has("return_temp_c")):
+            out.append(("casing_diameter_m", "pipes in one casing need {twin_spacing_m} (between the centres) and "
+                                             "{return_temp_c}"))
+        if not given["depth_m"] > given["casing_diameter_m"] / 2:
+            out.append(("depth_m", f"the burial depth {given['depth_m']:g} m (to the casing centre) must be more "
+                                   f"than the casing radius {given['casing_diameter_m'] / 2:g} m"))
+    return out
 
 
 def solve_buried(spec, depth_m: float, ground_temp_c: float, soil_k_w_mk: float | None = None,

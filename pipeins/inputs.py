@@ -220,6 +220,25 @@ PARAMS: tuple[Param, ...] = (
           "(the size defaults to the line's)", "none"),
     Param("cover", "--cover", "cover", _L, "text", "removable cover of the line's listed fittings, "
           "MATERIAL:THICKNESS", "bare"),
+    # -- buried lines (pipeins.buried, pipeins.twin_casing; pipeins.schedule_buried) ----------
+    Param("depth_m", "--buried", "buried", _SL, "length", "buried line: depth of the pipe centre (a twin casing's "
+          "centre) below the ground surface [m]; the soil replaces the air film and radiation", "not buried",
+          0.0, 100.0, True),
+    Param("soil", "--soil", "soil", _SL, "text", 'buried line: soil type of tables/soils.csv ("moist sand"), '
+          "instead of soil_k", ""),
+    Param("soil_k_w_mk", "--soil-k", "soil_k", _SL, "conductivity", "buried line: soil conductivity [W/(m·K)]",
+          "", 0.1, 5.0),
+    Param("ground_temp_c", "--ground-temp", "ground_temp", _SL, "temperature", "buried line: ground surface "
+          "temperature [°C]", "(required for a buried line)"),
+    Param("twin_spacing_m", "--twin-spacing", "twin_spacing", _SL, "length", "buried line: a return pipe beside it "
+          "(or in its twin casing), the distance between the centres [m], with return_temp", "", 0.0, 100.0, True),
+    Param("return_temp_c", "--return-temp", "return_temp", _SL, "temperature", "buried line: the return pipe's "
+          "fluid temperature [°C], with twin_spacing", ""),
+    Param("casing_diameter_m", "--twin-casing", "twin_casing", _SL, "diameter", "buried line: supply and return in "
+          "ONE casing of this outer diameter [m] (pipeins.twin_casing), with twin_spacing and return_temp", "",
+          0.0, 5.0, True),
+    Param("casing_insulation", "--casing-insulation", "casing_insulation", _SL, "text", "buried line: the "
+          "insulation filling a twin casing", "the service's material"),
     # -- design conductivity (pipeins.user_materials) -----------------------------------------
     Param("ageing_percent", "--ageing-factor", "ageing_factor", _S, "percent", "design-conductivity allowance "
           "for ageing [%] (the service's material)", "0 %", 0.0, 200.0),
@@ -251,14 +270,6 @@ CLI_ONLY = {
                        "safety_factor applies to the traced lines' design heat loss (pipeins.schedule_tracing)",
     "--condition": "several design conditions of one line sized on the command line; a project file names its "
                    "[conditions.NAME] tables and a service's or line's conditions list",
-    "--buried": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
-    "--soil-k": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
-    "--soil": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
-    "--ground-temp": "a buried line (pipeins.buried), checked one at a time; not yet a project-file input",
-    "--twin-spacing": "two buried pipes in one trench, checked one pair at a time; not yet a project-file input",
-    "--twin-casing": "a supply and a return in one buried casing (pipeins.twin_casing), checked one pair at a time",
-    "--casing-insulation": "the insulation of a twin casing (pipeins.twin_casing), checked one pair at a time",
-    "--return-temp": "two buried pipes in one trench, checked one pair at a time; not yet a project-file input",
     "--ducts": "a table's duct sizes; the project file lists its lines, each with its size",
     "--materials": "a user's materials file for one checked line (pipeins.user_materials); a project names its "
                    "own with [project] materials_file",
@@ -395,7 +406,8 @@ _NOUNS = {"rh_percent": "relative humidity", "emittance": "emittance", "efficien
           "max_heat_flow_w_per_m": "the heat-flow cap", "max_temp_change_k": "the temperature change limit",
           "hold_time_s": "the hold time", "contact_time_s": "the contact time",
           "dew_margin_k": "the dew-point margin", "outer_diameter_m": "outside diameter",
-          "wall_m": "wall thickness"}
+          "wall_m": "wall thickness", "depth_m": "the burial depth", "soil_k_w_mk": "the soil conductivity",
+          "twin_spacing_m": "the spacing of the pipe centres", "casing_diameter_m": "the casing diameter"}
 #: The unit a range is stated in, by kind.
 _RANGE_UNITS = {"fraction": " %", "percent": " %", "years": " years", "time": "", "thickness": " m",
                 "diameter": " m", "length": " m", "heat_transfer_coefficient": " W/(m²·K)", "speed": " m/s"}

@@ -102,7 +102,11 @@ ITEM_TABLES = ("lines", "faces", "vessels")
 #: Line keys that give the line a build-up (or a service) of its own, and those that give it a
 #: location of its own (a run's; a face's height is its own size).
 _LINE_SERVICE_KEYS = ("material", "thickness", "finish", "emittance", "pipe_material", "sheet", "flow", "velocity",
-                      "duct_location", "duct_service")
+                      "duct_location", "duct_service", "buried", "soil", "soil_k", "ground_temp", "twin_spacing",
+                      "return_temp", "twin_casing", "casing_insulation")
+#: The parameters of a buried line (pipeins.buried): the depth, then the rest.
+_BURIED = ("depth_m", "soil", "soil_k_w_mk", "ground_temp_c", "twin_spacing_m", "return_temp_c", "casing_diameter_m",
+           "casing_insulation")
 _LINE_CONDITION_KEYS = ("orientation", "height")
 #: The keys of an item read as its own values (service, condition(s), tag and size are read apart).
 _LINE_OWN_KEYS = {t: frozenset(KEYS[t] - {"service", "condition", "conditions", "tag", "size"}) for t in ITEM_TABLES}
@@ -201,6 +205,15 @@ class Service:
     tracing: Any = None
     sheet: str | None = None           # sheet metal of a duct, face or vessel wall
     fluid_given: bool = True           # False: the fluid is the default (water; air in a duct)
+    #: A buried line's inputs, ((parameter, value), …) of depth_m, soil or soil_k_w_mk,
+    #: ground_temp_c and a twin's twin_spacing_m, return_temp_c, casing_diameter_m,
+    #: casing_insulation, or None (in air): pipeins.schedule_buried.
+    buried: Any = None
+
+    @property
+    def buried_inputs(self) -> dict:
+        """The buried-line inputs by parameter name ({} for a line in air)."""
+        return dict(self.buried or ())
 
     @property
     def fluid_temp_c(self) -> float:
@@ -885,6 +898,13 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
                if k in v} or None   # heat tracing of the service's lines (pipeins.schedule_tracing)
     if tracing is not None and "maintain_temp_c" not in tracing:
         r.problem(p, entry, file_word(next(iter(tracing))), "is a heat-tracing input: give maintain_temp too")
+    buried = {k: v[k] for k in _BURIED if k in v} or None   # a buried line (pipeins.schedule_buried)
+    if buried is not None and all(_PARAM_OF[("services", k)] in v for k in table if ("services", k) in _PARAM_OF
+                                  and _PARAM_OF[("services", k)] in _BURIED):   # (a refused value is reported)
+        _check_buried(r, p, entry, table, buried, None)
+        if tracing is not None:
+            r.problem(p, entry, file_word(next(iter(tracing))), "heat tracing is worked out for a line in air; a "
+                                                                "buried line's tracer is not modelled")
     if len(r.problems) > ok_before:
         return None
     # every requirement the service gives, then only its criteria asked for
@@ -895,7 +915,8 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
                    emittance=v.get("emittance"), pipe_material=pipe_material, velocity_m_s=v.get("velocity_m_s"),
                    inner_h_w_m2k=v.get("inner_h_w_m2k"), sheet=v.get("sheet"),
                    fluid_given="fluid" in table or "steam_pressure" in table,
-                   tracing=tuple(tracing.items()) if tracing else None)
+                   tracing=tuple(tracing.items()) if tracing else None,
+                   buried=tuple(buried.items()) if buried else None)
 
 
 def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict, raw_services, raw_conditions,
@@ -1015,6 +1036,8 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
                                                      r.units)
         except InputError as exc:
             r.problem(p, entry, exc.name if exc.name in ("valve", "flange", "cover") else "valve", exc.message)
+    if service is not None and (service.buried or any(k in v for k in _BURIED)):   # a buried line
+        _buried_line(r, p, entry, table, v, service, kind, size)
     if service is not None and service.code is not None and "code" in service.criteria:
         _code_for(r, p, entry, kind, service)
     section = ()
@@ -1033,6 +1056,94 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
     length = v["length_m"] if top == "lines" else None
     return Line(index, tag, sname, size, length, cname, fittings, r.pos.header(p), kind, section,
                 v.get("area_m2"), v.get("count", 1) if top == "vessels" else None, top, objects, cover)
+
+
+def _merged_buried(service, v: dict) -> tuple | None:
+    """The buried-line inputs of a line: its service's, with the line's own over them."""
+    merged = {**service.buried_inputs, **{k: v[k] for k in _BURIED if k in v}}
+    return tuple(merged.items()) if merged else None
+
+
+def _check_buried(r: _Reader, p, entry, table: dict, given: dict, service) -> None:
+    """The rules between a service's or line's buried inputs (:func:`pipeins.buried.check_buried`),
+    each problem at the key it names (or at ``buried``); a line's (*service* given) only those
+    its own keys add to its service's."""
+    from .buried import check_buried
+
+    found = check_buried(given)
+    if service is not None:
+        already = set(check_buried(service.buried_inputs)) if service.buried else set()
+        found = [x for x in found if x not in already]
+    for name, message in found:
+        key = file_word(name)
+        r.problem(p, entry, key if key in table else ("buried" if "buried" in table else None), message)
+    if given.get("casing_insulation") is not None:
+        from .catalog.materials import lookup_material
+
+        r.guard(p, entry, "casing_insulation", lookup_material, given["casing_insulation"])
+
+
+def _buried_line(r: _Reader, p, entry, table: dict, v: dict, service, kind: str, size) -> None:
+    """A buried pipe line: its inputs (the service's with its own over them) checked together
+    and against its pipe (the depth beyond the pipe's or the given build-up's radius, the
+    return pipe beside it or in the casing)."""
+    from .buried import SIZED_FOR, check_buried
+
+    given = {**service.buried_inputs, **{k: v[k] for k in _BURIED if k in v}}
+    if any(file_word(k) in table and k not in v for k in _BURIED):   # a refused value is reported already
+        return
+    before = len(r.problems)
+    if any(k in v for k in _BURIED):
+        _check_buried(r, p, entry, table, given, service)
+        if "depth_m" not in given:
+            return
+    if len(r.problems) > before or check_buried(given):
+        return
+    if (not set(service.criteria) & set(SIZED_FOR) and "thickness_m" not in v and service.thickness_m is None
+            and given.get("casing_diameter_m") is None):
+        sname = service.base or service.name
+        r.problem(("services", sname), f'service "{sname}"', "criteria",
+                  f"a buried line is sized for {', '.join(SIZED_FOR)} (touch and condensation do not apply to a "
+                  f"buried line): list one in criteria, or give its lines a thickness")
+    key = next((file_word(k) for k in _BURIED if file_word(k) in table), "size")
+    for fitting in ("valves", "flanges", "strainers", "valve", "flange", "cover"):
+        if fitting in table:
+            r.problem(p, entry, fitting, "fittings are solved in air: a buried line's fittings (in a chamber) are not "
+                                         "modelled; leave them out of a buried line")
+    if kind != "pipe":
+        r.problem(p, entry, key if key in table else kind, f"a buried line is a pipe; a {kind} is solved in air")
+        return
+    if size is None:
+        return
+    od, depth = float(size.outer_diameter_m), given["depth_m"]
+    twin_casing = given.get("casing_diameter_m")
+    if twin_casing is not None:
+        if "thickness_m" in v:
+            r.problem(p, entry, "thickness", "a twin casing's insulation fills the casing (twin_casing); drop thickness")
+            return
+        from .twin_casing import check_geometry
+
+        def fits():
+            try:
+                check_geometry(od / 2, given["twin_spacing_m"] / 2, twin_casing / 2)
+            except InputError as exc:
+                raise InputError("twin_spacing_m", f"{size.label} (outside diameter {od * 1000:.1f} mm): "
+                                                   f"{exc.message}") from None
+
+        r.guard(p, entry, "twin_spacing" if "twin_spacing" in table else key, fits)
+        return
+    radius = od / 2 + v.get("thickness_m", service.thickness_m or 0.0)
+    what = "the pipe radius" if "thickness_m" not in v and service.thickness_m is None else \
+        "the casing radius (pipe and given thickness)"
+    if not depth > radius:
+        r.problem(p, entry, "buried" if "buried" in table else key,
+                  f"the burial depth {depth:g} m (to the pipe centre) must be more than {what} {radius:g} m of "
+                  f"{size.label}")
+    spacing = given.get("twin_spacing_m")
+    if spacing is not None and not spacing > 2 * radius:
+        r.problem(p, entry, "twin_spacing" if "twin_spacing" in table else key,
+                  f"the two pipes' centres must be more than a casing diameter apart ({2 * radius * 1000:.0f} mm "
+                  f"for {size.label})")
 
 
 def _code_for(r: _Reader, p, entry, kind: str, service) -> None:
@@ -1150,6 +1261,7 @@ def _line_service(services: dict, sname: str, table: dict, v: dict, file_line: i
             series=(v["thickness_m"],) if "thickness_m" in v else base.series, file_line=file_line, base=sname,
             thickness_m=v.get("thickness_m", base.thickness_m), entry=entry, sheet=v.get("sheet", base.sheet),
             flow=v.get("flow", base.flow), velocity_m_s=v.get("velocity_m_s", base.velocity_m_s),
+            buried=_merged_buried(base, v),
             requirements=replace(base.requirements,
                                  duct_location=v.get("duct_location", base.requirements.duct_location),
                                  duct_service=v.get("duct_service", base.requirements.duct_service)))

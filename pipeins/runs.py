@@ -259,7 +259,7 @@ class TempChange(Criterion):
         inlet = problem.fluid.temp_c
         mdot = mass_flow_kg_s(self.flow, self.fluid_name, inlet)
         run = temperature_along_run(problem.pipe, layers, self.fluid_name, inlet, mdot, self.length_m,
-                                    problem.surroundings, problem.surface,
+                                    problem.surroundings, problem.surface_for(layers),
                                     problem.fluid.film_coefficient_w_m2k, self.segments)
         return self.max_change_k - np.abs(np.asarray(inlet, dtype=float) - run.outlet_temp_c)
 

@@ -124,6 +124,10 @@ class LineResult:
     bare_heat_flow_w_each: float | None = None
     #: The part whose surface temperature governs (a duct's or vessel's worst face).
     governing_surface: str | None = None
+    #: A buried line's depth to the pipe centre [m] (None: in air), and the other pipe of its
+    #: twin pair (its tag), if any (pipeins.schedule_buried).
+    burial_depth_m: float | None = None
+    pair: str | None = None
 
     @property
     def quantity(self) -> float:
@@ -211,6 +215,8 @@ class Schedule:
     fittings: Any = None
     #: The traced lines' design heat loss (pipeins.schedule_tracing.TracingSchedule).
     tracing: Any = None
+    #: The buried lines, twin pairs apart (pipeins.schedule_buried.BuriedSchedule), or None.
+    buried: Any = None
 
 
 def _size_order(size) -> tuple:
@@ -297,11 +303,19 @@ def _compute_schedule(project: Project, progress) -> Schedule:
         by_length = {}
         for line in lines:
             key = line.length_m if "temp_change" in service.criteria else None
-            by_length.setdefault((_sizing_group(line), key), []).append(line)
+            group = _sizing_group(line)
+            if service.buried and service.buried_inputs.get("casing_diameter_m") is not None:
+                group += (line.size.label,)   # a twin casing fixes each size's build-up: one size a call
+            by_length.setdefault((group, key), []).append(line)
         for (group, length), members in by_length.items():
             sizes = sorted({l.size.label: l.size for l in members}.values(), key=_size_order)
             try:
-                sel = _select(project, service, condition, sizes, length, members[0])
+                if service.buried:   # in the soil (pipeins.schedule_buried)
+                    from .schedule_buried import select_buried
+
+                    sel = select_buried(project, service, condition, sizes, length)
+                else:
+                    sel = _select(project, service, condition, sizes, length, members[0])
             except InputError as exc:
                 problems.append(f"{where}: {condition.name}: {in_words(exc.message, file_word)}")
                 continue
@@ -333,12 +347,19 @@ def _compute_schedule(project: Project, progress) -> Schedule:
         raise ProjectError(list(dict.fromkeys(problems)))
 
     results: list[LineResult] = []
+    buried = None
     progress("sizing", len(groups), len(groups))
     for (sname, cname), lines in groups.items():
         progress("solving lines", len(results), len(project.lines))
         try:
             pipes = [l for l in lines if l.kind == "pipe"]
-            if pipes:
+            if pipes and project.services[sname].buried:   # in the soil, twin pairs apart
+                from .schedule_buried import BuriedSchedule, solve_buried_lines
+
+                buried = buried or BuriedSchedule()
+                results += solve_buried_lines(project, project.services[sname], project.conditions[cname], pipes,
+                                              chosen, warnings, buried)
+            elif pipes:
                 results += _solve_lines(project, project.services[sname], project.conditions[cname], pipes, chosen,
                                         warnings)
             if len(pipes) < len(lines):
@@ -347,12 +368,17 @@ def _compute_schedule(project: Project, progress) -> Schedule:
         except InputError as exc:
             service = project.services[sname]
             entry = f'service "{sname}"'
+            if service.buried and exc.name in ("depth_m", "twin_spacing_m"):   # a buried line's geometry
+                problems.append(f"{project.where(service.file_line, entry, file_word(exc.name))}: "
+                                f"{in_words(exc.message, file_word)}")
+                continue
             problems.append(f"{project.where(service.file_line, entry)}: {cname}: {in_words(exc.message, file_word)}")
     progress("solving lines", len(project.lines), len(project.lines))
     if problems:
         raise ProjectError(problems)
     order = {line.tag: i for i, line in enumerate(project.lines)}
-    results.sort(key=lambda r: order[r.tag])
+    # a twin pair's return line follows its supply
+    results.sort(key=lambda r: (order[r.tag], 0) if r.tag in order else (order[r.pair], 1))
 
     rows = _bands(project, chosen, groups)
     totals = _totals(results)
@@ -363,7 +389,11 @@ def _compute_schedule(project: Project, progress) -> Schedule:
         warnings.append(f"installed cost, cost saving and payback cover {len(totals.payback_lines)} of "
                         f"{len(results)} lines; left out: " + "; ".join(notes))
     cautions = _cautions(project, groups)
-    return Schedule(project, rows, results, totals, list(dict.fromkeys(warnings)), cautions, criteria_used)
+    if buried is not None:
+        order = {r.tag: i for i, r in enumerate(results)}
+        buried.items.sort(key=lambda x: order[x.tag])
+    return Schedule(project, rows, results, totals, list(dict.fromkeys(warnings)), cautions, criteria_used,
+                    buried=buried)
 
 
 def _unasked(note, service) -> bool:
@@ -478,7 +508,16 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
                                     surroundings, surface, fluid.film_coefficient_w_m2k)
         outlet = list(np.ravel(run.outlet_temp_c))
         warnings += [with_subject(n, f'service "{service.name}"') for n in run.notes]
+    return _line_results(project, service, lines, thickness, q, q_bare, fit_len, heat, heat_bare, ts, dew_margin,
+                         outlet, bare_surface, warnings)
 
+
+def _line_results(project, service, lines, thickness, q, q_bare, fit_len, heat, heat_bare, ts, dew_margin, outlet,
+                  bare_surface, warnings, **extra) -> list[LineResult]:
+    """The :class:`LineResult` of every pipe line of one service from its solved columns (per
+    metre, per line, the bare ones, the surface): the money of each duty, the installed cost.
+    *extra*: further LineResult fields, a list per line each (a buried line's)."""
+    n = len(lines)
     basis, money, gaining = _money_and_gains(service, heat, heat_bare, [l.tag for l in lines], warnings)
     installed = [None] * n
     installed_note = [""] * n
@@ -512,6 +551,9 @@ def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[L
     out = [LineResult(l.tag, l.service, l.size.label, l.condition, l.length_m, t, qi, qb, fl, h, hb, tsi, d, o,
                       name, emittance, p, *rest)
            for l, t, qi, qb, fl, h, hb, tsi, d, o, p, *rest in columns]
+    for key, values in extra.items():
+        for line, value in zip(out, values):
+            setattr(line, key, value)
     return out
 
 
@@ -746,7 +788,9 @@ def _cautions(project, groups) -> list:
     from .cautions import caution_notes
 
     services = [project.services[s] for s, _ in groups]
-    return caution_notes([s.fluid_temp_c for s in services], [project.conditions[c].air_temp_c for _, c in groups],
+    air = [s.buried_inputs.get("ground_temp_c", project.conditions[c].air_temp_c)   # a buried line's: the ground
+           for s, (_, c) in zip(services, groups)]
+    return caution_notes([s.fluid_temp_c for s in services], air,
                     [lookup_finish(s.finish).surface_kind for s in services if s.finish],
                     freeze=any("freeze" in s.criteria for s in services),
                     code=any(s.code is not None for s in services))

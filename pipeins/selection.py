@@ -78,7 +78,7 @@ def series_for(material, series: str | tuple | None, units: str = "si",
 
 def select(spec, material_name: str, req, series=None, units: str = "si", sizes=None,
            code: str | None = None, economic=None, code_paths=(), inner_material: str | None = None,
-           add_inner_layer: bool = True) -> Selection:
+           add_inner_layer: bool = True, soil: tuple | None = None) -> Selection:
     """Size the outer layer of *material_name* over the line's fixed layers.
 
     *code* names a rule set of :mod:`pipeins.codes` whose minimum thickness joins the
@@ -91,6 +91,10 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
     fluid temperature) is added under it, per size, and the outcome says so (with
     ``add_inner_layer=False``, or where nothing helps, the size is infeasible with a message
     naming the materials rated for the line).
+
+    *soil*, for a buried line (*spec* in the ground, :func:`pipeins.buried.ground_spec`): (depth of
+    the pipe centre [m], soil conductivity [W/(m·K)]); every trial build-up is solved with the
+    soil's coefficient at its own outer diameter (:attr:`pipeins.sizing.SizingProblem.soil`).
     """
     from .catalog.materials import lookup_material
     from .criteria import build_criteria
@@ -112,7 +116,7 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
     for criterion in criteria:  # the unit system of their sentences
         criterion.units = units
     limit = next((c.limit_c for c in criteria if c.key == "surface_temp"), spec.touch_limit_c)
-    problem = SizingProblem(pipe, fixed, material, fluid, surroundings, surface, limit, n)
+    problem = SizingProblem(pipe, fixed, material, fluid, surroundings, surface, limit, n, soil=soil)
     size_list = sizes or [spec.pipe_size()]
     ctx = Selecting(spec, req, problem, material, size_list, code, tuple(code_paths), economic, {})
     extra = _required_outcomes(ctx)

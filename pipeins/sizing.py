@@ -65,6 +65,24 @@ class SizingProblem:
     touch_limit_c: float | None = None
     n_sizes: int = 1
     context: dict = field(default_factory=dict)
+    #: A buried line: (depth of the pipe centre [m], soil conductivity [W/(m·K)]); the surroundings
+    #: are then the ground surface and the outer coefficient the soil's at each build-up's outer
+    #: diameter (:func:`pipeins.buried.soil_coefficient_w_m2k`).  None: in air.
+    soil: tuple | None = None
+
+    def surface_for(self, layers):
+        """The outer surface of the build-up *layers*: the problem's own, or for a buried line
+        the soil as a fixed coefficient at the build-up's outer diameter (per case)."""
+        if self.soil is None:
+            return self.surface
+        from dataclasses import replace
+
+        from .buried import soil_coefficient_w_m2k
+
+        total = sum((np.asarray(layer.installed_thickness_m, dtype=float) for layer in layers), np.zeros(()))
+        diameter = np.asarray(self.pipe.outer_diameter_m, dtype=float) + 2.0 * total
+        return replace(self.surface, fixed_coefficient_w_m2k=soil_coefficient_w_m2k(self.soil[0], diameter, self.soil[1],
+                                                                                     clamp=True))
 
     def solve(self, thickness_m, night: bool = False):
         """Solve with the outer layer at *thickness_m* (shape (n, k) or broadcastable);
@@ -75,7 +93,7 @@ class SizingProblem:
         bare = t <= 0
         layers = list(self.fixed_layers) + [Layer(self.material, np.where(bare, 1e-9, t))]
         surroundings = self.surroundings.without_sun() if night else self.surroundings
-        return solve(self.pipe, layers, self.fluid, surroundings, self.surface,
+        return solve(self.pipe, layers, self.fluid, surroundings, self.surface_for(layers),
                      touch_limit_c=self.touch_limit_c)
 
     @property
@@ -88,7 +106,7 @@ class SizingProblem:
         if "bare" not in self.context:
             from .bare import solve_bare
 
-            self.context["bare"] = solve_bare(self.pipe, self.fluid, self.surroundings, self.surface,
+            self.context["bare"] = solve_bare(self.pipe, self.fluid, self.surroundings, self.surface_for([]),
                                               touch_limit_c=self.touch_limit_c)
         return self.context["bare"]
 

@@ -210,11 +210,12 @@ METHOD = ("symmetric and antisymmetric parts (Wallentén 1991, from memory), eac
 
 
 def solve_twin_casing(spec, casing_diameter_m: float, spacing_m: float, depth_m: float, soil_k_w_mk: float,
-                      ground_temp_c: float, return_temp_c: float, insulation: str) -> TwinCasing:
+                      ground_temp_c: float, return_temp_c: float, insulation: str, sizes=None) -> TwinCasing:
     """Solve the supply (*spec*'s pipe and fluid) and a return at *return_temp_c* [°C] in one
     casing of outer diameter *casing_diameter_m* filled with *insulation* (a catalogue or user
     material), centres *spacing_m* apart, the casing centre at *depth_m* in soil of
-    *soil_k_w_mk*, ground surface at *ground_temp_c*."""
+    *soil_k_w_mk*, ground surface at *ground_temp_c*.  *sizes*: the pipe as a one-item list of
+    catalogue sizes, where *spec* names none (a project's line)."""
     from .buried import check_soil_k
     from .catalog.materials import lookup_material
     from .physics.conduction import conductivity_of
@@ -222,7 +223,8 @@ def solve_twin_casing(spec, casing_diameter_m: float, spacing_m: float, depth_m:
     check_soil_k(soil_k_w_mk)
     if spec.layers:
         raise InputError("layers", "pipes in one casing take the casing's insulation; leave out the layers")
-    pipe, _, fluid, _, _ = spec.build_model(None, insulated=False)
+    pipe = spec.build_pipe(sizes)
+    fluid = spec.build_fluid(pipe)
     od = float(np.ravel(pipe.outer_diameter_m)[0])
     wall = float(np.ravel(pipe.wall_m)[0])
     rp, rc, d = od / 2, float(casing_diameter_m) / 2, float(spacing_m) / 2

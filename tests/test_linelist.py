@@ -111,7 +111,7 @@ GOOD = "tag,service,size,length,condition\nA1,hot,NPS 2,10,room\n"
 
 @pytest.mark.parametrize("text, columns, lines", [
     ("tag,service,size,length,condition,Insulation\nA1,hot,NPS 2,10,room,x\n", "",
-     ['Error: l.csv: row 1, column "Insulation": unknown column; did you mean "orientation" or "duct_location"? '
+     ['Error: l.csv: row 1, column "Insulation": unknown column; did you mean "casing_insulation" or "orientation"? '
       '(rename it, map it in [lines_columns], or leave it out with [lines_columns] ignore = ["Insulation"])']),
     ("tag,service,size,length\nA1,hot,NPS 2,10\n", "",
      ['Error: l.csv: row 1: no "condition" column; the header row has "tag", "service", "size", "length" '
@@ -134,7 +134,7 @@ GOOD = "tag,service,size,length,condition\nA1,hot,NPS 2,10,room\n"
     ("tag,service,size,length,condition\n\n", "", ["Error: l.csv: no lines below the header row (row 1)"]),
     ("", "", ["Error: l.csv: empty; the first row names the columns (service, size, length, condition, …)"]),
     (GOOD, '[lines_columns]\nsise = "Pipe size"\nignore = "Remarks"\n',
-     ['Error: p.toml: line 13 (lines_columns): sise: unknown line key "sise"; did you mean "size"?',
+     ['Error: p.toml: line 13 (lines_columns): sise: unknown line key "sise"; did you mean "size" or "soil"?',
       'Error: p.toml: line 14 (lines_columns): ignore: ignore must be a list of column headers, e.g. ["Remarks"]']),
 ])
 def test_list_problems(run, tmp_path, text, columns, lines):

@@ -29,9 +29,10 @@ CSV_NAMES = {"Insulation schedule": "schedule.csv", "Lines": "lines.csv", "Faces
 
 def csv_files(report) -> list[tuple[str, Table]]:
     """``(file name, table)`` of every table of a schedule report, in order."""
+    from .schedule_buried import CSV_NAMES as BURIED
     from .schedule_fittings import CSV_NAMES as FITTINGS
 
-    return [({**CSV_NAMES, **FITTINGS}[t.title], t) for t in report.tables]
+    return [({**CSV_NAMES, **FITTINGS, **BURIED}[t.title], t) for t in report.tables]
 
 
 def _governing(key, condition=None):
@@ -200,7 +201,7 @@ def _clean(v):
 
 #: LineResult fields a pipe's JSON entry leaves out (its entry is as it always was).
 SECTION_KEYS = frozenset({"kind", "basis", "area_m2", "count", "heat_flow_w_per_m2", "bare_heat_flow_w_per_m2",
-                          "heat_flow_w_each", "bare_heat_flow_w_each", "governing_surface"})
+                          "heat_flow_w_each", "bare_heat_flow_w_each", "governing_surface", "burial_depth_m", "pair"})
 #: Fields that a section's entry carries only where they apply.
 _BY_BASIS = frozenset({"area_m2", "count", "heat_flow_w_per_m2", "bare_heat_flow_w_per_m2", "heat_flow_w_each",
                        "bare_heat_flow_w_each", "governing_surface"})
@@ -221,6 +222,8 @@ def _line_data(lines) -> list[dict]:
     for l in lines:
         if l.kind == "pipe":  # a pipe's entry as it always was
             entry = dict(zip(pipe_names, map(_clean, get_pipe(l))))
+            if l.burial_depth_m is not None:   # a buried pipe: its depth, and its pair's other pipe
+                entry.update(burial_depth_m=l.burial_depth_m, pair=l.pair)
         else:  # a section's: the keys of its basis (no per-metre figure on a face or vessel)
             entry = {k: v for k, v in zip(names, map(_clean, get(l))) if v is not None or k not in _BY_BASIS}
             if l.basis != "W/m":
@@ -292,21 +295,25 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
 
     runs = [l for l in schedule.lines if l.basis == "W/m"]
     ducts = any(l.kind == "duct" for l in runs)
+    buried = any(l.burial_depth_m is not None for l in runs)
     lines = Table("Lines", [
         Column("line"), Column("service"), Column("size"), Column("location"), Column("length", "length"),
         Column("thickness", "thickness"), Column("heat flow", "heat_flow_per_length"),
         Column("bare fittings", "length"), Column("heat flow, line", "power"),
         Column("bare heat flow, line", "power"), Column("surface", "temperature"),
         Column("above dew point", "temperature_difference"), Column("outlet", "temperature")]
-        + ([Column("governing face")] if ducts else []),
+        + ([Column("governing face")] if ducts else []) + ([Column("buried at", "length")] if buried else []),
         [[l.tag, l.service, l.size, l.condition, l.length_m, l.thickness_m, l.heat_flow_w_per_m,
           l.fittings_length_m or None, l.heat_flow_w, l.bare_heat_flow_w, l.surface_temp_c, l.dew_point_margin_k,
-          l.outlet_temp_c] + ([_part(l)] if ducts else []) for l in runs],
+          l.outlet_temp_c] + ([_part(l)] if ducts else []) + ([l.burial_depth_m] if buried else []) for l in runs],
         note="Heat flow positive = lost by the fluid, negative = gained. Bare fittings are counted as "
              "that length of bare pipe; the bare line is the pipe's own surface with no insulation."
              + (" A duct's heat flow is per unit length of run over all its faces, its surface the governing face's "
                 "(the coldest of a duct gaining heat, the hottest of one losing it); a duct's bare line is its "
-                "bare sheet." if ducts else ""))
+                "bare sheet." if ducts else "")
+             + (" A buried line (buried at: the depth of its centre) loses heat through the soil to the ground "
+                "surface, its surface the casing's, its bare line the bare pipe in the soil; a twin pair's return "
+                "is a line of its own (see Buried lines)." if buried else ""))
 
     tables = [sched] + ([lines] if runs or not schedule.lines else []) + _section_tables(schedule)
     tables += [_totals_table(schedule, units, cur)]
@@ -317,6 +324,9 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
 
     tables += fittings_tables(getattr(schedule, "fittings", None), units)   # fittings as objects, apart from the pipe
     tables += tracing_tables(getattr(schedule, "tracing", None), units)     # traced lines' design heat loss
+    from .schedule_buried import buried_data, buried_tables
+
+    tables += buried_tables(getattr(schedule, "buried", None), units)       # buried lines, twin pairs apart
     tables += list(_basis_tables(schedule, units, cur))
 
     footer = [f"units: {units}; currency: {cur or '–'}"]
@@ -353,6 +363,7 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
             "simple_payback_years": _clean(t.payback_years)},
         "fittings": fittings_data(getattr(schedule, "fittings", None)),
         "tracing": tracing_data(getattr(schedule, "tracing", None)),
+        **({"buried": buried_data(schedule.buried)} if getattr(schedule, "buried", None) else {}),
         "basis": _basis_data(schedule),
         "criteria": schedule.criteria_used,
         "warnings": warnings,
