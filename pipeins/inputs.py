@@ -177,7 +177,7 @@ PARAMS: tuple[Param, ...] = (
           "allowed to form [%]", "0 %", 0.0, 1.0),
     Param("tracer_output_w_per_m", "--tracer-output", "tracer_output", _S, "heat_flow_per_length",
           "a heat tracer's output at the maintain temperature [W/m] (in the file: compared with the design heat "
-          "loss of each traced line)", "", 0.0, None, True),
+          "loss of each traced line; sized for with criteria = [\"tracer\"])", "", 0.0, None, True),
     Param("safety_factor_percent", "--safety-factor", "safety_factor", _S, "percent",
           "safety factor on the heat loss a tracer makes up [%]", "20 %", 0.0, 100.0),
     Param("maintain_temp_c", "--maintain-temp", "maintain_temp", _S, "temperature", "heat tracing: the "
@@ -264,10 +264,6 @@ CLI_ONLY = {
     "--profile": "an operating profile of one line; a project service runs at one temperature",
     "--plot": "an extra chart file beside one command's output; the schedule's formats carry their charts",
     "--ascii": "how the console draws one command's text output (plain ASCII rules); not part of a project",
-    "--tracer-output": "as a sizing criterion (size, table) for one line; in a project file tracer_output is "
-                       "compared with each traced line's design heat loss (pipeins.schedule_tracing), not sized for",
-    "--safety-factor": "as part of the tracer-output sizing criterion for one line; in a project file "
-                       "safety_factor applies to the traced lines' design heat loss (pipeins.schedule_tracing)",
     "--condition": "several design conditions of one line sized on the command line; a project file names its "
                    "[conditions.NAME] tables and a service's or line's conditions list",
     "--ducts": "a table's duct sizes; the project file lists its lines, each with its size",

@@ -872,8 +872,9 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
     registered = [c for c in records() if c.name in CRITERIA]
     given = {c.name: c.default or c.asked(v, {"code": scode, "cost_table": scost}) for c in registered}
     if criteria is None:  # default: every criterion the service gives the data for
+        # (a tracer output alone is compared with the traced lines' design heat loss, sized for only when listed)
         criteria = [c.name for c in registered if c.default] + [
-            c.name for c in registered if not c.default and given[c.name]]
+            c.name for c in registered if not c.default and given[c.name] and c.name != "tracer"]
     else:
         for c in registered:
             if c.name in criteria and not given[c.name]:
@@ -905,6 +906,9 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
         if tracing is not None:
             r.problem(p, entry, file_word(next(iter(tracing))), "heat tracing is worked out for a line in air; a "
                                                                 "buried line's tracer is not modelled")
+    if "tracer" in criteria and tracing is None:   # (tracing keys without maintain_temp are said above)
+        r.problem(p, entry, "criteria", 'criterion "tracer" needs the key "maintain_temp" (the temperature the '
+                                        "tracer holds; the tracer output is sized for there, at min_ambient)")
     if len(r.problems) > ok_before:
         return None
     # every requirement the service gives, then only its criteria asked for

@@ -43,6 +43,7 @@ GOVERNING_LABELS = {
     "heat_flux": "heat-flux cap (per m² of outer surface)",
     "temp_change": "temperature change",
     "freeze": "freeze protection",
+    "tracer": "tracer output",
     "economic": "lifetime cost (economic thickness)",
     "code": "energy-code minimum",
 }
@@ -449,6 +450,8 @@ def _select(project, service, condition, sizes, length, line=None):
     kind = getattr(line, "kind", "pipe")
     if kind not in ("pipe", "duct"):
         sizes = None  # a face or vessel: one section, its own geometry
+    if "tracer" in service.criteria and service.tracing:   # sized for the tracer at the maintain temperature
+        return _select_traced(project, service, condition, sizes, length, section, economic)
     if condition.name in project.condition_sets:  # several design conditions
         from .design_conditions import select_over_conditions
 
@@ -460,6 +463,42 @@ def _select(project, service, condition, sizes, length, line=None):
     spec = _spec(service, condition, length, with_rh="condensation" in service.criteria, section=section)
     return select(spec, service.material, service.requirements, service.series, project.units, sizes=sizes,
                   code=service.code, economic=economic, code_paths=project.code_paths, add_inner_layer=False)
+
+
+def _select_traced(project, service, condition, sizes, length, section, economic):
+    """Size a traced service whose criteria list "tracer": the tracer output under its own design
+    condition, "heat tracing" (the fluid still at the maintain temperature, the air at the
+    minimum design ambient, the location's wind: :func:`pipeins.tracing.tracing_spec`, as
+    ``size --tracer-output`` solves a line given those temperatures), every other criterion under
+    the line's condition(s); the largest requirement governs
+    (:func:`pipeins.design_conditions.select_over_conditions`)."""
+    from dataclasses import replace
+
+    from .design_conditions import criteria_under, select_over_conditions
+    from .tracing import tracing_spec
+
+    t = dict(service.tracing)
+    members = [project.conditions[n] for n in project.condition_sets.get(condition.name, (condition.name,))]
+    conditions = []
+    for c in members:
+        here = service.criteria if len(members) == 1 else criteria_under(c, service.criteria)
+        here = tuple(x for x in here if x != "tracer")
+        if here:
+            conditions.append(replace(c, criteria_here=here))
+    base = members[0]
+    traced = replace(base, name="heat tracing", air_temp_c=t.get("min_ambient_c", base.air_temp_c), rh_percent=None,
+                     surroundings_temp_c=None if "min_ambient_c" in t else base.surroundings_temp_c,
+                     criteria_here=("tracer",))
+
+    def spec_of(c, with_rh):
+        if c.name != traced.name or c.criteria_here != ("tracer",):
+            return _spec(service, c, length, with_rh=with_rh, section=section)
+        spec = _spec(service, base, length, with_rh=False, section=section)
+        return tracing_spec(spec, t["maintain_temp_c"], t.get("min_ambient_c"))
+
+    return select_over_conditions(spec_of, conditions + [traced], service.criteria, service.material,
+                                  service.requirements, service.series, project.units, sizes=sizes, code=service.code,
+                                  economic=economic, code_paths=project.code_paths)
 
 
 def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[LineResult]:

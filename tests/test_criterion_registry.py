@@ -147,6 +147,7 @@ PROJECT_KEYS = {
     "heat_flux": ('max_heat_flux = "30 W/m2"', "80 C", "20 C"),
     "temp_change": ('max_temp_change = "2 K"\nflow = "1 kg/s"', "80 C", "20 C"),
     "freeze": ('hold_time = "8 h"', "10 C", "-10 C"),
+    "tracer": ('maintain_temp = "5 C"\nmin_ambient = "-20 C"\ntracer_output = "15 W/m"', "10 C", "-5 C"),
     "economic": (f'cost_table = "{(EXAMPLES / "costs_demo.csv").as_posix()}"\nprice = "0.09/kWh"', "80 C", "20 C"),
 }
 

@@ -152,7 +152,7 @@ RECORDS: list[CriterionRecord] = [
                     asks=("hold_time_s",), name="freeze", kinds=("pipe",),
                     decide="pipeins.criteria.freeze:decide", under="pipeins.criteria.freeze:under"),
     CriterionRecord("tracer", "tracer output", ("tracer_output_w_per_m", "safety_factor_percent"),
-                    asks=("tracer_output_w_per_m",), name="tracer", project=False, kinds=("pipe", "duct"),
+                    asks=("tracer_output_w_per_m",), name="tracer", kinds=("pipe", "duct"),
                     decide="pipeins.criteria.tracer:decide"),
     CriterionRecord("code", "code minimum", ("code", "code_table", "duct_location", "duct_service", "climate_zone"),
                     asks=("code",), name="code", kinds=("pipe", "duct"),
