@@ -209,6 +209,9 @@ class Service:
     #: ground_temp_c and a twin's twin_spacing_m, return_temp_c, casing_diameter_m,
     #: casing_insulation, or None (in air): pipeins.schedule_buried.
     buried: Any = None
+    #: The design-conductivity factors (pipeins.user_materials.DesignFactors) of its material, or
+    #: None: they apply to its fittings' covers too (pipeins.schedule_fittings).
+    design_factors: Any = None
 
     @property
     def buried_inputs(self) -> dict:
@@ -820,9 +823,11 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
 
         found = r.guard(p, entry, "material", lookup_material, material)
         factors = {k: v[k] for k in ("ageing_percent", "moisture_percent", "joints_percent") if k in v}
+        design_factors = None
         if found is not None and factors:   # the design conductivity (pipeins.user_materials)
             from .user_materials import DesignFactors, register_design_material
 
+            design_factors = r.guard(p, entry, "ageing_factor", DesignFactors, **factors)
             material = r.guard(p, entry, "ageing_factor", lambda: register_design_material(
                 found, DesignFactors(**factors)))
     finish = r.text_value(table, "finish", p, entry)
@@ -920,7 +925,8 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
                    inner_h_w_m2k=v.get("inner_h_w_m2k"), sheet=v.get("sheet"),
                    fluid_given="fluid" in table or "steam_pressure" in table,
                    tracing=tuple(tracing.items()) if tracing else None,
-                   buried=tuple(buried.items()) if buried else None)
+                   buried=tuple(buried.items()) if buried else None,
+                   design_factors=design_factors if material is not None else None)
 
 
 def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict, raw_services, raw_conditions,

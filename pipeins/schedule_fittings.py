@@ -128,6 +128,19 @@ def parse_line_fittings(valves, flanges, cover, size_label: str, units: str = "s
     return tuple(out), parsed_cover
 
 
+def _cover_material(service, name: str) -> str:
+    """The name of a cover's material as solved: at the service's design conductivity where it has
+    design factors (a removable cover ages, gets wet and has joints in service as the pipe
+    insulation does: pipeins.user_materials), else as given."""
+    factors = getattr(service, "design_factors", None)
+    if factors is None or factors.factor == 1.0:
+        return name
+    from .catalog.materials import lookup_material
+    from .user_materials import register_design_material
+
+    return register_design_material(lookup_material(name), factors)
+
+
 def schedule_fittings(project, lines) -> FittingsSchedule:
     """Solve the fittings listed as objects on *lines* (:class:`pipeins.project.Line`, with
     ``fitting_objects`` and ``cover``) under their service and location."""
@@ -169,6 +182,7 @@ def schedule_fittings(project, lines) -> FittingsSchedule:
                 covers.setdefault(c[0], []).append(j)
         face = spec.build_surface(insulated=True)
         for material, idx in covers.items():
+            material = _cover_material(service, material)
             idx = np.array(idx)
             sub = Pipe(diameter[idx], walls[owner[idx]], pipe.wall_conductivity_w_mk, "fittings", pipe.wall_material)
             thick = np.array([members[owner[j]].cover[1] for j in idx])
@@ -194,7 +208,8 @@ def schedule_fittings(project, lines) -> FittingsSchedule:
         for j, (i, f) in enumerate(rows):
             line = members[i]
             cover = None if line.cover is None else (
-                f"{lookup_material(line.cover[0]).name} {format_quantity(line.cover[1], 'thickness', project.units)}")
+                f"{lookup_material(_cover_material(service, line.cover[0])).name} "
+                f"{format_quantity(line.cover[1], 'thickness', project.units)}")
             covered = None if line.cover is None else float(q_cov[j])
             out.items.append(ScheduleFitting(line.tag, sname, cname, f.label, f.kind, f.size, f.pressure_class,
                                              float(f.area_m2), float(q_bare[j]), float(t_bare[j]), cover, covered,

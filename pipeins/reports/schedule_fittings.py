@@ -13,7 +13,9 @@ CSV_NAMES = {"Fittings": "fittings.csv", "Fittings totals": "fittings_totals.csv
 
 NOTE = ("Each fitting solved as a short horizontal cylinder of its flange outside diameter and bare area, at the "
         "line's fluid temperature and location (in the manner of ASTM C1129); the cover is one layer of the given "
-        "material and thickness over it. Heat flow positive = lost by the fluid, negative = gained. These fittings "
+        "material and thickness over it, at the service's design conductivity where it has design factors (ageing, "
+        "moisture, joints: a removable cover ages and gets wet in service as the pipe insulation does; the cover's "
+        "name then says the factor). Heat flow positive = lost by the fluid, negative = gained. These fittings "
         "are not in the lines' heat flows; counted fittings (valves = 2) still are, as bare pipe.")
 
 
