@@ -101,8 +101,10 @@ def night_extras(spec, result, units, rows, data, warnings):
     rows.append(["surface at night, without sun", fq(ts, "temperature", units)])
     data["night_surface_temp_c"] = ts
     if ts < dew:
-        warnings.append(f"at night, without sun, the surface falls to {ts:.1f} °C, below the dew point "
-                        f"{dew:.1f} °C: it will sweat")
+        from .notes import note
+
+        warnings.append(note("surface.below_dew_point.night", surface_c=(ts, "temperature"),
+                             dew_point_c=(dew, "temperature")))
 
 
 def _contents_rows(spec, result, units, rows, data, warnings):
@@ -144,8 +146,9 @@ def _contents_rows(spec, result, units, rows, data, warnings):
             hold = float(freeze_hold_s(mass, ua, temp, air))
             rows.append(["hours until water starts to freeze (lumped, UA fixed)", fq(hold, "time", units)])
             data["freeze_start_h"] = hold / 3600.0
-            warnings.append("freeze hold is a lumped estimate for still, mixed contents; local codes and licensed "
-                            "practice govern freeze protection")
+            from .notes import note
+
+            warnings.append(note("vessel.freeze_hold_lumped"))
 
 
 # -- the air along a duct run -----------------------------------------------------------

@@ -601,13 +601,22 @@ def _heat_flow_at_surface(cases, network, at, out, rtol, max_steps=50):
     out["q"][at] = q
 
 
-def _span(values) -> str:
-    lo, hi = float(np.min(values)), float(np.max(values))
-    return f"{lo:.1f} °C" if abs(hi - lo) < 0.05 else f"{lo:.1f} to {hi:.1f} °C"
+def _limit_note(code, layer_index, material, temps, limit_c):
+    """A layer's service-limit note: one temperature, or the span of the cases' temperatures."""
+    from .notes import note
+
+    lo, hi = float(np.min(temps)), float(np.max(temps))
+    common = dict(layer=str(layer_index), material=material.name, limit_c=(limit_c, "temperature"))
+    if abs(hi - lo) < 0.05:
+        return note(code, **common, temp_c=(lo, "temperature"))
+    return note(code + ".span", **common, low_c=(lo, "temperature"), high_c=(hi, "temperature"))
 
 
-def _warnings(layers, fits, temps, h_total, outer_radius, shape) -> list[str]:
-    """Warnings that travel with the result: service limits, critical radius."""
+def _warnings(layers, fits, temps, h_total, outer_radius, shape) -> list:
+    """Notes that travel with the result (:class:`pipeins.notes.Note`): a layer beyond its
+    material's service range (``layer.above_service_limit``, ``layer.below_service_limit``,
+    ``….span`` over several cases), the outer radius below the critical radius
+    (``layer.below_critical_radius``)."""
     out = []
     for j, layer in enumerate(layers):
         mat = layer.material
@@ -615,19 +624,18 @@ def _warnings(layers, fits, temps, h_total, outer_radius, shape) -> list[str]:
         cold = np.minimum(temps[j + 1], temps[j + 2])
         over = hot > mat.max_temp_c
         under = cold < mat.min_temp_c
-        name = f"layer {j + 1} ({mat.name})"
         if np.any(over):
-            out.append(f"{name}: reaches {_span(hot[over])}, above its usable limit of "
-                       f"{mat.max_temp_c:g} °C; choose a material rated for it or add an inner layer")
+            out.append(_limit_note("layer.above_service_limit", j + 1, mat, hot[over], mat.max_temp_c))
         if np.any(under):
-            out.append(f"{name}: falls to {_span(cold[under])}, below its usable limit of "
-                       f"{mat.min_temp_c:g} °C")
+            out.append(_limit_note("layer.below_service_limit", j + 1, mat, cold[under], mat.min_temp_c))
     if layers and outer_radius is not None:
         outer_fit, outer_layer = fits[-1], layers[-1]
         k_mean = outer_fit.conductivity(0.5 * (temps[-1] + temps[-2]))
         r_c = shape.critical_radius_m(k_mean, h_total)
         below = outer_radius < r_c
         if np.any(below):
-            out.append(f"outer radius below the critical radius ({1000 * float(np.max(r_c[below])):.1f} mm) "
-                       f"for {outer_layer.material.name}: more of it raises the heat flow at first")
+            from .notes import note
+
+            out.append(note("layer.below_critical_radius", radius_m=(float(np.max(r_c[below])), "diameter"),
+                            material=outer_layer.material.name))
     return out

@@ -123,7 +123,7 @@ def test_converges_over_a_wide_grid_without_nan():
 def test_layer_beyond_service_limit_is_a_named_warning():
     r = solve(Pipe(0.1143, 0.006), [Layer(lookup_material("elastomeric foam"), 0.025)],
               Fluid(180.0), Surroundings(20.0))
-    assert any("layer 1 (" in w and "above its usable limit" in w for w in r.warnings)
+    assert any(w.code == "layer.above_service_limit" and w.word("layer") == "1" for w in r.warnings)
 
 
 # --- invariants (hypothesis) ---------------------------------------------------------------

@@ -171,15 +171,22 @@ def _outer_film(
 
     warnings = []
     if collect_warnings:
-        outside = (film_temp_c < TEMP_RANGE_C[0]) | (film_temp_c > TEMP_RANGE_C[1])
-        notes.append((outside, f"film temperature outside {TEMP_RANGE_C[0]:g} to {TEMP_RANGE_C[1]:g} °C",
-                      "air properties taken at the nearer end of the table"))
         total = h.size
-        for mask, what, consequence in notes:
+
+        def cases(mask):
             count = int(np.count_nonzero(mask))
+            return count, (f" in {count} of {total} cases" if total > 1 else "")
+
+        for mask, what, consequence in notes:
+            count, where = cases(mask)
             if count:
-                where = f" in {count} of {total} cases" if total > 1 else ""
                 warnings.append(f"outer film: {what}{where}; {consequence}")
+        count, where = cases((film_temp_c < TEMP_RANGE_C[0]) | (film_temp_c > TEMP_RANGE_C[1]))
+        if count:  # a quantity with a unit: a structured note, written by the report layer
+            from pipeins.notes import note
+
+            warnings.append(note("film.outer.air_table_range", low_c=(TEMP_RANGE_C[0], "temperature"),
+                                 high_c=(TEMP_RANGE_C[1], "temperature"), where=where))
     return h, warnings
 
 
@@ -286,8 +293,10 @@ def outer_convection_warnings(
 
     Returns
     -------
-    list of str
-        Empty when every case is inside the validity of the correlations used.
+    list of str or Note
+        Empty when every case is inside the validity of the correlations used.  A film
+        temperature beyond the air table is a :class:`pipeins.notes.Note`
+        (``film.outer.air_table_range``: it cites temperatures), the rest text.
 
     Examples
     --------

@@ -10,7 +10,9 @@ field of the note:
 * ``{name:SPEC|N}``: a quantity written in SI as ``f"{display value:SPEC} {unit}"`` (e.g.
   ``{length_m:g|}`` gives ``120 m``), in another system by ``format_quantity`` with N decimal
   places (the kind's usual ones when N is empty; an empty SPEC: the kind's usual SI ones);
-* ``{name:SPEC}`` on a plain number (kind ``number``): Python's format.
+* ``{name:SPEC}`` on a plain number (kind ``number``): Python's format;
+* ``{name!n:…}``: a quantity as above without its unit, the first of a span that names the
+  unit once (``{low_c!n:.1f|} to {high_c:.1f|}`` gives ``20.0 to 30.0 °C``).
 
 :func:`render` writes one note; :func:`note_dict` is its JSON object (SI values, plus the
 rendered ``text``).
@@ -36,6 +38,21 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
     "run.freezes": "the fluid cools to its freezing point ({freeze_c:.1f|}) along the run; "
                    "beyond that point the result is not valid",
     "run.needs_fluid": "the temperature change along the run needs the fluid (--fluid)",
+    # the solver (pipeins.solve): a layer's service range, the critical radius
+    "layer.above_service_limit": "layer {layer} ({material}): reaches {temp_c:.1f|}, above its usable limit of "
+                                 "{limit_c:g|0}; choose a material rated for it or add an inner layer",
+    "layer.above_service_limit.span": "layer {layer} ({material}): reaches {low_c!n:.1f|} to {high_c:.1f|}, above "
+                                      "its usable limit of {limit_c:g|0}; choose a material rated for it or add an "
+                                      "inner layer",
+    "layer.below_service_limit": "layer {layer} ({material}): falls to {temp_c:.1f|}, below its usable limit of "
+                                 "{limit_c:g|0}",
+    "layer.below_service_limit.span": "layer {layer} ({material}): falls to {low_c!n:.1f|} to {high_c:.1f|}, below "
+                                      "its usable limit of {limit_c:g|0}",
+    "layer.below_critical_radius": "outer radius below the critical radius ({radius_m:.1f|}) for {material}: more "
+                                   "of it raises the heat flow at first",
+    # the outer film (pipeins.physics.outer)
+    "film.outer.air_table_range": "outer film: film temperature outside {low_c!n:g|0} to {high_c:g|0}{where}; "
+                                  "air properties taken at the nearer end of the table",
     # costs (pipeins.costing)
     "cost.bare_fittings": "bare fittings count as {length_m:.1f|} of bare pipe; insulating them "
                           "(removable covers) saves most of their share",
@@ -47,6 +64,11 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
     # a checked line or section (pipeins.reports.check, pipeins.reports.section)
     "surface.above_touch_limit": "surface {surface_c:.1f|} is above the touch limit of {limit_c:g|}",
     "surface.below_dew_point": "{where} {surface_c:.1f|} is below the dew point {dew_point_c:.1f|}: it will sweat",
+    "surface.below_dew_point.night": "at night, without sun, the surface falls to {surface_c:.1f|}, below the dew "
+                                     "point {dew_point_c:.1f|}: it will sweat",
+    # a vessel's contents (pipeins.sections)
+    "vessel.freeze_hold_lumped": "freeze hold is a lumped estimate for still, mixed contents; local codes and "
+                                 "licensed practice govern freeze protection",
     "condensation.not_checked.cold_line": "condensation not checked: the {what} is colder than the air; give --rh",
     "condensation.not_checked.cold_surroundings": "condensation not checked: surroundings colder than the air "
                                                   "cool the surface to {surface_c:.1f|}, below the air; give --rh",
@@ -68,6 +90,13 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
 }
 
 
+class _Bare:
+    """A field to be written without its unit (the ``!n`` conversion)."""
+
+    def __init__(self, field):
+        self.field = field
+
+
 class _Formatter(string.Formatter):
     def __init__(self, note: Note, units: str):
         super().__init__()
@@ -80,7 +109,18 @@ class _Formatter(string.Formatter):
             raise KeyError(f"note {self.code}: its template cites {key!r}, which the note does not carry")
         return self.fields[key]
 
+    def convert_field(self, value, conversion):
+        if conversion == "n":  # the number alone, without its unit
+            return _Bare(value)
+        return super().convert_field(value, conversion)
+
     def format_field(self, value, spec):
+        if isinstance(value, _Bare):
+            from ..units import unit_label
+
+            text = self.format_field(value.field, spec)
+            label = unit_label(value.field[1], self.units) if not isinstance(value.field, str) else ""
+            return text[: -len(label)].rstrip() if label and text.endswith(label) else text
         if isinstance(value, str):
             return format(value, spec)
         number, kind = value
