@@ -332,7 +332,7 @@ class Fluid:
     film_coefficient_w_m2k: Any = None
     name: str = ""
     #: Validity notes of the correlation that gave the film coefficient (carried into results).
-    film_notes: tuple[str, ...] = ()
+    film_notes: tuple = ()  # the inner film's range notes (pipeins.notes.Note)
 
     def __post_init__(self):
         _temperature("fluid_temp_c", self.temp_c)

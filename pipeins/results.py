@@ -50,7 +50,9 @@ class Result:
     dew_point_c: np.ndarray | None
     touch_limit_c: float | None
     geometry: str
-    warnings: list[str] = field(default_factory=list)
+    #: What the solve and the films say of the result: structured notes (:class:`pipeins.notes.Note`;
+    #: the reports write them in their units), each once.
+    warnings: list = field(default_factory=list)
     inputs: dict[str, Any] = field(default_factory=dict, repr=False)
     #: Unit of the heat flow q: "W/m" (pipe run), "W/m²" (flat face) or "W" (sphere).
     basis: str = "W/m"
@@ -141,7 +143,8 @@ class Result:
             "over_touch_limit": _plain(self.over_touch_limit),
             "iterations": self.iterations,
             "residual" + HEAT_FLOW_KEYS[self.basis][len("heat_flow"):]: self.residual,
-            "warnings": list(self.warnings),
+            # texts as they are, structured notes as their objects (the reports write their sentences)
+            "warnings": [w if isinstance(w, str) else w.to_dict() for w in self.warnings],
             **({} if self.patches is None else {"kind": self.kind, "patches": [p.to_dict(self.basis)
                                                                                 for p in self.patches]}),
         }
@@ -224,7 +227,7 @@ def section_result(section, patches, results, inputs, kind, basis, touch_limit_c
         patches=parts, kind=kind)
 
 
-def film_warnings(result: "Result") -> list[str]:
+def film_warnings(result: "Result") -> list:
     """Validity warnings of the film correlations behind a solved result.
 
     The outer film's (natural, forced and mixed convection, the vertical-cylinder curvature

@@ -30,7 +30,7 @@ import numpy as np
 
 from .errors import InputError
 from .inputs import file_word, in_words
-from .notes import with_subject
+from .notes import note as make_note, with_subject
 from .project import Project, ProjectError
 
 __all__ = ["ScheduleRow", "LineResult", "Totals", "Schedule", "compute_schedule", "GOVERNING_LABELS"]
@@ -109,7 +109,9 @@ class LineResult:
     cooling_co2_kg: float | None
     bare_cooling_co2_kg: float | None
     installed_cost: float | None
-    installed_cost_note: str = ""
+    #: Why the line has no installed cost: a :class:`pipeins.notes.Note` (``schedule.no_price``,
+    #: ``schedule.table_per_metre``), "" when it has one or no table is given.
+    installed_cost_note: object = ""
     #: The section: "pipe", "duct", "face", "vessel" or "sphere", and the basis of its heat
     #: flow per unit ("W/m" per metre of run, "W/m²" per m² of face, "W" per vessel).
     kind: str = "pipe"
@@ -384,11 +386,7 @@ def _compute_schedule(project: Project, progress) -> Schedule:
     rows = _bands(project, chosen, groups)
     totals = _totals(results)
     if totals.lines_left_out:
-        left_out = set(totals.lines_left_out)
-        notes = [f'"{r.tag}" ({r.installed_cost_note or _unpriced_reason(r)})'
-                 for r in results if r.tag in left_out]
-        warnings.append(f"installed cost, cost saving and payback cover {len(totals.payback_lines)} of "
-                        f"{len(results)} lines; left out: " + "; ".join(notes))
+        warnings += _left_out_notes(results, totals)
     cautions = _cautions(project, groups)
     if buried is not None:
         order = {r.tag: i for i, r in enumerate(results)}
@@ -408,8 +406,21 @@ def _unasked(note, service) -> bool:
     return note.code.startswith("condensation.not_checked")
 
 
-def _unpriced_reason(line) -> str:
-    return "its heat gain is not priced: no COP" if not line.priced else "no energy price"
+def _left_out_notes(results, totals) -> list:
+    """The investment's notes: how many lines it covers and which are left out, then why, by
+    line (a cost table with no price for its size and thickness, or a table per metre for a
+    section) and for the lines with no energy price together (a heat gain with no COP is named
+    by the service's own note)."""
+    left_out = set(totals.lines_left_out)
+    named = lambda tags: ", ".join(f'"{t}"' for t in tags)  # noqa: E731
+    out = [make_note("schedule.payback_partial", covered=(len(totals.payback_lines), "number"),
+                total=(len(results), "number"), lines=named(r.tag for r in results if r.tag in left_out))]
+    out += [with_subject(r.installed_cost_note, f'line "{r.tag}"') for r in results
+            if r.tag in left_out and r.installed_cost_note]
+    no_price = [r.tag for r in results if r.tag in left_out and not r.installed_cost_note and r.priced]
+    if no_price:
+        out.append(make_note("schedule.no_energy_price", lines=named(no_price)))
+    return out
 
 
 def _fixed_thickness_miss(project, service, size, condition, pick) -> str:
@@ -569,9 +580,10 @@ def _line_results(project, service, lines, thickness, q, q_bare, fit_len, heat, 
                 try:
                     per_m[key] = float(table.cost_per_m(l.size.label, thickness[i, 0]))
                 except InputError:
-                    per_m[key] = f"{table.name} has no price for {l.size.label} at {1000 * thickness[i, 0]:g} mm"
+                    per_m[key] = make_note("schedule.no_price", table=table.name, size=l.size.label,
+                                      thickness_m=(float(thickness[i, 0]), "thickness"))
             cost = per_m[key]
-            if isinstance(cost, str):
+            if not isinstance(cost, float):
                 installed_note[i] = cost
             else:
                 installed[i] = cost * l.length_m
@@ -665,13 +677,13 @@ def _solve_sections(project, service, condition, lines, chosen, warnings) -> lis
                    for case in ("insulated", "bare")]
         installed, note = None, ""
         if table is not None and not table.per_area:
-            note = (f"{table.name} prices insulation per metre of pipe by size; the {line.kind} "
-                    f"{line.size.label} is priced per m² of its surface (a table with cost_per_m2)")
+            note = make_note("schedule.table_per_metre", table=table.name, kind=line.kind, size=line.size.label)
         elif table is not None:
             try:
                 installed = float(np.ravel(table.installed_cost(line.size.label, t, area_per_unit))[0]) * line.quantity
             except InputError:
-                note = f"{table.name} has no price for {line.size.label} at {1000 * t:g} mm"
+                note = make_note("schedule.no_price", table=table.name, size=line.size.label,
+                                 thickness_m=(float(t), "thickness"))
         per = {"W/m": {}, "W/m²": {"heat_flow_w_per_m2": qi, "bare_heat_flow_w_per_m2": qb},
                "W": {"heat_flow_w_each": qi, "bare_heat_flow_w_each": qb}}[unit]
         run = unit == "W/m"
@@ -736,8 +748,7 @@ def _money_and_gains(service, heat, heat_bare, tags, warnings):
     gaining = (heat < 0) | (heat_bare < 0)
     if basis.cop is None and gaining.any():
         named = ", ".join(f'"{t}"' for t, g in zip(tags, gaining) if g)
-        warnings.append(f'service "{service.name}" gains heat with no chiller COP (give cop in [energy] or the '
-                        f"service): {named} left out of the energy, cost and CO2 columns")
+        warnings.append(make_note("schedule.gain_without_cop", service=service.name, lines=named))
     return basis, money, gaining
 
 def _line_money(heat, heat_bare, basis) -> dict:

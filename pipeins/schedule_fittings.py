@@ -23,6 +23,7 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from .fittings import CoverSaving
+from .notes import with_subject
 
 __all__ = ["ScheduleFitting", "FittingsTotals", "FittingsSchedule", "schedule_fittings", "parse_line_fittings"]
 
@@ -172,7 +173,7 @@ def schedule_fittings(project, lines) -> FittingsSchedule:
         bare = solve(cyl, [], still, horizontal, bare_surface(pipe, surface))
         q_bare = np.ravel(bare.heat_flow_w_per_m) * length
         t_bare = np.ravel(bare.surface_temp_c)
-        out.warnings += [f'fittings of service "{sname}" in {cname}: {w}' for w in dict.fromkeys(bare.warnings)]
+        out.warnings += [with_subject(w, f'fittings of service "{sname}" in {cname}') for w in dict.fromkeys(bare.warnings)]
         q_cov = np.full(len(rows), np.nan)
         t_cov = np.full(len(rows), np.nan)
         covers = {}
@@ -189,7 +190,7 @@ def schedule_fittings(project, lines) -> FittingsSchedule:
             res = solve(sub, [Layer(lookup_material(material), thick)], still, horizontal, face)
             q_cov[idx] = np.ravel(res.heat_flow_w_per_m) * length[idx]
             t_cov[idx] = np.ravel(res.surface_temp_c)
-            out.warnings += [f'fitting covers of service "{sname}" in {cname}: {w}'
+            out.warnings += [with_subject(w, f'fitting covers of service "{sname}" in {cname}')
                              for w in dict.fromkeys(res.warnings)]
         if condition.rh_percent is not None:   # a bare or covered fitting colder than the dew point sweats
             from .props.humid import dew_point_c

@@ -16,6 +16,8 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from .notes import with_subject
+
 __all__ = ["TracedLine", "TracingSchedule", "schedule_tracing"]
 
 
@@ -108,7 +110,8 @@ def schedule_tracing(project, results) -> TracingSchedule:
         result = solve(pipe, [Layer(lookup_material(service.material), thickness)], fluid, surroundings, surface)
         q = np.ravel(result.heat_flow_w_per_m)
         ts = np.ravel(result.surface_temp_c)
-        out.warnings += [f'heat tracing of service "{sname}" in {cname}: {w}' for w in dict.fromkeys(result.warnings)]
+        out.warnings += [with_subject(w, f'heat tracing of service "{sname}" in {cname}')
+                         for w in dict.fromkeys(result.warnings)]
         output = t.get("tracer_output_w_per_m")
         wind = float(np.ravel(spec.wind_m_s)[0]) if spec.wind_m_s is not None else 0.0
         for k, (r, _) in enumerate(members):

@@ -51,10 +51,11 @@ def _number(text, where: str, column: str, low=None, high=None) -> float:
     return value
 
 
-def parse_materials(text: str, name: str) -> tuple[dict, list[str]]:
+def parse_materials(text: str, name: str) -> tuple[dict, list]:
     """The materials of a materials CSV's *text* (its file *name* for errors), and warnings.
 
-    Returns ``({key: InsulationMaterial}, [warning, …])``.  Every problem is one
+    Returns ``({key: InsulationMaterial}, [note, …])`` (:class:`pipeins.notes.Note`:
+    ``materials.conductivity_falls``).  Every problem is one
     :class:`InputError` naming ``FILE:LINE`` and the column.
     """
     import csv
@@ -110,8 +111,9 @@ def parse_materials(text: str, name: str) -> tuple[dict, list[str]]:
         if len({k for _, k in points}) == 1:
             points = [(points[0][0], points[0][1])]  # constant: exactly a k= layer
         elif any(b[1] < a[1] for a, b in zip(points, points[1:])):
-            warnings.append(f'{name}: material "{key}" declares a conductivity falling with temperature; '
-                            "insulants conduct more when warmer: check the declaration")
+            from .notes import note
+
+            warnings.append(note("materials.conductivity_falls", file=name, material=key))
         source = "; ".join(dict.fromkeys(r[1].get("source") or f"user file {name}" for r in rows))
         materials[key] = InsulationMaterial(key=key, name=first[1]["name"], family=first[1]["family"],
                                             points=tuple(points), min_temp_c=first[4], max_temp_c=first[5],
@@ -119,7 +121,7 @@ def parse_materials(text: str, name: str) -> tuple[dict, list[str]]:
     return materials, warnings
 
 
-def read_materials_file(path) -> tuple[dict, list[str]]:
+def read_materials_file(path) -> tuple[dict, list]:
     """The materials of the CSV file *path* and warnings (see :func:`parse_materials`)."""
     from .fileio import read_text_input
 
@@ -249,4 +251,13 @@ def project_materials(text: str, file_name: str, base_dir, data: dict | None = N
     except InputError as exc:
         where = exc.name.replace(str(path), item) if exc.name else item
         return {}, [], f"{where}: {exc.message}".replace(str(path), item)
-    return materials, [w.replace(str(path), item) for w in warnings], None
+    return materials, [_renamed(w, str(path), item) for w in warnings], None
+
+
+def _renamed(warning, path: str, item: str):
+    """*warning* (a note or a text) with the file's *path* said as the project names it, *item*."""
+    if isinstance(warning, str):
+        return warning.replace(path, item)
+    from dataclasses import replace
+
+    return replace(warning, words=tuple((k, v.replace(path, item)) for k, v in warning.words))

@@ -19,6 +19,7 @@ from pipeins.errors import InputError
 from pipeins.physics import correlations as registry
 from pipeins.physics import outer
 from pipeins.physics.correlations import CORRELATIONS, by_key, lookup
+from pipeins.reports.notes import render_all
 
 REL = 5e-3  # 0.5 %
 PRANDTLS = (0.7, 0.71, 5.0)
@@ -95,7 +96,7 @@ def test_warnings_are_made_from_the_records():
     # the bound and the wording of an outer-film warning come from the record's range
     record = lookup("cylinder", "horizontal", "natural")
     top = record.bound("Ra", 1)
-    found = outer.outer_convection_warnings(60.0, 20.0, [1.0, 8.0])
+    found = render_all(outer.outer_convection_warnings(60.0, 20.0, [1.0, 8.0]))
     assert found == [f"outer film: Rayleigh number above {registry.group_text(top)} in 1 of 2 cases; "
                      f"beyond {record.range_name}; extrapolated"]
     mask, what, consequence = record.excursions({"Ra": np.array([1e11, 2e12])})[0]
@@ -280,14 +281,15 @@ def test_sphere_at_equal_temperatures_conducts_to_still_air():
 
 def test_sphere_warnings_from_its_records():
     natural, forced = lookup("sphere", "any", "natural"), lookup("sphere", "any", "forced")
-    found = outer.outer_convection_warnings(60.0, 15.0, [0.001, 30.0], [1e-3, 0.0], "any", None, 101325.0, "sphere")
+    found = render_all(outer.outer_convection_warnings(60.0, 15.0, [0.001, 30.0], [1e-3, 0.0], "any", None,
+                                                       101325.0, "sphere"))
     assert found == [
         f"outer film: Rayleigh number above {registry.group_text(natural.bound('Ra', 1))} on a sphere in 1 of 2 "
         "cases; beyond the Churchill (1983) sphere range; extrapolated",
         "outer film: Reynolds number below 3.5 over a sphere in 1 of 2 cases; below the Whitaker (1972) sphere "
         "range; extrapolated",
     ]
-    windy = outer.outer_convection_warnings(60.0, 15.0, 2.5, 3.0, "any", None, 101325.0, "sphere")
+    windy = render_all(outer.outer_convection_warnings(60.0, 15.0, 2.5, 3.0, "any", None, 101325.0, "sphere"))
     assert windy[0] == (f"outer film: Reynolds number above {registry.group_text(forced.bound('Re', 1))} over a "
                         "sphere; beyond the Whitaker (1972) sphere range; extrapolated")
     assert registry.group_text(forced.bound("Re", 1)) == "7.6e4"

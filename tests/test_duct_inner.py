@@ -11,6 +11,7 @@ from pipeins.errors import InputError
 from pipeins.physics import duct_inner
 from pipeins.physics.convection import friction_factor_smooth_filonenko
 from pipeins.props.air import air_properties
+from pipeins.reports.notes import render_all
 from pipeins.units import parse_quantity
 
 TURBULENT_RE = [1.0e4, 3.0e4, 1.0e5, 3.0e5, 1.0e6, 5.0e6]
@@ -109,7 +110,7 @@ def test_film_is_vectorised_and_notes_count_cases():
     film = duct_inner.duct_inner_film(np.array([0.1, 0.6, 0.6]), np.array([0.1, 0.4, 0.4]), 20.0,
                                       velocity_m_s=np.array([0.2, 0.1, 5.0]))
     assert film.h_w_m2k.shape == (3,)
-    assert film.notes == ["duct inner film: laminar air flow (Re below 2300); fully developed Nu used, "
+    assert render_all(film.notes) == ["duct inner film: laminar air flow (Re below 2300); fully developed Nu used, "
                           "entry-length enhancement neglected in 1 of 3 cases",
                           "duct inner film: transitional air flow (Re 2300 to 10000); Gnielinski (1995) "
                           "interpolation used in 1 of 3 cases"]

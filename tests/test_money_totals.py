@@ -18,6 +18,7 @@ from pathlib import Path
 import pytest
 
 from pipeins.project import load_project
+from pipeins.reports.notes import render_all
 from pipeins.schedule import compute_schedule
 
 EXAMPLES = Path(__file__).resolve().parents[1] / "examples"
@@ -133,7 +134,9 @@ def test_chilled_lines_without_cop_are_left_out_and_named(tmp_path):
     lt = [l for l in s.lines if l.service == "lthw"][0]
     assert t.heating["cost"].bare == pytest.approx(lt.bare_heating_cost)
     assert any('service "chw" gains heat with no chiller COP' in w and '"CW-01 flow", "CW-02 return"' in w
-               for w in s.warnings)
+               for w in render_all(s.warnings))
+    (gain,) = [w for w in s.warnings if getattr(w, "code", "") == "schedule.gain_without_cop"]
+    assert gain.word("service") == "chw"
 
 
 def test_every_project_total_adds_up_in_json(tmp_path, run):
@@ -189,9 +192,14 @@ def test_payback_lines_are_named_when_the_table_cannot_price(tmp_path, run):
     lt = [l for l in s.lines if l.tag == "LT-01 flow"][0]
     assert t.installed_cost == lt.installed_cost and t.cost_saving == pytest.approx(lt.cost_saving())
     assert t.payback_years == pytest.approx(lt.installed_cost / lt.cost_saving())
-    (warning,) = [w for w in s.warnings if w.startswith("installed cost")]
-    assert '"CW-01 flow" (costs.csv has no row for NPS 4' in warning or '"CW-01 flow" (' in warning
-    assert "cover 1 of 3 lines" in warning
+    texts = render_all(s.warnings)
+    (warning,) = [w for w in texts if w.startswith("installed cost")]
+    assert warning == 'installed cost, cost saving and payback cover 1 of 3 lines; left out: "CW-01 flow", "CW-02 return"'
+    # why, line by line: the table has no NPS 4 row (the chilled lines' 9 mm, in the report's units)
+    assert texts[texts.index(warning) + 1:texts.index(warning) + 3] == [
+        'line "CW-01 flow": costs.csv has no price for NPS 4 at 9 mm',
+        'line "CW-02 return": costs.csv has no price for NPS 4 at 9 mm']
+    assert 'line "CW-01 flow": costs.csv has no price for NPS 4 at 0.35 in' in render_all(s.warnings, "us")
 
 
 @pytest.mark.parametrize("fmt", ["text", "markdown", "json", "csv"])

@@ -17,6 +17,7 @@ from pipeins.errors import InputError
 from pipeins.physics.inner import inner_film_coefficient, inner_film_warnings, reynolds_number
 from pipeins.physics.outer import outer_convection_coefficient, outer_convection_warnings
 from pipeins.physics.radiation import radiative_flux_w_m2
+from pipeins.reports.notes import render_all
 
 G = 9.80665
 
@@ -259,14 +260,14 @@ def test_impossible_outer_inputs(kwargs, name):
 
 def test_outer_warnings():
     assert outer_convection_warnings([60.0, 120.0], 20.0, 0.2) == []
-    found = outer_convection_warnings(60.0, 20.0, [1.0, 8.0])  # Ra_D beyond 1e12 for the 8 m cylinder
+    found = render_all(outer_convection_warnings(60.0, 20.0, [1.0, 8.0]))  # Ra_D beyond 1e12 for the 8 m cylinder
     assert found == [
         "outer film: Rayleigh number above 1e12 in 1 of 2 cases; "
         "beyond the Churchill & Chu (1975) horizontal-cylinder range; extrapolated"
     ]
     slender = outer_convection_warnings(60.0, 20.0, 0.02, orientation="vertical", height_m=6.0)
-    assert any("taller than 60 diameters" in w for w in slender)
-    assert all(isinstance(w, str) for w in slender)
+    assert any("taller than 60 diameters" in w for w in render_all(slender))
+    assert all(w.code == "film.outer.range" for w in slender)
 
 
 # --------------------------------------------------------------------------- inner film
@@ -314,6 +315,6 @@ def test_inner_velocity_must_be_positive(velocity):
 def test_inner_broadcast_and_warnings():
     h = inner_film_coefficient(np.array([0.01, 0.1, 1.0, 3.0]), 0.05, 998.0, 1e-3, 0.6, 4182.0)
     assert h.shape == (4,) and np.all(np.diff(h) > 0)
-    found = inner_film_warnings(np.array([0.01, 0.1, 1.0, 3.0]), 0.05, 998.0, 1e-3, 0.6, 4182.0)
+    found = render_all(inner_film_warnings(np.array([0.01, 0.1, 1.0, 3.0]), 0.05, 998.0, 1e-3, 0.6, 4182.0))
     assert found[0].startswith("inner film: laminar flow (Re below 2300) in 1 of 4 cases")
     assert found[1].startswith("inner film: transitional flow (Re 2300 to 10000) in 1 of 4 cases")

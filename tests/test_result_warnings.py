@@ -18,6 +18,7 @@ from CoolProp.CoolProp import PropsSI
 from pipeins.catalog.materials import lookup_material
 from pipeins.criteria import CONDENSATION_NOT_APPLICABLE, FREEZE_NOT_APPLICABLE
 from pipeins.model import FlatWall, Fluid, Layer, Surroundings
+from pipeins.reports.notes import render_all
 from pipeins.solve import solve
 
 G = 9.80665
@@ -83,9 +84,12 @@ def test_high_rayleigh_flat_top_warns_in_json():
     r = solve(FlatWall(length_m=5.0, face="top"), [Layer(lookup_material("k=0.04"), 0.05)], Fluid(150.0),
               Surroundings(20.0))
     assert _air_rayleigh(float(r.surface_temp_c), 20.0, 5.0) > 1e11
-    warnings = json.loads(json.dumps(r.to_dict()))["warnings"]
     assert ("outer film: Rayleigh number above 1e11 on a horizontal face (enhanced case); "
-            "beyond the McAdams range; extrapolated") in warnings
+            "beyond the McAdams range; extrapolated") in render_all(r.warnings)
+    warnings = json.loads(json.dumps(r.to_dict()))["warnings"]  # the API's JSON: the note objects
+    assert {"code": "film.outer.range", "severity": "warning",
+            "words": {"what": "Rayleigh number above 1e11 on a horizontal face (enhanced case)", "where": "",
+                      "consequence": "beyond the McAdams range; extrapolated"}} in warnings
 
 
 def test_fixed_outer_coefficient_has_no_outer_film_warning(run):

@@ -98,7 +98,8 @@ def test_falling_conductivity_warns(tmp_path, capsys):
     falling = HEADER + ("odd,odd foam,elastomeric,0,0.040,-40,100,50,x\n"
                         "odd,odd foam,elastomeric,50,0.036,-40,100,50,x\n")
     materials, warnings = parse_materials(falling, "odd.csv")
-    assert len(warnings) == 1 and "falling with temperature" in warnings[0]
+    assert len(warnings) == 1 and warnings[0].code == "materials.conductivity_falls"
+    assert warnings[0].word("file") == "odd.csv" and warnings[0].word("material") == "odd"
     path = tmp_path / "odd.csv"
     path.write_text(falling, encoding="utf-8")
     code, out, err = _run(capsys, "check", "--pipe", "DN50", "--fluid-temp", "40C", "--layer", "odd foam:20mm",

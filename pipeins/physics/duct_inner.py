@@ -241,8 +241,9 @@ class DuctInnerFilm:
         D_h = 4A/P [m].
     reynolds, prandtl, nusselt : numpy.ndarray
         Re and Nu on D_h, Pr at the bulk air temperature [-].
-    notes : list of str
-        Validity notes (laminar or transitional flow), each once, with the number of cases.
+    notes : list of Note
+        Validity notes (``film.duct_inner.range``: laminar or transitional flow), each once,
+        with the number of cases.
     """
 
     h_w_m2k: np.ndarray
@@ -251,7 +252,7 @@ class DuctInnerFilm:
     reynolds: np.ndarray
     prandtl: np.ndarray
     nusselt: np.ndarray
-    notes: list[str] = field(default_factory=list)
+    notes: list = field(default_factory=list)
 
 
 def duct_inner_film(width_m, height_m=None, air_temp_c=20.0, *, velocity_m_s=None, flow=None,
@@ -317,14 +318,19 @@ def duct_inner_film(width_m, height_m=None, air_temp_c=20.0, *, velocity_m_s=Non
                          np.array(nusselt), _notes(reynolds))
 
 
-def _notes(reynolds) -> list[str]:
+def _notes(reynolds) -> list:
+    """``film.duct_inner.range`` notes (:class:`pipeins.notes.Note`): laminar or transitional air."""
+    from ..notes import note
+
     total = reynolds.size
     out = []
-    for mask, text in ((reynolds < _RE_LAMINAR, "laminar air flow (Re below 2300); fully developed Nu used, "
-                                                "entry-length enhancement neglected"),
-                       ((reynolds >= _RE_LAMINAR) & (reynolds < _RE_TURBULENT),
-                        "transitional air flow (Re 2300 to 10000); Gnielinski (1995) interpolation used")):
+    for mask, what, consequence in (
+            (reynolds < _RE_LAMINAR, "laminar air flow (Re below 2300)",
+             "fully developed Nu used, entry-length enhancement neglected"),
+            ((reynolds >= _RE_LAMINAR) & (reynolds < _RE_TURBULENT), "transitional air flow (Re 2300 to 10000)",
+             "Gnielinski (1995) interpolation used")):
         count = int(np.count_nonzero(mask))
         if count:
-            out.append(f"duct inner film: {text}" + (f" in {count} of {total} cases" if total > 1 else ""))
+            out.append(note("film.duct_inner.range", what=what, consequence=consequence,
+                            where=f" in {count} of {total} cases" if total > 1 else ""))
     return out

@@ -6,7 +6,8 @@ CoolProp at the bulk temperature); this module only forms Re and Pr and applies
 tube: laminar, Gnielinski transition, Gnielinski turbulent).
 
 :func:`inner_film_coefficient` returns only the coefficient; the same arguments given
-to :func:`inner_film_warnings` return the validity warnings as a list of strings.
+to :func:`inner_film_warnings` return the validity warnings as structured notes
+(:class:`pipeins.notes.Note`, code ``film.inner.range``).
 """
 
 from __future__ import annotations
@@ -153,16 +154,17 @@ def inner_film_warnings(
 
     Returns
     -------
-    list of str
-        One line per kind of excursion, with the number of cases affected; empty
-        when every case is inside the validity of the correlations used.
+    list of Note
+        One ``film.inner.range`` note (:class:`pipeins.notes.Note`) per kind of excursion,
+        with the number of cases affected in its words; empty when every case is inside the
+        validity of the correlations used.
 
     Examples
     --------
     >>> inner_film_warnings(1.5, 0.05, 998.0, 1.0e-3, 0.6, 4182.0)
     []
-    >>> inner_film_warnings(0.01, 0.05, 998.0, 1.0e-3, 0.6, 4182.0)
-    ['inner film: laminar flow (Re below 2300); fully developed Nu = 4.36 used, entry-length enhancement neglected']
+    >>> [n.word("what") for n in inner_film_warnings(0.01, 0.05, 998.0, 1.0e-3, 0.6, 4182.0)]
+    ['laminar flow (Re below 2300)']
     """
     reynolds = reynolds_number(velocity_m_s, inner_diameter_m, density_kg_m3, viscosity_pa_s)
     prandtl = prandtl_number(viscosity_pa_s, heat_capacity_j_kgk, conductivity_w_mk)
@@ -183,15 +185,17 @@ def inner_film_warnings(
          "outside the Gnielinski (1976) range (liquid metals need another correlation)"),
         (prandtl > pr_high, f"Pr above {pr_high:g}", "outside the Gnielinski (1976) range; extrapolated"),
     )
+    from pipeins.notes import note
+
     for mask, what, consequence in checks:
         count = int(np.count_nonzero(mask))
         if count:
             where = f" in {count} of {total} cases" if total > 1 else ""
-            found.append(f"inner film: {what}{where}; {consequence}")
+            found.append(note("film.inner.range", what=what, where=where, consequence=consequence))
     return found
 
 
-def inner_film_notes(fluid: str, temp_c, inner_diameter_m, velocity_m_s) -> tuple[str, ...]:
+def inner_film_notes(fluid: str, temp_c, inner_diameter_m, velocity_m_s) -> tuple:
     """:func:`inner_film_warnings` for *fluid* (a name :mod:`pipeins.props.liquids` knows) at
     *temp_c* [°C] flowing at *velocity_m_s* [m/s] in a bore of *inner_diameter_m* [m], with
     the fluid's own properties.  The caller stores them on the
@@ -201,8 +205,8 @@ def inner_film_notes(fluid: str, temp_c, inner_diameter_m, velocity_m_s) -> tupl
     --------
     >>> inner_film_notes("water", 60.0, 0.1023, 1.5)
     ()
-    >>> inner_film_notes("water", 60.0, 0.1023, 0.01)[0][:43]
-    'inner film: laminar flow (Re below 2300); f'
+    >>> inner_film_notes("water", 60.0, 0.1023, 0.01)[0].code
+    'film.inner.range'
     """
     from pipeins.props.liquids import fluid_properties
 

@@ -177,14 +177,14 @@ def _outer_film(
             count = int(np.count_nonzero(mask))
             return count, (f" in {count} of {total} cases" if total > 1 else "")
 
+        from pipeins.notes import note
+
         for mask, what, consequence in notes:
             count, where = cases(mask)
             if count:
-                warnings.append(f"outer film: {what}{where}; {consequence}")
+                warnings.append(note("film.outer.range", what=what, where=where, consequence=consequence))
         count, where = cases((film_temp_c < TEMP_RANGE_C[0]) | (film_temp_c > TEMP_RANGE_C[1]))
-        if count:  # a quantity with a unit: a structured note, written by the report layer
-            from pipeins.notes import note
-
+        if count:
             warnings.append(note("film.outer.air_table_range", low_c=(TEMP_RANGE_C[0], "temperature"),
                                  high_c=(TEMP_RANGE_C[1], "temperature"), where=where))
     return h, warnings
@@ -293,17 +293,20 @@ def outer_convection_warnings(
 
     Returns
     -------
-    list of str or Note
-        Empty when every case is inside the validity of the correlations used.  A film
-        temperature beyond the air table is a :class:`pipeins.notes.Note`
-        (``film.outer.air_table_range``: it cites temperatures), the rest text.
+    list of Note
+        Structured notes (:class:`pipeins.notes.Note`; the report layer writes them):
+        ``film.outer.range`` (a group beyond a record's range, or the mixed regime; its
+        words from the record) and ``film.outer.air_table_range`` (a film temperature beyond
+        the air table; it cites temperatures).  Empty when every case is inside the validity
+        of the correlations used.
 
     Examples
     --------
     >>> outer_convection_warnings(120.0, 15.0, 0.15)
     []
-    >>> outer_convection_warnings(60.0, 20.0, 5.0, orientation="top", geometry="flat")
-    ['outer film: Rayleigh number above 1e11 on a horizontal face (enhanced case); beyond the McAdams range; extrapolated']
+    >>> (found,) = outer_convection_warnings(60.0, 20.0, 5.0, orientation="top", geometry="flat")
+    >>> found.code, found.word("what"), found.word("consequence")
+    ('film.outer.range', 'Rayleigh number above 1e11 on a horizontal face (enhanced case)', 'beyond the McAdams range; extrapolated')
     """
     _, warnings = _outer_film(
         surface_temp_c, air_temp_c, characteristic_length_m, wind_speed_m_s, orientation, height_m, pressure_pa, geometry,

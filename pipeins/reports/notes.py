@@ -50,12 +50,27 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
                                       "its usable limit of {limit_c:g|0}",
     "layer.below_critical_radius": "outer radius below the critical radius ({radius_m:.1f|}) for {material}: more "
                                    "of it raises the heat flow at first",
-    # the outer film (pipeins.physics.outer)
+    # the films' correlation ranges (pipeins.physics.outer, .inner, .duct_inner; words from the records)
+    "film.outer.range": "outer film: {what}{where}; {consequence}",
+    "film.inner.range": "inner film: {what}{where}; {consequence}",
+    "film.duct_inner.range": "duct inner film: {what}; {consequence}{where}",
     "film.outer.air_table_range": "outer film: film temperature outside {low_c!n:g|0} to {high_c:g|0}{where}; "
                                   "air properties taken at the nearer end of the table",
     # costs (pipeins.costing)
     "cost.bare_fittings": "bare fittings count as {length_m:.1f|} of bare pipe; insulating them "
                           "(removable covers) saves most of their share",
+    # a user's materials file (pipeins.user_materials)
+    "materials.conductivity_falls": '{file}: material "{material}" declares a conductivity falling with temperature; '
+                                    "insulants conduct more when warmer: check the declaration",
+    # the schedule's money (pipeins.schedule)
+    "schedule.payback_partial": "installed cost, cost saving and payback cover {covered:.0f} of {total:.0f} lines; "
+                                "left out: {lines}",
+    "schedule.no_price": "{table} has no price for {size} at {thickness_m:g|}",
+    "schedule.table_per_metre": "{table} prices insulation per metre of pipe by size; the {kind} {size} is priced "
+                                "per m² of its surface (a table with cost_per_m2)",
+    "schedule.no_energy_price": "no energy price: {lines} have no cost saving or payback",
+    "schedule.gain_without_cop": 'service "{service}" gains heat with no chiller COP (give cop in [energy] or the '
+                                 "service): {lines} left out of the energy, cost and CO2 columns",
     # the economic thickness (pipeins.economics)
     "economic.at_thickest": "the cheapest candidate is the thickest given ({thickness_m:g|}); "
                             "the optimum may be thicker",
