@@ -443,20 +443,37 @@ def _get_rule_set(rule_set, extra_paths=()) -> RuleSet:
     return sets[rule_set]
 
 
-def _temp_text_c(value_c: float, unit: str, table_value: float) -> str:
+def _temp_text_c(value_c: float, unit: str, table_value: float, units: str = "si") -> str:
+    """A table's temperature bound: in SI in °C (and as the table writes it in °F), in US
+    units in °F (the table's own value where it is in °F)."""
+    if units != "si":
+        return f"{_fmt(table_value if unit == 'f' else _in_units(value_c, 'temperature', units))} °F"
     text = f"{_fmt(value_c)} °C"
     return f"{text} / {_fmt(table_value)} °F" if unit == "f" else text
 
 
-def _span_text(rows: list[RuleRow]) -> str:
-    """Union span of the rows' temperature ranges, e.g. '≥ 40.56 °C / 105 °F'."""
+def _in_units(value_si: float, kind: str, units: str) -> float:
+    from .units import to_display
+
+    return float(to_display(value_si, kind, units))
+
+
+def _said(value_si: float, kind: str, units: str, digits: int = 2) -> str:
+    """*value_si* of *kind* as the reasons write it: trimmed digits and the unit system's unit."""
+    from .units import unit_label
+
+    return f"{_fmt(_in_units(value_si, kind, units), digits)} {unit_label(kind, units)}"
+
+
+def _span_text(rows: list[RuleRow], units: str = "si") -> str:
+    """Union span of the rows' temperature ranges, e.g. '≥ 40.56 °C / 105 °F' (US: '≥ 105 °F')."""
     unit = rows[0].temp_unit
     low = min(r.temp_range.low for r in rows)
     high = max(r.temp_range.high for r in rows)
     low_closed = any(r.temp_range.low == low and r.temp_range.low_closed for r in rows)
     high_closed = any(r.temp_range.high == high and r.temp_range.high_closed for r in rows)
-    lo = _temp_text_c(_temp_to_c(low, unit), unit, low)
-    hi = _temp_text_c(_temp_to_c(high, unit), unit, high)
+    lo = _temp_text_c(_temp_to_c(low, unit), unit, low, units)
+    hi = _temp_text_c(_temp_to_c(high, unit), unit, high, units)
     if math.isinf(low) and math.isinf(high):
         return "all temperatures"
     if math.isinf(low):
@@ -514,6 +531,7 @@ def required_thickness(
     dn: float | None = None,
     inner_diameter_m: float | None = None,
     extra_paths=(),
+    units: str = "si",
 ) -> CodeRequirement:
     """Minimum insulation thickness a rule set requires for one pipe.
 
@@ -539,6 +557,9 @@ def required_thickness(
         The size key the rule set needs (an InputError names the missing one).
     extra_paths : sequence of path
         User rule-set CSVs to load alongside the shipped ones.
+    units : str
+        Unit system of the reason's own quantities ("si" or "us"; the row is quoted as the
+        table writes it).
 
     Returns
     -------
@@ -554,6 +575,8 @@ def required_thickness(
     (True, 2.0)
     >>> required_thickness("ashrae-90.1-2019", 30.0, 0.1143, 0.040, nominal_size_in=4).reason
     'ashrae-90.1-2019: 30 °C lies outside the heating ranges (≥ 40.56 °C / 105 °F) and cooling ranges (≤ 15.56 °C / 60 °F)'
+    >>> required_thickness("ashrae-90.1-2019", 30.0, 0.1143, 0.040, nominal_size_in=4, units="us").reason
+    'ashrae-90.1-2019: 86 °F lies outside the heating ranges (≥ 105 °F) and cooling ranges (≤ 60 °F)'
     """
     rs = _get_rule_set(rule_set, extra_paths)
     temp_c = float(service_temp_c)
@@ -569,9 +592,10 @@ def required_thickness(
         services: dict[str, list[RuleRow]] = {}
         for row in rs.rows:
             services.setdefault(row.service, []).append(row)
-        spans = [f"{service} ranges ({_span_text(rows)})" for service, rows in services.items()]
+        spans = [f"{service} ranges ({_span_text(rows, units)})" for service, rows in services.items()]
         listed = spans[0] if len(spans) == 1 else ", ".join(spans[:-1]) + " and " + spans[-1]
-        return CodeRequirement(None, False, f"{rs.name}: {_fmt(temp_c)} °C lies outside the {listed}", "", rule_set=rs.name)
+        return CodeRequirement(None, False, f"{rs.name}: {_said(temp_c, 'temperature', units)} lies outside the "
+                                            f"{listed}", "", rule_set=rs.name)
 
     keyword, description = _SIZE_COLUMNS[rs.size_column][:2]
     given = {"nominal_size_in": nominal_size_in, "dn": dn, "inner_diameter_m": inner_diameter_m, "outer_diameter_m": od}
@@ -585,7 +609,7 @@ def required_thickness(
     matches = [row for row in by_temp if row.size_range.contains(size)]
     if not matches:
         service = by_temp[0].service
-        reason = f"{rs.name}: no {service} row at {_fmt(temp_c)} °C covers {_size_text(rs, size)}"
+        reason = f"{rs.name}: no {service} row at {_said(temp_c, 'temperature', units)} covers {_size_text(rs, size)}"
         return CodeRequirement(None, False, reason, "", rule_set=rs.name)
     row = matches[0]
 
@@ -602,7 +626,8 @@ def required_thickness(
     t_unit = _TEMP_UNITS[row.temp_unit]
     head = (
         f"{rs.name} {row.service} row {row.temp_range} {t_unit}, {row.size_range} "
-        f"{_SIZE_COLUMNS[row.size_column][2]}: table {_fmt(table_m * 1000, 1)} mm for k "
+        f"{_SIZE_COLUMNS[row.size_column][2]}: table {_said(table_m, 'thickness', units, 1 if units == 'si' else 2)}"
+        f" for k "
         f"{_fmt(row.conductivity_min, 4)}–{_fmt(row.conductivity_max, 4)} {k_label} at "
         f"{_fmt(row.mean_rating_temp)} {t_unit}; material k = {_fmt(k_in_table_unit, 4)}"
     )
@@ -612,5 +637,6 @@ def required_thickness(
     else:
         k_upper_w_mk = row.conductivity_max * k_factor
         thickness_m = float(adjusted_thickness_m(table_m, od / 2.0, k_material, k_upper_w_mk))
-        reason = f"{head} is outside the range, adjusted by T = r[(1 + t/r)^(K/k) − 1] to {_fmt(thickness_m * 1000, 1)} mm"
+        reason = (f"{head} is outside the range, adjusted by T = r[(1 + t/r)^(K/k) − 1] to "
+                  f"{_said(thickness_m, 'thickness', units, 1 if units == 'si' else 2)}")
     return CodeRequirement(thickness_m, True, reason, f"{row.source} ({row.origin})", table_m, rs.name)

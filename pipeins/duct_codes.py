@@ -207,7 +207,8 @@ def _word(value, allowed, name, aliases=None):
     return text
 
 
-def minimum_r_value(rule_set, location, service, climate_zone, temp_difference_k=None) -> DuctCodeRequirement:
+def minimum_r_value(rule_set, location, service, climate_zone, temp_difference_k=None,
+                    units: str = "si") -> DuctCodeRequirement:
     """Least R-value of the insulation a duct rule set requires for one duct.
 
     Parameters
@@ -224,6 +225,9 @@ def minimum_r_value(rule_set, location, service, climate_zone, temp_difference_k
     temp_difference_k : float, optional
         Design temperature difference between the duct air and the surroundings [K]; at or
         below the rule set's exemption (15 °F = 8.3 K in IECC 2018) no insulation is required.
+    units : str
+        Unit system of the reason's temperature differences ("si": K, "us": °F); the row's
+        R-value is quoted as the table writes it.
 
     Returns
     -------
@@ -245,6 +249,8 @@ def minimum_r_value(rule_set, location, service, climate_zone, temp_difference_k
     (12.0, 2.113)
     >>> minimum_r_value("iecc-2018-c403", "unconditioned", "return", 3, temp_difference_k=5.0).exempt
     True
+    >>> minimum_r_value("iecc-2018-c403", "unconditioned", "return", 3, 5.0, units="us").reason.split("; ")[-1]
+    'exempt: the design temperature difference 9 °F is at most 15 °F'
     """
     sets = load_duct_rule_sets()
     if rule_set not in sets:
@@ -266,7 +272,11 @@ def minimum_r_value(rule_set, location, service, climate_zone, temp_difference_k
             raise InputError("temp_difference_k", "the design temperature difference must be a finite number")
         limit = row.exempt_max_temp_difference_k
         if limit is not None and difference <= limit + 1e-9:
-            reason = f"{head}; exempt: the design temperature difference {difference:.3g} K is at most {limit:.3g} K"
+            from .units import to_display, unit_label
+
+            unit = unit_label("temperature_difference", units)
+            said = [float(to_display(x, "temperature_difference", units)) for x in (difference, limit)]
+            reason = f"{head}; exempt: the design temperature difference {said[0]:.3g} {unit} is at most {said[1]:.3g} {unit}"
             return DuctCodeRequirement(0.0, 0.0, row.r_unit, True, True, reason, f"{row.source} ({row.origin})", rule_set)
     return DuctCodeRequirement(row.r_value_m2k_w, row.r_value_as_written, row.r_unit, True, False, head,
                                f"{row.source} ({row.origin})", rule_set)

@@ -254,7 +254,7 @@ def worst_patch_flux_w_m2(result):
     return np.abs(np.asarray(result.outer_heat_flux_w_m2, dtype=float))
 
 
-def duct_code_outcome(spec, req, rule_set: str, material, n_sizes: int, fluid_temp_c, air_temp_c):
+def duct_code_outcome(spec, req, rule_set: str, material, n_sizes: int, fluid_temp_c, air_temp_c, units="si"):
     """The code minimum of a duct as a :class:`~pipeins.sizing.CriterionOutcome` (key ``code``):
     the least thickness of *material* whose flat-layer R-value t/k meets the rule's R
     (:func:`pipeins.duct_codes.minimum_r_value`, :func:`pipeins.duct_codes.least_thickness`),
@@ -272,7 +272,8 @@ def duct_code_outcome(spec, req, rule_set: str, material, n_sizes: int, fluid_te
     if req.climate_zone is None:
         raise InputError("climate_zone", "a duct code minimum needs the climate zone, e.g. 4 or 5A")
     difference = float(np.max(np.abs(np.asarray(fluid_temp_c, float) - np.asarray(air_temp_c, float))))
-    rule = minimum_r_value(rule_set, req.duct_location, req.duct_service or "supply", req.climate_zone, difference)
+    rule = minimum_r_value(rule_set, req.duct_location, req.duct_service or "supply", req.climate_zone, difference,
+                           units)
     if not rule.covered:
         required, message = np.full(n_sizes, np.nan), f"code minimum: not covered ({rule.reason})"
     else:

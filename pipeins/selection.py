@@ -118,7 +118,7 @@ def select(spec, material_name: str, req, series=None, units: str = "si", sizes=
     limit = next((c.limit_c for c in criteria if c.key == "surface_temp"), spec.touch_limit_c)
     problem = SizingProblem(pipe, fixed, material, fluid, surroundings, surface, limit, n, soil=soil)
     size_list = sizes or [spec.pipe_size()]
-    ctx = Selecting(spec, req, problem, material, size_list, code, tuple(code_paths), economic, {})
+    ctx = Selecting(spec, req, problem, material, size_list, code, tuple(code_paths), economic, {}, units)
     extra = _required_outcomes(ctx)
     if not criteria and not extra:
         from .criteria import no_criterion_message

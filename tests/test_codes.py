@@ -307,3 +307,20 @@ def test_interval_edges():
     assert Interval.parse("(140..200]").overlaps(Interval.parse("[200..250]"))
     assert not Interval.parse("(140..200]").overlaps(Interval.parse("(200..250]"))
     assert str(Interval.parse("(-inf..40)")) == "(-inf..40)"
+
+
+def test_reasons_speak_the_reports_units(run):
+    # the service temperature and the thicknesses of a reason in the line's units; the row as the table
+    # writes it (°F for ASHRAE). 26.67 °C = 80 °F, 50.8 mm = 2 in (converted with pint).
+    assert UREG.Quantity(80, UREG.degF).to(UREG.degC).magnitude == pytest.approx(26.6667, abs=1e-4)
+    us = required_thickness(ASHRAE, 26.6667, 0.1143, 0.040, nominal_size_in=4, units="us").reason
+    assert us == "ashrae-90.1-2019: 80 °F lies outside the heating ranges (≥ 105 °F) and cooling ranges (≤ 60 °F)"
+    adjusted = required_thickness(ASHRAE, 80.0, 0.1143, 0.050, nominal_size_in=4, units="us")
+    inches = UREG.Quantity(adjusted.thickness_m, UREG.m).to(UREG.inch).magnitude
+    assert adjusted.reason.endswith(f"to {inches:.2f}".rstrip("0").rstrip(".") + " in")
+    assert "table 2 in for k" in adjusted.reason and "mm" not in adjusted.reason
+    code, out, err = run("size", "--pipe", "NPS 2", "--fluid-temp", "80F", "--ambient-temp", "70F", "--material",
+                         "mineral wool", "--code", ASHRAE, "--max-heat-flow", "10", "--units", "us")
+    assert code == 0, err
+    assert "not covered (ashrae-90.1-2019: 80 °F lies outside the heating ranges (≥ 105 °F)" in out
+    assert "°C" not in out.split("Warnings")[1]

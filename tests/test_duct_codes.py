@@ -94,3 +94,14 @@ def test_least_thickness_with_wrap_compression():
         duct_codes.least_thickness(-1.0, "k=0.040")
     with pytest.raises(InputError):
         duct_codes.least_thickness(1.0, "k=0.040", compression_percent=100)
+
+
+def test_exempt_reason_in_us_units(run):
+    # IECC 2018 C403.11.1 (from memory): exempt at a design difference of 15 °F or less; 2 K = 3.6 °F
+    code, out, err = run("size", "--duct", "600x400mm", "--fluid-temp", "22C", "--ambient-temp", "20C", "--material",
+                         "glass wool duct wrap", "--code", IECC, "--duct-location", "unconditioned", "--duct-service",
+                         "supply", "--climate-zone", "4", "--units", "us")
+    assert code == 0, err
+    assert "exempt: the design temperature difference 3.6 °F is at most 15 °F" in out
+    si = duct_codes.minimum_r_value(IECC, "unconditioned", "supply", 4, 2.0).reason
+    assert si.endswith("exempt: the design temperature difference 2 K is at most 8.33 K")

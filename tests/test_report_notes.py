@@ -46,15 +46,22 @@ def test_touch_warning_in_si_keeps_its_words_and_in_us_says_fahrenheit(run):
         "Warnings")[1].split("Cautions")[0]
 
 
-def test_a_warning_still_given_as_text_is_a_text_note(run):
+def test_the_film_and_dew_point_warnings_are_notes_and_a_text_is_a_text_note(run):
     code, out, _ = run("check", "--pipe", "DN50", "--fluid-temp", "5C", "--ambient-temp", "28C", "--rh", "80",
                        "--layer", "mineral wool:10mm", "--fluid", "water", "--velocity", "0.01m/s", "--format", "json")
     data = json.loads(out)
     _same_order(data)
     codes = [n["code"] for n in data["notes"]]
-    assert "text" in codes and "surface.below_dew_point" in codes
+    assert codes == ["film.inner.range", "surface.below_dew_point"]
+    film = data["notes"][0]
+    assert film["words"]["what"] == "laminar flow (Re below 2300)" and film["text"].startswith("inner film: laminar")
     dew = data["notes"][codes.index("surface.below_dew_point")]
     assert dew["values"]["dew_point_c"]["value"] == pytest.approx(data["dew_point_c"], abs=1e-6)
+    # a warning a part still gives as text keeps its words, as a note of code "text"
+    report = Report("t", [Table("t", [Column("a")], [[1]])], {}, ["a plain text", note("run.needs_fluid")])
+    data = json.loads(render(report, "json"))
+    assert [n["code"] for n in data["notes"]] == ["text", "run.needs_fluid"]
+    assert data["notes"][0] == {"code": "text", "severity": "warning", "text": "a plain text"}
 
 
 def test_freezing_along_the_run_and_the_freeze_row_in_both_unit_systems(run):

@@ -17,6 +17,7 @@ import json
 import pytest
 
 from pipeins.project import ProjectError, parse_project
+from pipeins.reports.notes import render_all
 from pipeins.schedule import compute_schedule
 
 PROJECT = """\
@@ -158,7 +159,7 @@ def test_a_cold_bare_fitting_below_the_dew_point_is_warned():
     # the chilled ball valve (6 °C) bare in air at 20 °C, 60 % RH (dew point about 12 °C, Magnus form)
     sched = _schedule()
     assert any(w.startswith('line "CH-1": the bare ball valve DN40 PN16 surface') and "sweats" in w
-               for w in sched.warnings)
+               for w in render_all(sched.warnings))
 
 
 LIST_PROJECT = """\

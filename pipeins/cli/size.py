@@ -46,7 +46,8 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     """
     from ..errors import InputError
     from ..reports.charts import size_charts
-    from ..reports.sizing import CRITERION_OPTIONS, size_report
+    from ..criteria.registry import error_option
+    from ..reports.sizing import size_report
     from ..selection import select
     from ..units import material_in_si
 
@@ -72,7 +73,7 @@ def size(fmt, units, output, material, series, code, code_table, **opts):
     out = selection.outcome
     if not out.feasible[0]:
         failed = [c for c in out.criteria if not c.feasible[0]]
-        option = CRITERION_OPTIONS.get(failed[0].key if failed else "", "--series")
+        option = error_option(failed[0].key if failed else "")
         message = failed[0].messages[0] if failed else out.messages[0][0]
         raise InputError(option, message)
     result, check = _check_at(spec, selection, units)
@@ -120,7 +121,8 @@ def _size_over_conditions(under, material, req, series, units, code, economic, c
     from ..errors import InputError
     from ..reports.charts import size_charts
     from ..reports.conditions import add_size_conditions
-    from ..reports.sizing import CRITERION_OPTIONS, size_report
+    from ..criteria.registry import error_option
+    from ..reports.sizing import size_report
     from .condition_options import select_under_conditions
 
     conds = [c for c, _ in under]
@@ -130,7 +132,7 @@ def _size_over_conditions(under, material, req, series, units, code, economic, c
         for name, sel in combined.selections.items():
             failed = [c for c in sel.outcome.criteria if not c.feasible[0]]
             if failed or not sel.outcome.feasible[0]:
-                option = CRITERION_OPTIONS.get(failed[0].key if failed else "", "--series")
+                option = error_option(failed[0].key if failed else "")
                 message = failed[0].messages[0] if failed else sel.outcome.messages[0][0]
                 raise InputError(option, f'under "{name}": {message}')
     spec = next(s for c, s in under if c.name == combined.governing_condition[0])

@@ -46,7 +46,8 @@ def table(fmt, units, output, sizes, ducts, matrix, material, series, code, code
     from ..catalog.pipes import pipe_range
     from ..errors import InputError
     from ..reports.charts import table_charts
-    from ..reports.sizing import CRITERION_OPTIONS, matrix_report, table_report
+    from ..criteria.registry import error_option
+    from ..reports.sizing import matrix_report, table_report
     from ..selection import select
     from ..units import material_in_si
 
@@ -104,7 +105,7 @@ def table(fmt, units, output, sizes, ducts, matrix, material, series, code, code
         if not out.feasible.any():
             failed = next((c for c in out.criteria if not c.feasible.any()), None)
             if failed is not None:
-                raise InputError(CRITERION_OPTIONS.get(failed.key, "--series"),
+                raise InputError(error_option(failed.key),
                                  f"{failed.messages[-1]} (largest size {selection.sizes[-1].label}); no size can meet it")
         report = table_report(selection, units)
         if combined is not None:

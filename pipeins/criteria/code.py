@@ -20,8 +20,9 @@ def required(ctx):
         from ..sections import duct_code_outcome
 
         return duct_code_outcome(ctx.spec, ctx.req, ctx.code, ctx.material, problem.n_sizes, problem.fluid.temp_c,
-                                 problem.surroundings.air_temp_c)
-    return code_outcome(ctx.sizes, ctx.material, ctx.code, float(np.max(problem.fluid.temp_c)), ctx.code_paths)
+                                 problem.surroundings.air_temp_c, ctx.units)
+    return code_outcome(ctx.sizes, ctx.material, ctx.code, float(np.max(problem.fluid.temp_c)), ctx.code_paths,
+                        ctx.units)
 
 
 def nominal_keys(size) -> dict:
@@ -49,9 +50,9 @@ DN_TO_NPS = {10.0: 0.375, 15.0: 0.5, 20.0: 0.75, 25.0: 1.0, 32.0: 1.25, 40.0: 1.
              350.0: 14.0, 400.0: 16.0, 450.0: 18.0, 500.0: 20.0, 550.0: 22.0, 600.0: 24.0}
 
 
-def code_outcome(sizes, material, rule_set: str, service_temp_c: float, extra_paths=()):
+def code_outcome(sizes, material, rule_set: str, service_temp_c: float, extra_paths=(), units: str = "si"):
     """The code minimum per size as a :class:`~pipeins.sizing.CriterionOutcome` (key ``code``);
-    sizes or services the rule does not cover get no requirement and say so."""
+    sizes or services the rule does not cover get no requirement and say so (in *units*)."""
     from ..codes import load_rule_sets, required_thickness
     from ..physics.conduction import conductivity_of
     from ..sizing import CriterionOutcome
@@ -60,7 +61,8 @@ def code_outcome(sizes, material, rule_set: str, service_temp_c: float, extra_pa
     required, messages, sources = [], [], []
     for s in sizes:
         req = required_thickness(rule_set, service_temp_c, s.outer_diameter_m,
-                                 lambda t: float(k.conductivity(t)), extra_paths=extra_paths, **nominal_keys(s))
+                                 lambda t: float(k.conductivity(t)), extra_paths=extra_paths, units=units,
+                                 **nominal_keys(s))
         required.append(req.thickness_m if req.covered else np.nan)
         messages.append("" if req.covered else f"code minimum: not covered ({req.reason})")
         sources.append(req.rule_row_source)

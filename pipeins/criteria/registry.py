@@ -30,7 +30,7 @@ module imports nothing heavy (the project reader and the command line read it fr
 :func:`pipeins.selection.select` the ``required`` ones; the service limits of every layer
 (``always``) are judged on the selected build-up.  The project file's criterion names
 (:data:`pipeins.project.CRITERIA`), the words of ``--condition … criteria=``, the options that name an unmet criterion in an error
-(:data:`pipeins.reports.sizing.CRITERION_OPTIONS`) and a condition's criteria are derived from
+(:func:`error_option`) and a condition's criteria are derived from
 the records; ``tests/test_criterion_registry.py`` walks every record through the command line
 and the project reader.
 """
@@ -42,7 +42,8 @@ from dataclasses import dataclass
 from typing import Any, Callable
 
 __all__ = ["CriterionRecord", "RECORDS", "records", "by_key", "by_name", "names", "project_names", "asked_names",
-           "register", "Line", "Selecting", "SECTION_KINDS", "resolve", "requirements_for", "needed_keys"]
+           "register", "Line", "Selecting", "SECTION_KINDS", "resolve", "requirements_for", "needed_keys",
+           "error_option"]
 
 #: Every section kind (:attr:`pipeins.line.LineSpec.section_kind`).
 SECTION_KINDS = ("pipe", "duct", "face", "sphere", "vessel")
@@ -172,6 +173,18 @@ def by_key(key: str) -> CriterionRecord:
     return next(r for r in RECORDS if r.key == key)
 
 
+def error_option(key: str, default: str = "--series") -> str:
+    """The command-line option an error names when the criterion *key* cannot be met: the
+    first of its record's options (*default* for a key with none, or no criterion: the
+    thickness series ran out).
+
+    >>> error_option("heat_flow"), error_option("service_limit"), error_option("")
+    ('--max-heat-flow', '--material', '--series')
+    """
+    record = next((r for r in RECORDS if r.key == key), None)
+    return record.options[0] if record is not None and record.options else default
+
+
 def by_name(name: str) -> CriterionRecord:
     """The record of the criteria-list word *name*."""
     return next(r for r in RECORDS if r.name == name)
@@ -273,6 +286,8 @@ class Selecting:
     code_paths: tuple = ()
     economic: Any = None
     extras: dict | None = None
+    #: The unit system the outcomes' sentences are written in ("si" or "us").
+    units: str = "si"
 
     @property
     def kind(self) -> str:

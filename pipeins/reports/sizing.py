@@ -8,20 +8,8 @@ import numpy as np
 from . import Column, Report, Table
 from .cautions import cautions
 
-__all__ = ["size_report", "table_report", "matrix_report", "CRITERION_OPTIONS", "layers_text"]
+__all__ = ["size_report", "table_report", "matrix_report", "layers_text"]
 
-CRITERION_OPTIONS = {
-    "surface_temp": "--touch-limit",
-    "condensation": "--rh",
-    "heat_flow": "--max-heat-flow",
-    "heat_flux": "--max-heat-flux",
-    "temp_change": "--max-temp-change",
-    "freeze": "--hold-time",
-    "tracer": "--tracer-output",
-    "economic": "--energy-price",
-    "code": "--code",
-    "service_limit": "--material",
-}
 ALL_KEYS = ("surface_temp", "condensation", "heat_flow", "heat_flux", "temp_change", "freeze", "economic", "code",
             "service_limit")
 
