@@ -170,3 +170,12 @@ def test_touch_and_dew_point_sentences_in_si_keep_their_wording_and_us_says_fahr
     dew = EXAMPLES["surface.below_dew_point"]
     assert render(dew, "si") == "surface 12.0 °C is below the dew point 15.2 °C: it will sweat"
     assert "°C" not in render(dew, "us")
+
+
+def test_a_span_names_its_unit_once():
+    # {low!n:…} writes the number alone; 655.2 °C = 1211.4 °F and 701 °C = 1293.8 °F (NIST SP 811)
+    n = EXAMPLES["layer.above_service_limit.span"]
+    assert render(n, "si") == ("layer 2 (mineral wool): reaches 655.2 to 701.0 °C, above its usable limit of 650 °C; "
+                               "choose a material rated for it or add an inner layer")
+    assert render(n, "us").startswith("layer 2 (mineral wool): reaches 1211.4 to 1293.8 °F, above its usable limit "
+                                      "of 1202 °F")

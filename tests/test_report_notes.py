@@ -102,3 +102,25 @@ def test_schedule_json_lists_its_notes_beside_the_warnings(run):
     data = json.loads(out)
     _same_order(data)
     assert all(isinstance(c, str) for c in data["cautions"]) and data["cautions"][-1].endswith("govern.")
+
+
+def test_solver_notes_speak_the_reports_units(run):
+    # a layer beyond its service range and the critical radius, said in °F and inches in US reports
+    # (t/°F = 1.8 t/°C + 32, 1 in = 25.4 mm: NIST SP 811); SI keeps the library's former words
+    hot = ("check", "--pipe", "NPS 2", "--fluid-temp", "400F", "--layer", "flexible elastomeric foam:1in")
+    _, si, _ = run(*hot, "--format", "json")
+    si = json.loads(si)
+    limit = next(n for n in si["notes"] if n["code"] == "layer.above_service_limit")
+    face_c, max_c = limit["values"]["temp_c"]["value"], limit["values"]["limit_c"]["value"]
+    assert limit["text"] == (f"layer 1 (flexible elastomeric foam tube): reaches {face_c:.1f} °C, above its usable "
+                             f"limit of {max_c:g} °C; choose a material rated for it or add an inner layer")
+    _, us, _ = run(*hot, "--units", "us")
+    block = us.split("Warnings")[1].split("Cautions")[0]
+    assert f"reaches {_f(face_c):.1f} °F, above its usable limit of {_f(max_c):.0f} °F" in block and "°C" not in block
+    small = ("check", "--pipe", "NPS 1/4", "--fluid-temp", "60C", "--layer", "k=0.3W/mK:5mm")
+    _, si, _ = run(*small, "--format", "json")
+    radius = next(n for n in json.loads(si)["notes"] if n["code"] == "layer.below_critical_radius")
+    r_m = radius["values"]["radius_m"]["value"]
+    assert radius["text"].startswith(f"outer radius below the critical radius ({1000 * r_m:.1f} mm)")
+    _, us, _ = run(*small, "--units", "us")
+    assert f"outer radius below the critical radius ({r_m / 0.0254:.3f} in)" in us
