@@ -211,3 +211,15 @@ def test_negative_area_is_refused(run):
     code, out, err = run("cost", *FACE, "--area", "-3m2")
     assert code == 2 and out == ""
     assert err == 'Error: --area: "-3m2" is out of range; an area is from 0 to 10,000,000 m²\n'
+
+
+def test_a_bare_face_alone(run):
+    # no --layer: the bare face priced alone, over its area (E = q·A·h/η, hand arithmetic)
+    code, out, err = run("cost", *FACE[:8], "--energy-price", "0.09/kWh", "--area", "12m2", "--format", "json")
+    assert code == 0, err
+    d = json.loads(out)
+    assert d["insulated"] is None and d["saving"] is None
+    q = d["bare"]["heat_flow_w_per_m2"]
+    assert d["bare"]["heating"]["energy_j"] == pytest.approx(q * 12.0 * 8760 * 3600, rel=1e-12)
+    code, text, _ = run("cost", *FACE[:8], "--energy-price", "0.09/kWh", "--area", "12m2")
+    assert "Bare, over 12.00 m² of face" in text and "The bare face: the face's own surface" in text

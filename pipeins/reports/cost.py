@@ -129,8 +129,8 @@ def cost_report(study, units: str = "si") -> Report:
     else:
         face = study.per == "m²"
         if face:
-            title = (("Bare against insulated" if ins is not None else "Bare face")
-                     + (" " if study.area_given else ", ") + face_basis_text(study, units))
+            title = ("Bare against insulated" + (" " if study.area_given else ", ") if ins is not None
+                     else "Bare, ") + face_basis_text(study, units)
         per_m_cols = [Column("case"), Column("heat flow", "heat_flux" if face else "heat_flow_per_length"),
                       Column("over the face" if face else "over the run", "power")]
         per_m_rows = [["bare", study.bare_per_unit, study.bare_w]]
