@@ -707,7 +707,7 @@ def _leaving_air(spec, result, members, shape, service, warnings) -> list:
 
     lengths = np.array([l.length_m for l in members], dtype=float)[:, None]
     run, _ = duct_air_run(replace(spec, length_m=lengths), result)
-    warnings += [f'service "{service.name}": {w}' for w in run.notes]
+    warnings += [with_subject(w, f'service "{service.name}"') for w in run.notes]
     return [float(x) for x in np.ravel(np.broadcast_to(run.leaving_temp_c, shape))]
 
 
