@@ -303,10 +303,28 @@ def _chmod(fd: int, path: str, mode: int) -> None:
         os.chmod(path, mode)
 
 
-def _write_fd(fd: int, data: bytes) -> None:
-    view = memoryview(data)
-    while view:
-        view = view[os.write(fd, view):]
+def _write_fd(fd: int, data) -> None:
+    for block in _blocks(data):
+        view = memoryview(block)
+        while view:
+            view = view[os.write(fd, view):]
+
+
+def _blocks(data, size: int = 1 << 20):
+    """*data* (bytes, or a list of bytes pieces) in blocks of about *size* bytes: a long
+    document's pieces are written without first joining them into one copy."""
+    if isinstance(data, (bytes, bytearray, memoryview)):
+        yield data
+        return
+    batch, held = [], 0
+    for piece in data:
+        batch.append(piece)
+        held += len(piece)
+        if held >= size:
+            yield b"".join(batch)
+            batch, held = [], 0
+    if batch:
+        yield b"".join(batch)
 
 
 # -- output: one file ---------------------------------------------------------------------
@@ -368,15 +386,17 @@ def write_text_output(path, text: str, what: str = "--output") -> None:
     write_bytes_output(path, text.encode("utf-8", "backslashreplace"), what)
 
 
-def write_bytes_output(path, data: bytes, what: str = "--output") -> None:
+def write_bytes_output(path, data, what: str = "--output") -> None:
     """Write *data* to *path* as :func:`write_text_output` writes text (``-`` is the
-    binary standard output)."""
+    binary standard output).  *data* is bytes, or a list of bytes pieces written in turn
+    (all of them made before anything is written, so nothing goes out half-way)."""
     if os.fspath(path) == "-":
         binary = getattr(sys.stdout, "buffer", None)
         if binary is None:
             raise InputError(what, "this standard output takes text only; give a file path")
         sys.stdout.flush()
-        binary.write(data)
+        for block in _blocks(data):
+            binary.write(block)
         binary.flush()
         return
     shown = _shown(path)

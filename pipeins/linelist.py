@@ -294,7 +294,9 @@ def read_line_list(path, keys, columns: dict | None = None, sheet: str | None = 
             if key in r.values:
                 unit = _unit_of(r.values[key])
                 if unit is not None:
-                    unit = same.setdefault(unit, _same_unit(unit, quantity_keys, key, same))
+                    if unit not in same:  # once per spelling, not per row
+                        same[unit] = _same_unit(unit, quantity_keys, key, same)
+                    unit = same[unit]
                     units.setdefault(unit, []).append(r.row)
         if len(units) > 1:
             def said(unit, rows_):

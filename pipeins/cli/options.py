@@ -105,6 +105,24 @@ def _set_ascii(ctx, param, value):
     return value
 
 
+def _json_bytes(report, units: str, output: str | None):
+    """The JSON document as UTF-8 pieces (:func:`pipeins.reports.json_pieces`), written as
+    they are, where it goes takes UTF-8 bytes: a file, or a UTF-8 standard output (else
+    None, and the document goes as text).  A 100,000-line schedule's JSON is then never
+    held as one string (a string is two bytes a character once it holds one dash)."""
+    import sys
+
+    from ..reports import json_pieces
+
+    if output in (None, "-"):
+        encoding = (getattr(sys.stdout, "encoding", None) or "").lower().replace("-", "").replace("_", "")
+        if getattr(sys.stdout, "buffer", None) is None or encoding != "utf8":
+            return None
+    ctx = click.get_current_context(silent=True)
+    wanted = bool(ctx is not None and ctx.meta.get("pipeins.ascii"))
+    return [piece.encode("utf-8", "backslashreplace") for piece in json_pieces(report, units, ascii=wanted)]
+
+
 def _render(report, fmt: str, units: str, output: str | None):
     """The report rendered for where it goes: plain ASCII with ``--ascii``, and also when
     it goes to a console whose encoding cannot show it (a Windows code page, say)."""
@@ -193,7 +211,8 @@ def emit(report, fmt: str, units: str, output: str | None) -> None:
     if fmt in BINARY_FORMATS and (output is None or (output == "-" and sys.stdout.isatty())):
         raise InputError("--format", f"{fmt} is a binary workbook, not written to a terminal; "
                                      f"give --output FILE.{fmt}")
-    text = _render(report, fmt, units, output)
+    pieces = _json_bytes(report, units, output) if fmt == "json" else None
+    text = _render(report, fmt, units, output) if pieces is None else None
     ctx = click.get_current_context(silent=True)
     plot = ctx.params.get("plot") if ctx is not None else None
     if plot:
@@ -201,6 +220,11 @@ def emit(report, fmt: str, units: str, output: str | None) -> None:
         from ..reports.charts import plot_bytes
 
         write_text_output(plot, plot_bytes(report.charts, plot, units), "--plot")
+    if pieces is not None:
+        from ..fileio import write_bytes_output
+
+        write_bytes_output(output or "-", pieces, "--output")
+        return
     if (output is None or output == "-") and not isinstance(text, bytes):
         click.echo(text, nl=False)
         return

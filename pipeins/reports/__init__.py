@@ -13,6 +13,7 @@ import csv
 import io
 import json
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -323,28 +324,82 @@ def _settled(report: Report, units: str) -> Report:
                    notes=notes_of(list(report.notes) + list(report.warnings)))
 
 
+#: A list longer than this is written one item per line (see :func:`json_text`).
+_LONG_LIST = 50
+
+
+def json_text(obj, ascii: bool = False, default=None) -> str:
+    """*obj* as JSON, indented by two spaces, with each item of a long list (a schedule's
+    lines) on one line of its own.
+
+    ``json.dumps`` with an indent runs Python's own encoder, which takes a 100,000-line
+    schedule's JSON some ten seconds and a gigabyte; a long list's items are written
+    here by the compiled encoder, one per line (``", "`` and ``": "`` between them), and the
+    pieces joined once, so the document stays readable and parses to the same values."""
+    return "".join(_json_pieces(obj, ascii, default, 0))
+
+
+def _is_list(obj) -> bool:
+    return isinstance(obj, list) or (isinstance(obj, Sequence) and not isinstance(obj, (str, bytes, bytearray)))
+
+
+def _json_pieces(obj, ascii, default, level, encoder=None):
+    if encoder is None:  # one compiled encoder for every item of a long list
+        encoder = json.JSONEncoder(ensure_ascii=ascii, allow_nan=False, default=default,
+                                   separators=(", ", ": ")).encode
+    pad, inner = "  " * level, "  " * (level + 1)
+    if _is_list(obj) and len(obj) > _LONG_LIST:
+        yield "[\n"
+        last = len(obj) - 1
+        for i, x in enumerate(obj):
+            yield inner + encoder(x) + (",\n" if i < last else "\n")
+        yield pad + "]"
+    elif isinstance(obj, dict) and obj and any(isinstance(v, dict) or _is_list(v) for v in obj.values()):
+        yield "{\n"
+        last = len(obj) - 1
+        for i, (k, v) in enumerate(obj.items()):
+            yield inner + encoder(k if isinstance(k, str) else str(k)) + ": "
+            yield from _json_pieces(v, ascii, default, level + 1, encoder)
+            yield ",\n" if i < last else "\n"
+        yield pad + "}"
+    else:
+        if _is_list(obj) and not isinstance(obj, (list, tuple)):
+            obj = list(obj)
+        text = json.dumps(obj, indent=2, ensure_ascii=ascii, allow_nan=False, default=default)
+        yield text.replace("\n", "\n" + pad) if level else text
+
+
+def json_pieces(report: Report, units: str = "si", ascii: bool = False):
+    """The report's JSON document (SI, whatever *units*) in pieces, in order: joined, they
+    are ``render(report, "json")``.  The command line writes a long schedule's pieces as
+    they are (:func:`pipeins.cli.options.emit`) rather than join them into one string."""
+    report = _settled(report, units)
+    from .notes import render as write_note, report_notes
+
+    payload = dict(report.data)
+    payload.setdefault("warnings", report.warnings)
+    payload.setdefault("cautions", report.cautions)
+    payload.setdefault("notes", report_notes(report, units))
+
+    def written(obj):  # a note anywhere in the payload becomes its sentence
+        from ..notes import Note
+
+        if isinstance(obj, Note):
+            return write_note(obj, units)
+        raise TypeError(f"{type(obj).__name__} is not JSON serialisable")
+
+    yield from _json_pieces(payload, ascii, written, 0)
+    yield "\n"
+
+
 def render(report: Report, fmt: str = "text", units: str = "si", ascii: bool = False) -> str | bytes:
     """The report as text, Markdown, CSV (its main table), JSON (SI, whatever *units*),
     HTML (text) or XLSX (bytes).  With *ascii* the text is plain ASCII: rules, bullets and
     unit signs spelt out (:func:`to_ascii`), JSON strings escaped (``\\u00b0``), HTML
     characters as references."""
-    report = _settled(report, units)
     if fmt == "json":
-        from .notes import render as write_note, report_notes
-
-        payload = dict(report.data)
-        payload.setdefault("warnings", report.warnings)
-        payload.setdefault("cautions", report.cautions)
-        payload.setdefault("notes", report_notes(report, units))
-
-        def written(obj):  # a note anywhere in the payload becomes its sentence
-            from ..notes import Note
-
-            if isinstance(obj, Note):
-                return write_note(obj, units)
-            raise TypeError(f"{type(obj).__name__} is not JSON serialisable")
-
-        return json.dumps(payload, indent=2, ensure_ascii=ascii, allow_nan=False, default=written) + "\n"
+        return "".join(json_pieces(report, units, ascii))
+    report = _settled(report, units)
     if fmt == "csv":
         return _csv(report, units, ascii)
     if fmt in ("text", "markdown"):

@@ -15,6 +15,9 @@ with ``saving = bare − insulated`` of its own numbers.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
+from functools import lru_cache
+
 from . import Column, Report, Table
 from .cost import per_energy_text
 from .sizing import layers_text
@@ -193,9 +196,10 @@ def _basis_data(schedule):
     return {"services": services, "locations": locations}
 
 
-def _clean(v):
-    if isinstance(v, float):
-        return None if v != v or v in (float("inf"), float("-inf")) else round(v, 9)
+def _clean(v, _float=float, _round=round):
+    """A float rounded to 1e-9 (None for NaN or an infinity); anything else as it is."""
+    if v.__class__ is _float:
+        return _round(v, 9) if v - v == 0.0 else None
     return v
 
 
@@ -207,9 +211,46 @@ _BY_BASIS = frozenset({"area_m2", "count", "heat_flow_w_per_m2", "bare_heat_flow
                        "bare_heat_flow_w_each", "governing_surface"})
 
 
-def _line_data(lines) -> list[dict]:
-    """The JSON entry of every line: its fields (floats rounded to 1e-9, never NaN or inf)
-    and its heat loss and gain apart."""
+def _line_data(lines) -> "LineEntries":
+    """The JSON entry of every line (:class:`LineEntries`)."""
+    return LineEntries(lines)
+
+
+class LineEntries(Sequence):
+    """The JSON entries of a schedule's lines, each built when it is read: its fields (floats
+    rounded to 1e-9, never NaN or inf) and its heat loss and gain apart.
+
+    A sequence rather than a list so that a 100,000-line schedule's JSON is written entry by
+    entry (:func:`pipeins.reports.json_text`) without holding every entry at once; it
+    indexes, iterates and compares equal to the list of its entries."""
+
+    __slots__ = ("_lines",)
+
+    def __init__(self, lines):
+        self._lines = lines
+
+    def __len__(self) -> int:
+        return len(self._lines)
+
+    def __getitem__(self, i):
+        if isinstance(i, slice):
+            return [_entry(l) for l in self._lines[i]]
+        return _entry(self._lines[i])
+
+    def __iter__(self):
+        return map(_entry, self._lines)
+
+    def __eq__(self, other):
+        return list(self) == (list(other) if isinstance(other, Sequence) else other)
+
+    __hash__ = None
+
+    def __repr__(self) -> str:
+        return f"LineEntries({len(self)} lines)"
+
+
+@lru_cache(maxsize=1)
+def _getters():
     from dataclasses import fields
     from operator import attrgetter
 
@@ -217,22 +258,23 @@ def _line_data(lines) -> list[dict]:
 
     names = tuple(f.name for f in fields(LineResult))
     pipe_names = tuple(n for n in names if n not in SECTION_KEYS)
-    get, get_pipe = attrgetter(*names), attrgetter(*pipe_names)
-    out = []
-    for l in lines:
-        if l.kind == "pipe":  # a pipe's entry as it always was
-            entry = dict(zip(pipe_names, map(_clean, get_pipe(l))))
-            if l.burial_depth_m is not None:   # a buried pipe: its depth, and its pair's other pipe
-                entry.update(burial_depth_m=l.burial_depth_m, pair=l.pair)
-        else:  # a section's: the keys of its basis (no per-metre figure on a face or vessel)
-            entry = {k: v for k, v in zip(names, map(_clean, get(l))) if v is not None or k not in _BY_BASIS}
-            if l.basis != "W/m":
-                for key in ("length_m", "fittings_length_m", "heat_flow_w_per_m", "bare_heat_flow_w_per_m"):
-                    entry.pop(key, None)
-        entry.update(heat_loss_w=l.heat_loss_w, bare_heat_loss_w=l.bare_heat_loss_w, heat_gain_w=l.heat_gain_w,
-                     bare_heat_gain_w=l.bare_heat_gain_w)
-        out.append(entry)
-    return out
+    return names, pipe_names, attrgetter(*names), attrgetter(*pipe_names)
+
+
+def _entry(l) -> dict:
+    names, pipe_names, get, get_pipe = _getters()
+    if l.kind == "pipe":  # a pipe's entry as it always was
+        entry = dict(zip(pipe_names, map(_clean, get_pipe(l))))
+        if l.burial_depth_m is not None:   # a buried pipe: its depth, and its pair's other pipe
+            entry.update(burial_depth_m=l.burial_depth_m, pair=l.pair)
+    else:  # a section's: the keys of its basis (no per-metre figure on a face or vessel)
+        entry = {k: v for k, v in zip(names, map(_clean, get(l))) if v is not None or k not in _BY_BASIS}
+        if l.basis != "W/m":
+            for key in ("length_m", "fittings_length_m", "heat_flow_w_per_m", "bare_heat_flow_w_per_m"):
+                entry.pop(key, None)
+    entry.update(heat_loss_w=l.heat_loss_w, bare_heat_loss_w=l.bare_heat_loss_w, heat_gain_w=l.heat_gain_w,
+                 bare_heat_gain_w=l.bare_heat_gain_w)
+    return entry
 
 
 def _part(line) -> str:
