@@ -725,6 +725,7 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
     raw_services = data.get("services", {}) if isinstance(data.get("services"), dict) else {}
     raw_conditions = data.get("conditions", {}) if isinstance(data.get("conditions"), dict) else {}
     seen: dict[str, str] = {}
+    repeats: dict[tuple, Line] = {}  # the first clean run of each shape (pipeins.project._repeat_shape)
     for top, raw in items:
         for index, table in enumerate(raw, start=1):
             if progress is not None and index % 1000 == 0:
@@ -737,8 +738,15 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
             kind = top
             if top == "lines" and ("lines", index) in r.places:  # a line-list row: the item its columns say
                 kind = next((t for k, t in _ROW_KINDS.items() if k in table), "lines")
-            line = _line(r, index, table, services, conditions, raw_services, raw_conditions, service_values,
-                         condition_values, duplicate, kind, (top, index))
+            shape = _repeat_shape(kind, table)
+            if shape is not None and shape in repeats:  # a run as an earlier one but for its tag and length
+                line = _repeat(r, repeats[shape], index, table, duplicate, (top, index))
+            else:
+                before = len(r.problems)
+                line = _line(r, index, table, services, conditions, raw_services, raw_conditions, service_values,
+                             condition_values, duplicate, kind, (top, index))
+                if shape is not None and line is not None and len(r.problems) == before:
+                    repeats[shape] = line
             if line is not None:
                 lines.append(line)
     if r.problems:
@@ -752,7 +760,7 @@ def _parse_project(data: dict, text: str, file_name: str, base_dir, materials_pr
             continue
         key = (line.service, line.size.label, line.condition)
         counter[key] = counter.get(key, 0) + 1
-        out.append(replace(line, tag=f"{line.service} {line.size.label} {line.condition} #{counter[key]}"))
+        out.append(_with(line, tag=f"{line.service} {line.size.label} {line.condition} #{counter[key]}"))
     return Project(name, units, r.currency, Path(base_dir) / file_name, code, r.code_paths, energy, conditions,
                    services, out, cost_table, file_name, {k: v for k, v in report_block.items() if v},
                    condition_sets=r.__dict__.get("condition_sets", {}))
@@ -1154,6 +1162,46 @@ def _buried_line(r: _Reader, p, entry, table: dict, v: dict, service, kind: str,
         r.problem(p, entry, "twin_spacing" if "twin_spacing" in table else key,
                   f"the two pipes' centres must be more than a casing diameter apart ({2 * radius * 1000:.0f} mm "
                   f"for {size.label})")
+
+
+def _repeat_shape(kind: str, table: dict) -> tuple | None:
+    """What a run of pipe or duct is, but for its tag and length: the key under which a line
+    list's many runs of one service, size and location are read once (None for a face, a
+    vessel, or a value that cannot be a key).  A run's length enters no rule between inputs
+    (:func:`pipeins.inputs.check_line`) and nothing else a run is made of, so two runs of one
+    shape differ only in their tag, length and place in the file."""
+    if kind != "lines" or "length" not in table:
+        return None
+    try:
+        shape = tuple(sorted((k, type(v), tuple(v) if isinstance(v, list) else v)
+                             for k, v in table.items() if k not in ("tag", "length")))
+        hash(shape)
+    except TypeError:  # an unhashable value, or keys that do not sort: read it in full
+        return None
+    return shape
+
+
+def _repeat(r: _Reader, first: Line, index: int, table: dict, duplicate: str | None, p: tuple) -> Line | None:
+    """A run of the shape of *first* (an earlier clean run): its tag and length read as
+    :func:`_line` reads them, the rest taken from *first*."""
+    tag = table.get("tag") if isinstance(table.get("tag"), str) else ""
+    entry = f"lines entry {index}" + (f' "{tag}"' if tag else "")
+    before = len(r.problems)
+    if "tag" in table:
+        r.text_value(table, "tag", p, entry)
+    if duplicate is not None:
+        r.problem(p, entry, "tag", f'tag "{tag}" is already used by {duplicate}')
+    length = r.value(table, "lines", "length", p, entry)
+    if len(r.problems) > before or length is None:
+        return None
+    return _with(first, index=index, tag=tag, length_m=length, file_line=r.pos.header(p))
+
+
+def _with(line: Line, **changes) -> Line:
+    """*line* with *changes*: :func:`dataclasses.replace` without its per-call field walk
+    (a 100,000-line project makes one per line); the new line shares *line*'s values,
+    its fittings dict among them, which nothing changes once read."""
+    return Line(*[changes[n] if n in changes else getattr(line, n) for n in Line.__slots__])
 
 
 def _code_for(r: _Reader, p, entry, kind: str, service) -> None:

@@ -1,5 +1,6 @@
-"""The text tables pipeins writes itself are the ones tabulate writes (the reference: the
-``tabulate`` package from PyPI, ``tablefmt="simple"``, ``disable_numparse=True``), and the
+"""The text and Markdown tables pipeins writes itself are the ones tabulate writes (the
+reference: the ``tabulate`` package from PyPI, ``tablefmt="simple"`` and ``"pipe"``,
+``disable_numparse=True``), and the
 column-wise cell formatting is the cell-by-cell one."""
 
 from __future__ import annotations
@@ -10,7 +11,7 @@ import random
 import pytest
 from tabulate import tabulate
 
-from pipeins.reports import _NARROW, Column, Table, _cells, _plain_table
+from pipeins.reports import _NARROW, Column, Table, _cells, _pipe_table, _plain_table
 
 _ALPHABET = "abcXYZ019 .-–°·²µ≤≥−×€’→ΔεØé,()/%#_:"
 
@@ -32,6 +33,21 @@ def test_plain_table_is_tabulates_simple_table(seed):
     rows = [[_word(rng) for _ in range(n_cols)] for _ in range(n_rows)]
     plain = _plain_table(heads, rows)
     assert "\n".join(plain) == tabulate(rows, heads, tablefmt="simple", disable_numparse=True)
+
+
+@pytest.mark.parametrize("seed", range(40))
+def test_pipe_table_is_tabulates_markdown_table(seed):
+    rng = random.Random(1000 + seed)
+    n_cols, n_rows = rng.randint(1, 7), rng.randint(1, 25)
+    heads = [_word(rng) or "h" for _ in range(n_cols)]
+    rows = [[_word(rng) for _ in range(n_cols)] for _ in range(n_rows)]
+    assert "\n".join(_pipe_table(heads, rows)) == tabulate(rows, heads, tablefmt="pipe", disable_numparse=True)
+
+
+@pytest.mark.parametrize("cell", ["two\nlines", "tab\there", "wide 漢字", "zero\u200bwidth", "\x1b[1mbold"])
+def test_pipe_table_leaves_the_unusual_to_tabulate(cell):
+    assert _pipe_table(["a", "b"], [["x", cell]]) is None
+    assert _pipe_table(["a"], []) is None
 
 
 @pytest.mark.parametrize("cell", ["two\nlines", "tab\there", "wide 漢字", "zero\u200bwidth", "\x1b[1mbold"])

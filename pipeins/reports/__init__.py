@@ -138,6 +138,19 @@ _NARROW = frozenset(
 )
 
 
+def _widths(heads: list[str], rows: list[list[str]]):
+    """(stripped columns, widths) of a table in the simple case tabulate's formats agree on
+    (every column left aligned, as wide as its widest cell and at least its heading plus
+    two); None out of it (no rows, a line break, a character not in :data:`_NARROW`)."""
+    if not rows or not heads or any(len(row) != len(heads) for row in rows):
+        return None
+    columns = [[c.strip() for c in column] for column in zip(*rows)]
+    text = "".join(heads) + "".join("".join(column) for column in columns)
+    if not (text.isascii() and text.isprintable()) and not set(text) <= _NARROW:
+        return None
+    return columns, [max(len(h) + 2, max(map(len, column))) for h, column in zip(heads, columns)]
+
+
 def _plain_table(heads: list[str], rows: list[list[str]]) -> list[str] | None:
     """The table as ``tabulate(rows, heads, tablefmt="simple", disable_numparse=True)``
     writes it, character for character, without importing tabulate: every column left
@@ -145,16 +158,28 @@ def _plain_table(heads: list[str], rows: list[list[str]]) -> list[str] | None:
     columns two spaces apart, a rule of dashes under the headings, trailing spaces cut.
     Returns its lines (without line ends); None when a cell is out of that simple case (no
     rows, a line break, a character not in :data:`_NARROW`): the caller uses tabulate then."""
-    if not rows or not heads or any(len(row) != len(heads) for row in rows):
+    found = _widths(heads, rows)
+    if found is None:
         return None
-    columns = [[c.strip() for c in column] for column in zip(*rows)]
-    text = "".join(heads) + "".join("".join(column) for column in columns)
-    if not (text.isascii() and text.isprintable()) and not set(text) <= _NARROW:
-        return None
-    widths = [max(len(h) + 2, max(map(len, column))) for h, column in zip(heads, columns)]
+    columns, widths = found
     lines = ["  ".join(h.ljust(w) for h, w in zip(heads, widths)).rstrip(),
              "  ".join("-" * w for w in widths).rstrip()]
     lines += ["  ".join([c.ljust(w) for c, w in zip(row, widths)]).rstrip() for row in zip(*columns)]
+    return lines
+
+
+def _pipe_table(heads: list[str], rows: list[list[str]]) -> list[str] | None:
+    """The table as ``tabulate(rows, heads, tablefmt="pipe", disable_numparse=True)`` writes
+    it (Markdown), character for character, in the simple case of :func:`_plain_table`:
+    ``| cell |`` with the cells padded to the column's width, a ``|:---|`` rule (left
+    aligned) under the headings.  None out of that case: the caller uses tabulate then."""
+    found = _widths(heads, rows)
+    if found is None:
+        return None
+    columns, widths = found
+    lines = ["| " + " | ".join(h.ljust(w) for h, w in zip(heads, widths)) + " |",
+             "|" + "|".join(":" + "-" * (w + 1) for w in widths) + "|"]
+    lines += ["| " + " | ".join([c.ljust(w) for c, w in zip(row, widths)]) + " |" for row in zip(*columns)]
     return lines
 
 
@@ -211,9 +236,13 @@ def _text_of(report: Report, units: str, markdown: bool, ascii: bool) -> str:
         name = a(table.title)
         if markdown:
             out.write(f"\n## {name}\n\n")
-            from tabulate import tabulate
+            piped = _pipe_table(heads, rows)
+            if piped is None:
+                from tabulate import tabulate
 
-            out.write(tabulate(rows, heads, tablefmt="pipe", disable_numparse=True))
+                out.write(tabulate(rows, heads, tablefmt="pipe", disable_numparse=True))
+            else:
+                out.write("\n".join(piped))
         else:
             out.write(f"\n{name}\n{single * len(name)}\n")
             plain = _plain_table(heads, rows)
