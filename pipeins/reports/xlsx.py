@@ -66,27 +66,46 @@ def _number_format(column, units: str) -> str:
     return "0" if digits <= 0 else "0." + "0" * digits
 
 
-def _write(ws, heads, rows, formats=None):
+def _write(ws, heads, rows, formats=None, after=()):
+    """One sheet of a write-only workbook: bold wrapped headings, the rows (floats in their
+    number format), each column as wide as its widest text (8 to 70 characters), the
+    heading row frozen.  Widths and panes are set before the rows, as a streamed sheet
+    needs."""
+    from openpyxl.cell import WriteOnlyCell
     from openpyxl.styles import Alignment, Font
-
-    ws.append(heads)
-    for cell in ws[1]:
-        cell.font = Font(bold=True)
-        cell.alignment = Alignment(wrap_text=True, vertical="bottom")
-    for row in rows:
-        ws.append(row)
-    widths = [len(str(h)) for h in heads]
-    for r, row in enumerate(rows, start=2):
-        for c, value in enumerate(row):
-            if formats and isinstance(value, float):
-                ws.cell(row=r, column=c + 1).number_format = formats[c]
-            text = f"{value:.2f}" if isinstance(value, float) else str(value or "")
-            widths[c] = max(widths[c], len(text))
     from openpyxl.utils import get_column_letter
 
+    widths = [len(str(h)) for h in heads]
+    for row in rows:
+        for c, value in enumerate(row):
+            text = f"{value:.2f}" if isinstance(value, float) else str(value or "")
+            if len(text) > widths[c]:
+                widths[c] = len(text)
     for c, width in enumerate(widths, start=1):
         ws.column_dimensions[get_column_letter(c)].width = min(70, max(8, width + 2))
     ws.freeze_panes = "A2"
+    bold, wrap = Font(bold=True), Alignment(wrap_text=True, vertical="bottom")
+    head_cells = []
+    for h in heads:
+        cell = WriteOnlyCell(ws, value=h)
+        cell.font, cell.alignment = bold, wrap
+        head_cells.append(cell)
+    ws.append(head_cells)
+    for row in rows:
+        if formats:
+            row = [_formatted(ws, value, formats[c]) if isinstance(value, float) else value
+                   for c, value in enumerate(row)]
+        ws.append(row)
+    for row in after:  # below the table (its note), out of the width count
+        ws.append(row)
+
+
+def _formatted(ws, value: float, number_format: str):
+    from openpyxl.cell import WriteOnlyCell
+
+    cell = WriteOnlyCell(ws, value=value)
+    cell.number_format = number_format
+    return cell
 
 
 def render_xlsx(report, units: str = "si") -> bytes:
@@ -98,17 +117,14 @@ def render_xlsx(report, units: str = "si") -> bytes:
 
     from .html import TITLE_BLOCK_KEYS
 
-    wb = Workbook()
-    wb.remove(wb.active)
+    wb = Workbook(write_only=True)  # streamed: a 100,000-line schedule's sheets are not held as cell objects
     names = sheet_names(report)
     for name, table in zip(names, report.tables):
         ws = wb.create_sheet(name)
         heads = [c.label(units) for c in table.columns]
         rows = [[cell_value(c, v, units) for c, v in zip(table.columns, row)] for row in table.rows]
-        _write(ws, heads, rows, [_number_format(c, units) for c in table.columns])
-        if table.note:
-            ws.append([])
-            ws.append([table.note])
+        note = [[], [table.note]] if table.note else []
+        _write(ws, heads, rows, [_number_format(c, units) for c in table.columns], note)
     block = dict(getattr(report, "title_block", None) or {})
     basis_rows = [["report", report.title]]
     basis_rows += [[label, str(block[key])] for key, label in TITLE_BLOCK_KEYS.items() if block.get(key)]
