@@ -193,7 +193,9 @@ def select_over_conditions(spec_of, conditions, criteria, material, req, series=
                       result=_Warnings(w for o in outs for w in o.result.warnings),
                       not_applicable=list(dict.fromkeys(x for o in outs for x in o.not_applicable)),
                       active=[a for o in outs for a in o.active])
-    notes = list(dict.fromkeys([(f"{c}: {x}" if len(outs) > 1 else x) for c in names for x in selections[c].notes]
+    from .notes import with_subject
+
+    notes = list(dict.fromkeys([(with_subject(x, c) if len(outs) > 1 else x) for c in names for x in selections[c].notes]
                                + skipped))
     required_m = {k: np.where(np.isfinite(v), v, np.nan) for k, v in required_m.items()}
     return ConditionsSelection(outcome, gov_cond, required_m, required_under, selections, notes)

@@ -126,7 +126,9 @@ def _contents_rows(spec, result, units, rows, data, warnings):
     try:
         mass = float(contents_mass_kg(volume, fluid, temp))
     except InputError as exc:
-        warnings.append(f"contents hold not worked out: {exc.message}")
+        from .notes import note
+
+        warnings.append(note("vessel.contents_not_worked_out", reason=exc.message))
         return
     from .props.liquids import fluid_properties
 

@@ -259,7 +259,12 @@ def _within_service_limits(problem, outcome, criteria, series_m, extra, units, c
             outcome.messages[i].append(messages[i])
     if inner is not None and np.any(inner_m > 0):
         used = inner_m[inner_m > 0]
-        notes.append(f"{material.name} serves {fq(material.min_temp_c, 'temperature', units)} to "
-                     f"{fq(material.max_temp_c, 'temperature', units)}: an inner layer of {inner.name} ("
-                     f"{', '.join(fq(t, 'thickness', units) for t in dict.fromkeys(used))}) keeps it inside its range")
+        from .notes import note
+
+        common = dict(material=material.name, inner=inner.name, low_c=(material.min_temp_c, "temperature"),
+                      high_c=(material.max_temp_c, "temperature"))
+        thin, thick = float(np.min(used)), float(np.max(used))
+        notes.append(note("selection.inner_layer", **common, thickness_m=(thin, "thickness")) if thin == thick else
+                     note("selection.inner_layer.span", **common, thinnest_m=(thin, "thickness"),
+                          thickest_m=(thick, "thickness")))
     return problem, outcome, (inner, inner_m) if inner is not None and np.any(inner_m > 0) else None

@@ -50,6 +50,11 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
                                       "its usable limit of {limit_c:g|0}",
     "layer.below_critical_radius": "outer radius below the critical radius ({radius_m:.1f|}) for {material}: more "
                                    "of it raises the heat flow at first",
+    # the selection (pipeins.selection): an inner layer under a material that cannot serve the fluid
+    "selection.inner_layer": "{material} serves {low_c} to {high_c}: an inner layer of {inner} ({thickness_m}) "
+                             "keeps it inside its range",
+    "selection.inner_layer.span": "{material} serves {low_c} to {high_c}: an inner layer of {inner} "
+                                  "({thinnest_m!n} to {thickest_m}, by size) keeps it inside its range",
     # the films' correlation ranges (pipeins.physics.outer, .inner, .duct_inner; words from the records)
     "film.outer.range": "outer film: {what}{where}; {consequence}",
     "film.inner.range": "inner film: {what}{where}; {consequence}",
@@ -82,6 +87,7 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
     "surface.below_dew_point.night": "at night, without sun, the surface falls to {surface_c:.1f|}, below the dew "
                                      "point {dew_point_c:.1f|}: it will sweat",
     # a vessel's contents (pipeins.sections)
+    "vessel.contents_not_worked_out": "contents hold not worked out: {reason}",
     "vessel.freeze_hold_lumped": "freeze hold is a lumped estimate for still, mixed contents; local codes and "
                                  "licensed practice govern freeze protection",
     "condensation.not_checked.cold_line": "condensation not checked: the {what} is colder than the air; give --rh",
