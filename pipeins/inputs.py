@@ -264,8 +264,8 @@ CLI_ONLY = {
     "--profile": "an operating profile of one line; a project service runs at one temperature",
     "--plot": "an extra chart file beside one command's output; the schedule's formats carry their charts",
     "--ascii": "how the console draws one command's text output (plain ASCII rules); not part of a project",
-    "--condition": "several design conditions of one line sized on the command line; a project file names its "
-                   "[conditions.NAME] tables and a service's or line's conditions list",
+    "--condition": "several design conditions of one line checked or sized on the command line; a project file "
+                   "names its [conditions.NAME] tables and a service's or line's conditions list",
     "--ducts": "a table's duct sizes; the project file lists its lines, each with its size",
     "--materials": "a user's materials file for one checked line (pipeins.user_materials); a project names its "
                    "own with [project] materials_file",

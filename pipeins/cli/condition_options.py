@@ -1,4 +1,4 @@
-"""``--condition``: several design conditions for one line on the command line (``size``,
+"""``--condition``: several design conditions for one line on the command line (``check``, ``size``,
 ``table``).
 
 Each ``--condition`` names one condition and what differs in it, in the words of the line

@@ -161,3 +161,82 @@ def _fq(value, kind, units):
     from ..units import format_quantity
 
     return format_quantity(float(value), kind, units)
+
+
+#: Column kind of a heat flow by its basis.
+_FLOW_KIND = {"W/m": "heat_flow_per_length", "W/m²": "heat_flux", "W": "power"}
+
+
+def add_check_conditions(report, solved, units: str) -> None:
+    """Put the line under each design condition into the ``check`` *report* (built under the
+    first): a "Design conditions" table (air, RH, wind, sun; heat loss and heat gain apart,
+    in the result's basis; the surface, the dew point and the margin above it), the JSON list
+    ``design_conditions`` and ``checked_under``, and each further condition's sweating or
+    touch warnings with the condition as their subject.
+
+    *solved* is a list of ``(condition, spec, result)``: a
+    :class:`pipeins.design_conditions.CommandCondition`, the line under it and its solve."""
+    from .. import notes as nt
+    from ..results import HEAT_FLOW_KEYS
+    from . import Column, Table
+    from .notes import notes_of, render_all
+
+    def first(x):
+        return None if x is None else float(np.asarray(x, dtype=float).ravel()[0])
+
+    basis = solved[0][2].basis
+    key = HEAT_FLOW_KEYS[basis].replace("heat_flow", "")   # "_w_per_m", "_w_per_m2", "_w"
+    rows, entries, extra = [], [], []
+    for k, (cond, spec, result) in enumerate(solved):
+        q = first(result.heat_flow)
+        surface = first(result.surface_temp_c)
+        dew = first(result.dew_point_c)
+        margin = None if dew is None else surface - dew
+        air = result.inputs["surroundings"]
+        sun = first(getattr(air, "solar_irradiance_w_m2", None))
+        rows.append([cond.name, first(air.air_temp_c), None if cond.rh_percent is None else cond.rh_percent,
+                     cond.wind_m_s, sun, max(q, 0.0), max(-q, 0.0), surface, dew, margin])
+        entries.append({"name": cond.name, "air_temp_c": first(air.air_temp_c), "rh_percent": cond.rh_percent,
+                        "wind_m_s": cond.wind_m_s, "solar_w_m2": sun, "settings": dict(cond.settings),
+                        f"heat_loss{key}": max(q, 0.0), f"heat_gain{key}": max(-q, 0.0),
+                        "surface_temp_c": surface, "dew_point_c": dew, "above_dew_point_k": margin,
+                        "touch_limit_c": result.touch_limit_c})
+        if k == 0:
+            continue   # the first condition's warnings are the check's own
+        if result.touch_limit_c is not None and surface > result.touch_limit_c:
+            extra.append(nt.with_subject(nt.note("surface.above_touch_limit", surface_c=(surface, "temperature"),
+                                                 limit_c=(result.touch_limit_c, "temperature")), cond.name))
+        if dew is not None and surface < dew:
+            extra.append(nt.with_subject(nt.note("surface.below_dew_point", where="surface",
+                                                 surface_c=(surface, "temperature"),
+                                                 dew_point_c=(dew, "temperature")), cond.name))
+    flow = _FLOW_KIND[basis]
+    report.tables.append(Table("Design conditions", [
+        Column("condition"), Column("air", "temperature"), Column("RH [%]", digits=0), Column("wind", "speed"),
+        Column("sun", "heat_flux"), Column("heat loss", flow), Column("heat gain", flow),
+        Column("surface", "temperature"), Column("dew point", "temperature"),
+        Column("above dew point", "temperature_difference")], rows,
+        note="the line solved under each condition; heat loss and heat gain apart (one of them is zero); the "
+             "surface is the governing part's; the tables above are under the first condition"))
+    gov = solved[0][0].name
+    for table in report.tables:
+        if table.title in ("Line", "Results"):
+            table.title = f'{table.title} (under "{gov}")'
+    report.title += f" ({len(solved)} design conditions)"
+    report.footer.insert(0, f"design conditions: {', '.join(c.name for c, _, _ in solved)}; the check is "
+                            f"under \"{gov}\" and the Design conditions table gives the line under each")
+    texts = render_all(extra, units)
+    for text in texts:
+        if text not in report.warnings:
+            report.warnings.append(text)
+    report.notes = list(report.notes) + notes_of(extra)
+    from .cautions import cautions_for
+
+    for _cond, spec, result in solved[1:]:   # a winter condition's freezing, a summer one's sweating …
+        for text in cautions_for(spec, result):
+            if text not in report.cautions:
+                report.cautions.append(text)
+    report.data["cautions"] = report.cautions
+    report.data["design_conditions"] = entries
+    report.data["checked_under"] = gov
+    report.data["warnings"] = report.warnings
