@@ -509,7 +509,7 @@ def _select_traced(project, service, condition, sizes, length, section, economic
 
     return select_over_conditions(spec_of, conditions + [traced], service.criteria, service.material,
                                   service.requirements, service.series, project.units, sizes=sizes, code=service.code,
-                                  economic=economic, code_paths=project.code_paths)
+                                  economic=economic, code_paths=project.code_paths, skip_unsized=True)
 
 
 def _solve_lines(project, service, condition, lines, chosen, warnings) -> list[LineResult]:

@@ -99,3 +99,13 @@ def test_line_entries_behave_as_a_list():
     assert len(entries) == len(schedule.lines) == len(as_list)
     assert entries == as_list and entries[0] == as_list[0] and entries[-2:] == as_list[-2:]
     assert entries[0]["tag"] == schedule.lines[0].tag
+
+
+def test_a_numpy_float_in_a_line_entry_is_rounded_and_cleaned():
+    import numpy as np
+
+    from pipeins.reports.schedule import _clean
+
+    assert _clean(np.float64(1.23456789012345)) == 1.23456789 and type(_clean(np.float64(2.0))) is float
+    assert _clean(np.float64("nan")) is None and _clean(float("inf")) is None
+    assert _clean(3) == 3 and _clean("a") == "a" and _clean(True) is True

@@ -111,3 +111,15 @@ def test_the_tracer_criterion_needs_its_keys(run, tmp_path, drop, expected):
     code, out, err = run("schedule", str(path))
     assert (code, out) == (2, "")
     assert err.strip().splitlines() == expected
+
+
+@pytest.mark.parametrize("criteria", ['["tracer", "touch"]', '["tracer", "condensation"]'])
+def test_a_criterion_that_does_not_apply_beside_the_tracer_is_a_note(run, tmp_path, criteria):
+    """At 40 °C no surface can exceed the touch limit, and the yard gives no RH: neither criterion
+    applies there; the tracer still sizes the line, as with the tracer alone, and the report
+    says why the other sized nothing."""
+    tracer_only = _schedule(run, tmp_path)["schedule"][0]
+    data = _schedule(run, tmp_path, criteria=criteria)
+    row = data["schedule"][0]
+    assert row["governing"] == "tracer" and row["thickness_mm"] == tracer_only["thickness_mm"]
+    assert any("nothing is sized under it" in w for w in data["warnings"])

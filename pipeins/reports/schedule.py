@@ -197,9 +197,10 @@ def _basis_data(schedule):
 
 
 def _clean(v, _float=float, _round=round):
-    """A float rounded to 1e-9 (None for NaN or an infinity); anything else as it is."""
-    if v.__class__ is _float:
-        return _round(v, 9) if v - v == 0.0 else None
+    """A float (a numpy one too) rounded to 1e-9 (None for NaN or an infinity); anything else
+    as it is."""
+    if v.__class__ is _float or isinstance(v, _float):
+        return _round(float(v), 9) if v - v == 0.0 else None
     return v
 
 
