@@ -109,6 +109,10 @@ def schedule(project_file, fmt, units, output, quiet):
     bar = progress_bar(quiet)
     try:
         project = load_project(project_file, bar)  # a ProjectError carries every problem; main() prints each
+        if units and units != project.units:   # the criteria's and codes' sentences in the units shown
+            from dataclasses import replace
+
+            project = replace(project, units=units)
         result = compute_schedule(project, bar)
         if bar is not None:
             bar("writing report", 0, 1)
