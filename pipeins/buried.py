@@ -7,7 +7,7 @@ ground surface (a semi-infinite medium of conductivity k_s) conducts, per metre,
     q = S · k_s · (T_casing − T_ground),   S = 2π / acosh(2z/D)    [per metre]
 
 (the conduction shape factor of a cylinder parallel to a plane surface: Incropera et al.,
-Fundamentals of Heat and Mass Transfer, Table 4.1, case 1; the same as
+Fundamentals of Heat and Mass Transfer, (6th ed.), Table 4.1, case 2, from memory; the same as
 ``ht.conduction.S_isothermal_pipe_to_plane``).  The soil is thus a resistance
 R_s = acosh(2z/D) / (2π k_s) [m·K/W] in series with the pipe wall and the insulation.  It
 is solved by the ordinary solver as a fixed outer coefficient h = 1 / (R_s · π D) to the

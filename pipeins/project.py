@@ -212,6 +212,7 @@ class Service:
     #: The design-conductivity factors (pipeins.user_materials.DesignFactors) of its material, or
     #: None: they apply to its fittings' covers too (pipeins.schedule_fittings).
     design_factors: Any = None
+    criteria_listed: bool = True       # False: the criteria are the defaults (none listed)
 
     @property
     def buried_inputs(self) -> dict:
@@ -884,10 +885,15 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
     # what asks for each registered criterion is given (pipeins.criteria.registry)
     registered = [c for c in records() if c.name in CRITERIA]
     given = {c.name: c.default or c.asked(v, {"code": scode, "cost_table": scost}) for c in registered}
+    listed = criteria is not None
     if criteria is None:  # default: every criterion the service gives the data for
         # (a tracer output alone is compared with the traced lines' design heat loss, sized for only when listed)
         criteria = [c.name for c in registered if c.default] + [
             c.name for c in registered if not c.default and given[c.name] and c.name != "tracer"]
+        if any(k in v for k in _BURIED):   # a buried line: only what applies in the soil
+            from .buried import SIZED_FOR
+
+            criteria = [c for c in criteria if c in SIZED_FOR]
     else:
         for c in registered:
             if c.name in criteria and not given[c.name]:
@@ -933,7 +939,7 @@ def _service(r: _Reader, sname: str, table: dict, energy: Energy, code, cost_tab
                    inner_h_w_m2k=v.get("inner_h_w_m2k"), sheet=v.get("sheet"),
                    fluid_given="fluid" in table or "steam_pressure" in table,
                    tracing=tuple(tracing.items()) if tracing else None,
-                   buried=tuple(buried.items()) if buried else None,
+                   buried=tuple(buried.items()) if buried else None, criteria_listed=listed,
                    design_factors=design_factors if material is not None else None)
 
 

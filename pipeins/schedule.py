@@ -748,7 +748,13 @@ def _money_and_gains(service, heat, heat_bare, tags, warnings):
     gaining = (heat < 0) | (heat_bare < 0)
     if basis.cop is None and gaining.any():
         named = ", ".join(f'"{t}"' for t, g in zip(tags, gaining) if g)
-        warnings.append(make_note("schedule.gain_without_cop", service=service.name, lines=named))
+        said = next((i for i, w in enumerate(warnings) if getattr(w, "code", None) == "schedule.gain_without_cop"
+                     and dict(w.words).get("service") == service.name), None)   # a pair's pipes: once per service
+        if said is None:
+            warnings.append(make_note("schedule.gain_without_cop", service=service.name, lines=named))
+        else:
+            warnings[said] = make_note("schedule.gain_without_cop", service=service.name,
+                                       lines=f'{dict(warnings[said].words)["lines"]}, {named}')
     return basis, money, gaining
 
 def _line_money(heat, heat_bare, basis) -> dict:

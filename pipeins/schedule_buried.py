@@ -49,13 +49,15 @@ NOT_APPLICABLE = {
 }
 
 BASIS_NOTE = ("The soil is a resistance acosh(2z/D)/(2π·k) from the outer surface (diameter D, centre at depth z) "
-              "to an isothermal ground surface (cylinder in a semi-infinite medium, Incropera et al., Fundamentals "
-              "of Heat and Mass Transfer, Table 4.1, case 1), in series with the insulation: no air film, no "
-              "radiation, no sun. Two pipes side by side: the mutual resistance ln(sqrt(1 + (2z/E)²))/(2π·k) of a line "
-              "source and its image (Wallentén 1991, from memory); pipes in one casing: the multipole method "
-              "(pipeins.twin_casing). A pair is sized as its supply alone in the soil; both pipes' heat flows are "
-              "given apart, never netted. Soil conductivity varies with moisture: use a site survey where the heat "
-              "flow matters.")
+              "to an isothermal ground surface (cylinder in a semi-infinite medium, Incropera & DeWitt, "
+              "Fundamentals of Heat and Mass Transfer, 6th ed., Table 4.1, case 2, from memory), in series with the"
+              " insulation: no air film, no radiation, no sun. Two pipes side by side: the mutual resistance "
+              "ln(sqrt(1 + (2z/E)²))/(2π·k) of a line source and its image (Wallentén 1991, from memory); pipes in "
+              "one casing: the multipole method (line sources and multipoles at the pipes and their images in the "
+              "casing, Bennet, Claesson & Hellström 1987, from memory). A pair is sized as its supply alone in the "
+              "soil; both pipes' heat flows are given apart, never netted; a pair's outlet temperature (Lines "
+              "table) is the pipe's alone in the soil. Soil conductivity varies with moisture: use a site survey "
+              "where the heat flow matters.")
 
 
 @dataclass(frozen=True, slots=True)
@@ -132,7 +134,8 @@ def select_buried(project, service, condition, sizes, length):
     inputs = service.buried_inputs
     _, k, _ = soil_of(inputs)
     kept = tuple(c for c in service.criteria if c not in NOT_APPLICABLE)
-    notes = [NOT_APPLICABLE[c] for c in service.criteria if c in NOT_APPLICABLE]
+    # said only of criteria the user listed (a line in air's defaults left out silently)
+    notes = [NOT_APPLICABLE[c] for c in service.criteria if c in NOT_APPLICABLE] if service.criteria_listed else []
     req = replace(requirements_for(service.requirements, kept), touch=False)
     spec = _ground_spec(service, condition, length)
     material, series = service.material, service.series
@@ -201,7 +204,7 @@ def solve_buried_lines(project, service, condition, lines, chosen, warnings, out
     from .catalog.materials import lookup_material
     from .errors import InputError
     from .model import Fluid, Layer
-    from .notes import with_subject
+    from .notes import note, with_subject
     from .schedule import _line_results
     from .solve import solve
 
@@ -236,6 +239,8 @@ def solve_buried_lines(project, service, condition, lines, chosen, warnings, out
     qb_alone = np.ravel(bare.heat_flow_w_per_m)
     ts = np.ravel(result.surface_temp_c)
     warnings += [with_subject(w, f'service "{service.name}" in {condition.name}') for w in dict.fromkeys(result.warnings)]
+    returns_said = (f'line "{lines[0].tag} return"' if n == 1 else
+                    "lines " + ", ".join(f'"{l.tag} return"' for l in lines))
     r_soil = np.ravel(soil_resistance_mk_w(depth, diameter, k))
     r_soil_bare = np.ravel(soil_resistance_mk_w(depth, od, k))
     t1 = float(service.fluid_temp_c)
@@ -252,7 +257,11 @@ def solve_buried_lines(project, service, condition, lines, chosen, warnings, out
                             mutual, dt1, dt2)
         qb, q2b = _pair_flows(_own_resistance(dt1, qb_alone, r_soil_bare), _own_resistance(dt2, q2b_alone, r_soil_bare),
                               r_soil_bare, mutual, dt1, dt2)
-        back = (q2, q2b, q2_alone, np.ravel(ret.surface_temp_c))
+        warnings += [with_subject(w, returns_said) for w in dict.fromkeys([*ret.warnings, *ret_bare.warnings])]
+        # each casing surface beside the other pipe: the ground plus its own heat flow through the
+        # soil and the other's through the mutual resistance (= T_fluid - q_pair * R_own)
+        ts = ground + q * r_soil + q2 * mutual
+        back = (q2, q2b, q2_alone, ground + q2 * r_soil + q * mutual)
     elif casing is not None:   # one casing: the multipole solve once per size
         from .twin_casing import solve_twin_casing
 
@@ -271,7 +280,13 @@ def solve_buried_lines(project, service, condition, lines, chosen, warnings, out
         # bare: each bare pipe alone in the soil (bare pipes that close together are no real layout)
         ret_bare = solve(pipe, [], Fluid(back_c, fluid.film_coefficient_w_m2k), surroundings, bare_surface)
         q2b = np.ravel(ret_bare.heat_flow_w_per_m)
+        # the return's own warnings (its temperature in the casing's insulation): the return at the
+        # supply's reference build-up in the soil
+        ret = solve(pipe, layers, Fluid(back_c, fluid.film_coefficient_w_m2k), surroundings, insulated)
+        warnings += [with_subject(w, returns_said) for w in dict.fromkeys([*ret.warnings, *ret_bare.warnings])]
         back = (q2, q2b, [None] * n, ts)
+    if back_c is not None:
+        warnings += _pair_notes(service.name, condition.name, t1, float(back_c), ground)
     cap = service.requirements.max_heat_flow_w_per_m
     lengths = np.array([l.length_m for l in lines], dtype=float)
     columns = [(lines, thickness, q, qb, ts, t1, q_alone, "supply" if back is not None else "single")]
@@ -296,14 +311,34 @@ def solve_buried_lines(project, service, condition, lines, chosen, warnings, out
                 float(lengths[i]), float(qq[i]), None if alone[i] is None else float(alone[i]), float(qqb[i]), float(heat[i]), float(tss[i]),
                 spacing, mutual))
             if cap is not None and role != "single" and abs(qq[i]) > cap:
-                warnings.append(f'line "{line.tag}": the {role} pipe of the pair has {float(qq[i]):.1f} W/m in the '
-                                f"soil beside the other pipe, above the heat-flow cap {cap:g} W/m (the pair is sized "
-                                "as its supply alone)")
+                warnings.append(note("buried.pair_above_cap", subject=f'line "{line.tag}"', role=role,
+                                     heat_flow=(float(qq[i]), "heat_flow_per_length"),
+                                     cap=(float(cap), "heat_flow_per_length")))
     out.basis.setdefault(service.name, {
         "depth_m": depth, "soil_name": soil_name, "soil_k_w_mk": k, "soil_source": source, "ground_temp_c": ground,
         "arrangement": arrangement, "spacing_m": spacing, "return_temp_c": back_c, "casing_diameter_m": casing,
         "casing_insulation": material.name if casing is not None else None})
     return results
+
+
+def _pair_notes(service_name, condition_name, supply_c, return_c, ground_c) -> list:
+    """Doubtful pair temperatures: a return farther from the ground than its supply (hotter than
+    the supply of a line losing heat, colder than that of one gaining it), or the two pipes on
+    either side of the ground temperature (one loses heat, the other gains)."""
+    from .notes import note
+
+    said = f'service "{service_name}" in {condition_name}'
+    temps = dict(supply_c=(supply_c, "temperature"), return_c=(return_c, "temperature"),
+                 ground_c=(ground_c, "temperature"))
+    out = []
+    if (return_c - supply_c) * (supply_c - ground_c) > 0:
+        out.append(note("buried.return_beyond_supply", subject=said,
+                        direction="hotter" if return_c > supply_c else "colder", **temps))
+    if (supply_c - ground_c) * (return_c - ground_c) < 0:
+        out.append(note("buried.pair_directions_differ", subject=said, **temps))
+    elif supply_c == ground_c:
+        out.append(note("buried.no_driving_difference", subject=said, **temps))
+    return out
 
 
 def _outlets(service, pipe, layers, temp, lengths, surroundings, surface, fluid, warnings) -> list:

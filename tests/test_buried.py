@@ -2,8 +2,8 @@
 
 Checks against sources outside the code: the shape factor of an isothermal cylinder under
 an isothermal plane against ``ht.conduction.S_isothermal_pipe_to_plane`` (the closed form
-2πL/acosh(2z/D) of Incropera et al., Fundamentals of Heat and Mass Transfer, Table 4.1,
-case 1); the heat flow against a hand series calculation (cylindrical shells and the soil
+2πL/acosh(2z/D) of Incropera et al., Fundamentals of Heat and Mass Transfer, (6th ed.), Table 4.1,
+case 2, from memory); the heat flow against a hand series calculation (cylindrical shells and the soil
 resistance in series).
 """
 

@@ -4,7 +4,7 @@ Checks against sources outside the code: the schedule's buried heat flow against
 calculation R_wall + R_insulation + R_soil, the soil's resistance from
 ``ht.conduction.S_isothermal_pipe_to_plane`` (the shape factor 2πL/acosh(2z/D) of an isothermal
 cylinder under an isothermal plane, Incropera et al., Fundamentals of Heat and Mass Transfer,
-Table 4.1, case 1); a pair of pipes in one trench against the same hand resistances with the
+(6th ed.), Table 4.1, case 2, from memory); a pair of pipes in one trench against the same hand resistances with the
 mutual resistance of a line source and its image in the ground surface,
 ln(sqrt(1 + (2z/E)²))/(2π k) (Wallentén 1991, from memory), solved as a 2×2 system by numpy.
 Consistency: a buried line in a project gives the very heat flow ``check --buried`` gives for the
@@ -116,7 +116,12 @@ def test_twin_casing_equals_check_twin_casing(run, tmp_path):
     assert back["heat_flow_w_per_m"] == pytest.approx(twin["return_heat_flow_w_per_m"], rel=1e-9)
     # the casing fixes the build-up: the reference thickness of the supply centred in it
     assert supply["thickness_m"] == pytest.approx((0.315 - 0.0761) / 2, abs=1e-9)
-    texts = " ".join(data["warnings"])
+    # no criteria listed: the defaults leave out what does not apply in the soil, and say nothing
+    assert data["warnings"] == []
+    # listed: each criterion that does not apply is said
+    path.write_text(path.read_text().replace('material = "mineral wool"',
+                                             'material = "mineral wool"\ncriteria = ["touch", "condensation"]'))
+    texts = " ".join(_schedule(run, path)["warnings"])
     assert "touch safety: not applicable to a buried line" in texts
     assert "condensation control: not applicable to a buried line" in texts
 
@@ -193,6 +198,17 @@ def test_pair_apart_against_hand_mutual_resistance_and_totals(run, tmp_path):
     q1, q2 = np.linalg.solve(m, np.array([6.0 - 12.0, ret - 12.0]))
     assert supply["heat_flow_w_per_m"] == pytest.approx(q1, rel=1e-8)
     assert back["heat_flow_w_per_m"] == pytest.approx(q2, rel=1e-8)
+    # each casing surface beside the other pipe (the same hand 2×2 system): T_fluid − q_pair·R_own,
+    # equivalently the ground + q_own·R_s + q_other·R_m
+    assert supply["surface_temp_c"] == pytest.approx(6.0 - q1 * r_own, rel=1e-8)
+    assert supply["surface_temp_c"] == pytest.approx(12.0 + q1 * r_soil + q2 * r_m, rel=1e-8)
+    assert back["surface_temp_c"] == pytest.approx(ret - q2 * r_own, rel=1e-8)
+    items = {i["tag"]: i for i in data["buried"]["items"]}
+    assert items["CH-1 return"]["casing_temp_c"] == pytest.approx(12.0 + q2 * r_soil + q1 * r_m, rel=1e-8)
+    # the supply gains heat and the return loses it: the pair's directions differ, said once
+    notes = [n for n in data["notes"] if n["code"] == "buried.pair_directions_differ"] if "notes" in data else [
+        w for w in data["warnings"] if "lie on either side of the ground" in w]
+    assert len(notes) == 1
     assert supply["heat_gain_w"] > 0 and supply["heat_loss_w"] == 0
     assert back["heat_loss_w"] > 0 and back["heat_gain_w"] == 0
     totals = data["totals"]
@@ -331,3 +347,37 @@ def test_depth_within_the_scheduled_casing_is_refused(run, tmp_path):
     assert code == 2 and out == ""
     [line] = err.strip().splitlines()
     assert line.startswith('Error: loop.toml: line 9 (service "flow"): buried: line "X": the burial depth 0.2 m')
+
+
+# -- a pair's return: its own warnings and doubtful temperatures ----------------------------
+def test_return_pipe_warnings_are_reported(run, tmp_path):
+    # polyisocyanurate foam's usable limit 120 °C (tables/materials.csv) under a 190 °C return
+    path = _project(tmp_path, BURIED + 'twin_spacing = "0.6 m"\nreturn_temp = "190 C"\ncriteria = ["heat_flow"]\n'
+                                       'max_heat_flow = "60 W/m"',
+                    [("P-1", "DN150", "80 m", 'thickness = "100 mm"')])
+    texts = _schedule(run, path)["warnings"]
+    assert any(t.startswith('line "P-1 return": ') and "reaches 190.0 °C, above its usable limit of 120 °C" in t
+               for t in texts), texts
+    # the return hotter than the supply of a line losing heat to the ground
+    assert any("the return (190.0 °C) is hotter than the supply (90.0 °C) with the ground at 8.0 °C" in t
+               for t in texts), texts
+
+
+def test_no_cop_said_once_per_service(run, tmp_path):
+    # both pipes of a chilled pair gain heat (6 and 10 °C under ground at 12 °C), no COP given
+    extra = (f'buried = "{DEPTH} m"\nsoil_k = {K_SOIL}\nground_temp = "12 C"\ntwin_spacing = "0.5 m"\n'
+             'return_temp = "10 C"\ncriteria = ["heat_flow"]\nmax_heat_flow = "30 W/m"\nprice = "0.1/kWh"')
+    path = _project(tmp_path, extra, [("CH-1", "DN150", "200 m", 'thickness = "40 mm"')], material=f"k={K_INS}")
+    path.write_text(path.read_text().replace('temperature = "90 C"', 'temperature = "6 C"'))
+    texts = [t for t in _schedule(run, path)["warnings"] if "no chiller COP" in t]
+    assert len(texts) == 1 and '"CH-1"' in texts[0] and '"CH-1 return"' in texts[0], texts
+
+
+def test_the_example_runs_without_warnings(run):
+    from pathlib import Path
+
+    example = Path(__file__).resolve().parent.parent / "examples" / "quarry_hill_district_loop.toml"
+    code, out, err = run("schedule", str(example))
+    assert code == 0, err
+    assert "Warnings" not in out
+    assert "in the soil, emittance" not in out   # no radiation in the soil

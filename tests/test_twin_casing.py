@@ -80,7 +80,7 @@ def test_one_medium_twin_casing_is_two_pipes_in_one_trench():
             r_g = math.acosh(depth / rc) / (2 * math.pi * k)
             qs = ((t1 + t2) / 2) / (hs / (2 * math.pi * k) + 2 * r_g)
             qa = ((t1 - t2) / 2) / (ha / (2 * math.pi * k))
-            r_own = math.acosh(depth / rp) / (2 * math.pi * k)   # one buried cylinder (Incropera Table 4.1, case 1)
+            r_own = math.acosh(depth / rp) / (2 * math.pi * k)   # one buried cylinder (Incropera & DeWitt, 6th ed., Table 4.1, case 2, from memory)
             q1, q2 = twin_heat_flows((0.0, 0.0), r_own, float(mutual_resistance_mk_w(depth, 2 * half, k)), (t1, t2))
             tol = 2 * (2 * half / (2 * depth)) ** 2 + 5e-4
             assert qs == pytest.approx((q1 + q2) / 2, rel=tol)
@@ -106,7 +106,7 @@ def test_cli_twin_casing_both_flows_apart(run):
     qs = ts / (twin["h_symmetric"] / (2 * math.pi * ki) + 2 * rg + rp)
     qa = ta / (twin["h_antisymmetric"] / (2 * math.pi * ki) + rp)
     assert (q1, q2) == pytest.approx((qs + qa, qs - qa), rel=1e-12)
-    # the soil resistance of the casing under the ground surface (Incropera Table 4.1, case 1; ht)
+    # the soil resistance of the casing under the ground surface (Incropera & DeWitt, 6th ed., Table 4.1, case 2, from memory; ht)
     s = ht_conduction.S_isothermal_pipe_to_plane(0.25, 0.8, 1.0)
     assert rg == pytest.approx(1 / (s * 1.5), rel=1e-9)
     # the return cooler than the ground would gain heat: reported as a gain, never netted

@@ -63,7 +63,8 @@ def buried_table(data: dict, units: str) -> Table:
         ["casing surface temperature", fq(data["casing_temp_c"], "temperature", units)],
     ]
     note = ("The soil is a resistance acosh(2z/D)/(2π·k) in series with the insulation, to an isothermal ground "
-            "surface (cylinder in a semi-infinite medium, Incropera et al., Table 4.1); the Results above hold it "
+            "surface (cylinder in a semi-infinite medium, Incropera & DeWitt, 6th ed., Table 4.1, case 2, from memory); "
+            "the Results above hold it "
             "as a fixed outer coefficient to the ground temperature (no air film, no radiation). Neighbouring lines are "
             "not modelled unless given (--twin-spacing, --twin-casing). Soil conductivity varies with moisture: use a "
             "site survey where the heat flow matters.")

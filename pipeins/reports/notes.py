@@ -76,6 +76,16 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
     "schedule.no_energy_price": "no energy price: {lines} have no cost saving or payback",
     "schedule.gain_without_cop": 'service "{service}" gains heat with no chiller COP (give cop in [energy] or the '
                                  "service): {lines} left out of the energy, cost and CO2 columns",
+    # buried pairs (pipeins.schedule_buried)
+    "buried.return_beyond_supply": "the return ({return_c:.1f|}) is {direction} than the supply ({supply_c:.1f|}) "
+                                   "with the ground at {ground_c:.1f|}: check return_temp",
+    "buried.pair_directions_differ": "the supply ({supply_c:.1f|}) and the return ({return_c:.1f|}) lie on either "
+                                     "side of the ground ({ground_c:.1f|}): one pipe loses heat, the other gains it; "
+                                     "check return_temp and ground_temp",
+    "buried.no_driving_difference": "the supply is at the ground temperature ({ground_c:.1f|}): no heat flows "
+                                    "between it and the ground; check ground_temp",
+    "buried.pair_above_cap": "the {role} pipe of the pair has {heat_flow:.1f|} in the soil beside the other pipe, "
+                             "above the heat-flow cap {cap:.1f|} (the pair is sized as its supply alone)",
     # the economic thickness (pipeins.economics)
     "economic.at_thickest": "the cheapest candidate is the thickest given ({thickness_m:g|}); "
                             "the optimum may be thicker",

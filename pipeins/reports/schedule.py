@@ -377,7 +377,8 @@ def _schedule_report(schedule, units: str, line_data: bool) -> Report:
 
     warnings = render_all(schedule.warnings, units)
     cautions = render_all(schedule.cautions, units)
-    bare = sorted({f"{l.bare_surface}, emittance {l.bare_emittance:.2f}" for l in schedule.lines})
+    bare = sorted({l.bare_surface if getattr(l, "burial_depth_m", None) is not None   # no radiation in the soil
+                   else f"{l.bare_surface}, emittance {l.bare_emittance:.2f}" for l in schedule.lines})
     footer.append("bare line: " + "; ".join(bare) + " (no insulation, bare fittings as bare pipe)")
     codes = dict.fromkeys(s.code for s in project.services.values() if s.code and "code" in s.criteria)
     footer += [f"code rule set {_code_text(project, name, full=True)}" for name in codes]
