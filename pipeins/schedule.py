@@ -412,15 +412,32 @@ def _left_out_notes(results, totals) -> list:
     section) and for the lines with no energy price together (a heat gain with no COP is named
     by the service's own note)."""
     left_out = set(totals.lines_left_out)
-    named = lambda tags: ", ".join(f'"{t}"' for t in tags)  # noqa: E731
     out = [make_note("schedule.payback_partial", covered=(len(totals.payback_lines), "number"),
-                total=(len(results), "number"), lines=named(r.tag for r in results if r.tag in left_out))]
-    out += [with_subject(r.installed_cost_note, f'line "{r.tag}"') for r in results
-            if r.tag in left_out and r.installed_cost_note]
+                     total=(len(results), "number"), lines=_named([r.tag for r in results if r.tag in left_out]))]
+    by_reason: dict = {}   # one note per reason, with the lines it holds for (a long list named in part)
+    for r in results:
+        if r.tag in left_out and r.installed_cost_note:
+            by_reason.setdefault(r.installed_cost_note, []).append(r.tag)
+    out += [with_subject(reason, _named(tags, "line")) for reason, tags in by_reason.items()]
     no_price = [r.tag for r in results if r.tag in left_out and not r.installed_cost_note and r.priced]
     if no_price:
-        out.append(make_note("schedule.no_energy_price", lines=named(no_price)))
+        out.append(make_note("schedule.no_energy_price", lines=_named(no_price)))
     return out
+
+
+#: Lines a warning names before it counts the rest (every tag is in the JSON ``investment``).
+_NAMED_LINES = 5
+
+
+def _named(tags: list, word: str = "") -> str:
+    """*tags* quoted and joined, the first few of a long list and how many more; *word* before
+    them (``line "A"``, ``3 lines "A", "B", "C"``)."""
+    shown = ", ".join(f'"{t}"' for t in tags[:_NAMED_LINES])
+    if len(tags) > _NAMED_LINES:
+        shown += f" and {len(tags) - _NAMED_LINES:,} more"
+    if not word:
+        return shown
+    return f"{word} {shown}" if len(tags) == 1 else f"{len(tags):,} {word}s {shown}"
 
 
 def _fixed_thickness_miss(project, service, size, condition, pick) -> str:

@@ -195,11 +195,22 @@ def test_payback_lines_are_named_when_the_table_cannot_price(tmp_path, run):
     texts = render_all(s.warnings)
     (warning,) = [w for w in texts if w.startswith("installed cost")]
     assert warning == 'installed cost, cost saving and payback cover 1 of 3 lines; left out: "CW-01 flow", "CW-02 return"'
-    # why, line by line: the table has no NPS 4 row (the chilled lines' 9 mm, in the report's units)
-    assert texts[texts.index(warning) + 1:texts.index(warning) + 3] == [
-        'line "CW-01 flow": costs.csv has no price for NPS 4 at 9 mm',
-        'line "CW-02 return": costs.csv has no price for NPS 4 at 9 mm']
-    assert 'line "CW-01 flow": costs.csv has no price for NPS 4 at 0.35 in' in render_all(s.warnings, "us")
+    # why, once per reason with the lines it holds for: the table has no NPS 4 row (the chilled
+    # lines' 9 mm, in the report's units)
+    assert texts[texts.index(warning) + 1] == '2 lines "CW-01 flow", "CW-02 return": costs.csv has no price for NPS 4 at 9 mm'
+    assert ('2 lines "CW-01 flow", "CW-02 return": costs.csv has no price for NPS 4 at 0.35 in'
+            in render_all(s.warnings, "us"))
+
+
+def test_a_long_list_of_left_out_lines_is_named_in_part():
+    """A 100,000-line line list must not give a warning per line: each reason once, the first
+    five lines named and the rest counted (every tag stays in the JSON investment)."""
+    from pipeins.schedule import _named
+
+    tags = [f"L{i}" for i in range(1, 12)]
+    assert _named(tags[:1], "line") == 'line "L1"'
+    assert _named(tags, "line") == '11 lines "L1", "L2", "L3", "L4", "L5" and 6 more'
+    assert _named(tags[:5]) == '"L1", "L2", "L3", "L4", "L5"'
 
 
 @pytest.mark.parametrize("fmt", ["text", "markdown", "json", "csv"])

@@ -68,7 +68,7 @@ TEMPLATES: dict[str, str | dict[str, str]] = {
     "materials.conductivity_falls": '{file}: material "{material}" declares a conductivity falling with temperature; '
                                     "insulants conduct more when warmer: check the declaration",
     # the schedule's money (pipeins.schedule)
-    "schedule.payback_partial": "installed cost, cost saving and payback cover {covered:.0f} of {total:.0f} lines; "
+    "schedule.payback_partial": "installed cost, cost saving and payback cover {covered:,.0f} of {total:,.0f} lines; "
                                 "left out: {lines}",
     "schedule.no_price": "{table} has no price for {size} at {thickness_m:g|}",
     "schedule.table_per_metre": "{table} prices insulation per metre of pipe by size; the {kind} {size} is priced "
