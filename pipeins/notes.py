@@ -28,7 +28,7 @@ SI_UNITS = {
     "temperature": "°C", "temperature_difference": "K", "thickness": "m", "diameter": "m",
     "length": "m", "speed": "m/s", "pressure": "Pa", "steam_pressure": "Pa",
     "heat_flow_per_length": "W/m", "heat_flux": "W/m²", "heat_transfer_coefficient": "W/(m²·K)",
-    "conductivity": "W/(m·K)", "area": "m²", "area_per_length": "m²/m", "time": "s",
+    "conductivity": "W/(m·K)", "thermal_resistance_per_length": "m·K/W", "area": "m²", "area_per_length": "m²/m", "time": "s",
     "percent": "%", "efficiency": "1", "mass_flow": "kg/s", "volume_flow": "m³/s", "energy": "J",
     "power": "W", "number": "1",
 }

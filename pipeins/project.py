@@ -1082,9 +1082,14 @@ def _line(r: _Reader, index: int, table: dict, services: dict, conditions: dict,
                 v.get("area_m2"), v.get("count", 1) if top == "vessels" else None, top, objects, cover)
 
 
-def _merged_buried(service, v: dict) -> tuple | None:
+def _buried_given(service, v: dict) -> dict:
     """The buried-line inputs of a line: its service's, with the line's own over them."""
-    merged = {**service.buried_inputs, **{k: v[k] for k in _BURIED if k in v}}
+    return {**service.buried_inputs, **{k: v[k] for k in _BURIED if k in v}}
+
+
+def _merged_buried(service, v: dict) -> tuple | None:
+    """:func:`_buried_given` as a service's ``buried`` (None for a line in air)."""
+    merged = _buried_given(service, v)
     return tuple(merged.items()) if merged else None
 
 
@@ -1113,7 +1118,7 @@ def _buried_line(r: _Reader, p, entry, table: dict, v: dict, service, kind: str,
     return pipe beside it or in the casing)."""
     from .buried import SIZED_FOR, check_buried
 
-    given = {**service.buried_inputs, **{k: v[k] for k in _BURIED if k in v}}
+    given = _buried_given(service, v)
     if any(file_word(k) in table and k not in v for k in _BURIED):   # a refused value is reported already
         return
     before = len(r.problems)
@@ -1139,6 +1144,8 @@ def _buried_line(r: _Reader, p, entry, table: dict, v: dict, service, kind: str,
         return
     if size is None:
         return
+    from .units import format_quantity as fq
+
     od, depth = float(size.outer_diameter_m), given["depth_m"]
     twin_casing = given.get("casing_diameter_m")
     if twin_casing is not None:
@@ -1151,7 +1158,7 @@ def _buried_line(r: _Reader, p, entry, table: dict, v: dict, service, kind: str,
             try:
                 check_geometry(od / 2, given["twin_spacing_m"] / 2, twin_casing / 2)
             except InputError as exc:
-                raise InputError("twin_spacing_m", f"{size.label} (outside diameter {od * 1000:.1f} mm): "
+                raise InputError("twin_spacing_m", f"{size.label} (outside diameter {fq(od, 'diameter', r.units)}): "
                                                    f"{exc.message}") from None
 
         r.guard(p, entry, "twin_spacing" if "twin_spacing" in table else key, fits)
@@ -1161,13 +1168,13 @@ def _buried_line(r: _Reader, p, entry, table: dict, v: dict, service, kind: str,
         "the casing radius (pipe and given thickness)"
     if not depth > radius:
         r.problem(p, entry, "buried" if "buried" in table else key,
-                  f"the burial depth {depth:g} m (to the pipe centre) must be more than {what} {radius:g} m of "
-                  f"{size.label}")
+                  f"the burial depth {fq(depth, 'length', r.units, digits=2)} (to the pipe centre) must be more than "
+                  f"{what} {fq(radius, 'diameter', r.units)} of {size.label}")
     spacing = given.get("twin_spacing_m")
     if spacing is not None and not spacing > 2 * radius:
         r.problem(p, entry, "twin_spacing" if "twin_spacing" in table else key,
-                  f"the two pipes' centres must be more than a casing diameter apart ({2 * radius * 1000:.0f} mm "
-                  f"for {size.label})")
+                  f"the two pipes' centres must be more than a casing diameter apart "
+                  f"({fq(2 * radius, 'diameter', r.units)} for {size.label})")
 
 
 def _repeat_shape(kind: str, table: dict) -> tuple | None:

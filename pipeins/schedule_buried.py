@@ -35,6 +35,8 @@ from dataclasses import dataclass, field, replace
 
 import numpy as np
 
+from .buried import SIZED_FOR
+
 __all__ = ["BuriedItem", "BuriedSchedule", "NOT_APPLICABLE", "select_buried", "solve_buried_lines",
            "soil_of", "BASIS_NOTE"]
 
@@ -142,8 +144,8 @@ def select_buried(project, service, condition, sizes, length):
     if inputs.get("casing_diameter_m") is not None:   # the casing fixes the build-up: checked, not sized
         material = _casing_material(service)
         series = ((inputs["casing_diameter_m"] - sizes[0].outer_diameter_m) / 2,)
-    if not set(kept) & {"heat_flow", "heat_flux", "temp_change", "economic", "code"}:
-        return _unsized(spec, material, series, sizes, notes, project.units)
+    if not set(kept) & set(SIZED_FOR):
+        return _unsized(series, len(sizes), notes)
     economic = None
     if "economic" in kept:
         from .schedule import _basis
@@ -173,13 +175,14 @@ class _Fixed:
                                        result=SimpleNamespace(warnings=[]))
 
 
-def _unsized(spec, material, series, sizes, notes, units):
+def _unsized(series, n, notes):
+    """A buried line with no criterion that applies in the soil: its given thickness, else refused."""
     if isinstance(series, tuple) and len(series) == 1:
-        return _Fixed(series, len(sizes), notes)
+        return _Fixed(series, n, notes)
     from .errors import InputError
 
-    raise InputError("criteria", "a buried line is sized for heat_flow, heat_flux, temp_change, economic or code "
-                                 "(touch and condensation do not apply to a buried line)")
+    raise InputError("criteria", f"a buried line is sized for {', '.join(SIZED_FOR)} (touch and condensation do not "
+                                 "apply to a buried line)")
 
 
 def _pair_flows(r1, r2, soil_r, mutual_r, dt1, dt2):
@@ -207,6 +210,7 @@ def solve_buried_lines(project, service, condition, lines, chosen, warnings, out
     from .notes import note, with_subject
     from .schedule import _line_results
     from .solve import solve
+    from .units import format_quantity as fq
 
     inputs = service.buried_inputs
     depth, ground = float(inputs["depth_m"]), float(inputs["ground_temp_c"])
@@ -223,11 +227,13 @@ def solve_buried_lines(project, service, condition, lines, chosen, warnings, out
     diameter = od + 2.0 * thickness
     for line, d in zip(lines, np.ravel(diameter)):
         if not depth > d / 2:
-            raise InputError("depth_m", f'line "{line.tag}": the burial depth {depth:g} m (to the pipe centre) must be '
-                                        f"more than the casing radius {d / 2:g} m at the scheduled thickness")
+            raise InputError("depth_m", f'line "{line.tag}": the burial depth {fq(depth, "length", project.units, 2)} '
+                                        f"(to the pipe centre) must be more than the casing radius "
+                                        f'{fq(d / 2, "diameter", project.units)} at the scheduled thickness')
         if spacing is not None and casing is None and not spacing > d:
             raise InputError("twin_spacing_m", f'line "{line.tag}": the two pipes\' centres must be more than a casing '
-                                               f"diameter apart ({d * 1000:.0f} mm at the scheduled thickness)")
+                                               f'diameter apart ({fq(d, "diameter", project.units)} at the scheduled '
+                                               "thickness)")
     h = soil_coefficient_w_m2k(depth, diameter, k)
     layers = [Layer(material, np.where(thickness > 0, thickness, 1e-9))]
     insulated = replace(surface, fixed_coefficient_w_m2k=h)

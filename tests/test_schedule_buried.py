@@ -255,7 +255,8 @@ def test_every_format_carries_the_buried_tables(run, tmp_path):
     import openpyxl
 
     book = openpyxl.load_workbook(tmp_path / "s.xlsx", read_only=True)
-    assert any("Buried" in name for name in book.sheetnames)
+    # a title's colon is no sheet character (Excel): left out with its space, not doubled
+    assert {"Buried lines", "Buried lines basis"} <= set(book.sheetnames), book.sheetnames
 
 
 def test_a_line_list_takes_the_buried_keys(run, tmp_path):
@@ -282,10 +283,10 @@ BASE = 'criteria = ["heat_flow"]\nmax_heat_flow = "30 W/m"\n'
 @pytest.mark.parametrize("service, line, expected", [
     (BASE + 'buried = "0.05 m"\nsoil = "moist sand"\nground_temp = "8 C"', "",
      'Error: loop.toml: line 21 (lines entry 1 "X"): size: the burial depth 0.05 m (to the pipe centre) must be more '
-     'than the pipe radius 0.05715 m of DN100'),
+     'than the pipe radius 57.1 mm of DN100'),
     (BASE + 'buried = "0.3 m"\nsoil = "moist sand"\nground_temp = "8 C"', 'thickness = "250 mm"',
-     'Error: loop.toml: line 21 (lines entry 1 "X"): size: the burial depth 0.3 m (to the pipe centre) must be more '
-     'than the casing radius (pipe and given thickness) 0.30715 m of DN100'),
+     'Error: loop.toml: line 21 (lines entry 1 "X"): size: the burial depth 0.30 m (to the pipe centre) must be more '
+     'than the casing radius (pipe and given thickness) 307.1 mm of DN100'),
     (BASE + 'buried = "0.8 m"\nsoil_k = "9 W/mK"\nground_temp = "8 C"', "",
      'Error: loop.toml: line 15 (service "flow"): soil_k: the soil conductivity must be from 0.1 to 5 W/(m·K)'),
     (BASE + 'buried = "0.8 m"\nsoil_k = "0.05"\nground_temp = "8 C"', "",
@@ -309,7 +310,7 @@ BASE = 'criteria = ["heat_flow"]\nmax_heat_flow = "30 W/m"\n'
     (BASE + 'buried = "0.8 m"\nsoil = "moist sand"\nground_temp = "8 C"\ntwin_spacing = "0.15 m"\n'
             'return_temp = "50 C"', "",
      'Error: loop.toml: line 9 (service "flow"): twin_spacing: line "X": the two pipes\' centres must be more than a '
-     'casing diameter apart (194 mm at the scheduled thickness)'),
+     'casing diameter apart (194.3 mm at the scheduled thickness)'),
     (BASE + 'buried = "0.8 m"\nsoil = "moist sand"\nground_temp = "8 C"\ntwin_casing = "200 mm"\n'
             'twin_spacing = "100 mm"\nreturn_temp = "40 C"', "",
      'Error: loop.toml: line 24 (lines entry 1 "X"): size: DN100 (outside diameter 114.3 mm): the centres must be '
@@ -346,7 +347,7 @@ def test_depth_within_the_scheduled_casing_is_refused(run, tmp_path):
     code, out, err = run("schedule", str(path))
     assert code == 2 and out == ""
     [line] = err.strip().splitlines()
-    assert line.startswith('Error: loop.toml: line 9 (service "flow"): buried: line "X": the burial depth 0.2 m')
+    assert line.startswith('Error: loop.toml: line 9 (service "flow"): buried: line "X": the burial depth 0.20 m')
 
 
 # -- a pair's return: its own warnings and doubtful temperatures ----------------------------
@@ -381,3 +382,45 @@ def test_the_example_runs_without_warnings(run):
     assert code == 0, err
     assert "Warnings" not in out
     assert "in the soil, emittance" not in out   # no radiation in the soil
+
+
+def test_us_project_shows_no_si_in_buried_output(run, tmp_path):
+    # 1 m·K/W = 1.7307 h·ft·°F/Btu (pint: m*K/W to hour*ft*delta_degF/Btu_it); the cap's W/m in Btu/(h·ft)
+    # a return hotter than its supply, so the pair's return is above the cap its supply is sized for
+    path = _project(tmp_path, BURIED + 'twin_spacing = "0.6 m"\nreturn_temp = "110 C"\ncriteria = ["heat_flow"]\n'
+                                       'max_heat_flow = "20 W/m"', [("P-1", "DN150", "80 m", "")])
+    path.write_text(path.read_text().replace('units = "si"', 'units = "us"'))
+    code, out, err = run("schedule", str(path))
+    assert code == 0, err
+    assert "m·K/W" not in out and " W/m" not in out, out
+    assert "soil resistance [h·ft·°F/Btu]" in out
+    data = _schedule(run, path)
+    item = next(i for i in data["buried"]["items"] if i["tag"] == "P-1")
+    import pint
+
+    ureg = pint.UnitRegistry()
+    shown = ureg.Quantity(item["soil_resistance_mk_w"], "m*K/W").to("hour*ft*delta_degF/Btu_it").magnitude
+    assert f"{shown:.4f}" in out
+    capped = [n for n in data["notes"] if n["code"] == "buried.pair_above_cap"]
+    assert capped and "Btu/(h·ft)" in capped[0]["text"]
+
+
+@pytest.mark.parametrize("extra", [
+    ["--layer", "polyisocyanurate foam:100mm", "--twin-spacing", "0.6m", "--return-temp", "50C"],
+    ["--twin-casing", "315mm", "--twin-spacing", "150mm", "--return-temp", "45C", "--casing-insulation",
+     "polyisocyanurate foam"]])
+def test_check_buried_in_us_units_shows_no_si_resistance(run, extra):
+    # the soil and mutual resistances in h·ft·°F/Btu (1 m·K/W = 1.7307 h·ft·°F/Btu, pint)
+    code, out, err = run("check", "--pipe", "DN65", "--fluid-temp", "90C", "--buried", "0.9m", "--soil", "moist sand",
+                         "--ground-temp", "8C", "--units", "us", *extra)
+    assert code == 0, err
+    assert "m·K/W" not in out and "h·ft·°F/Btu" in out
+
+
+def test_buried_errors_in_us_units(run, tmp_path):
+    # a US project's refusal in its own units: 0.05 m = 0.16 ft, DN100's radius 57.15 mm = 2.250 in (exact inch)
+    path = _project(tmp_path, BASE + 'buried = "0.05 m"\nsoil = "moist sand"\nground_temp = "8 C"', [("X", "DN100", "10 m", "")])
+    path.write_text(path.read_text().replace('units = "si"', 'units = "us"'))
+    code, out, err = run("schedule", str(path))
+    assert (code, out) == (2, "")
+    assert "the burial depth 0.16 ft (to the pipe centre) must be more than the pipe radius 2.250 in of DN100" in err, err

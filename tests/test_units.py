@@ -444,6 +444,7 @@ DISPLAY_PINT = {
     "heat_transfer_coefficient": ("W/(m**2*K)",
                                   {"si": "W/(m**2*K)", "us": "Btu_it/(hour*ft**2*delta_degF)"}),
     "conductivity": ("W/(m*K)", {"si": "W/(m*K)", "us": "Btu_it*inch/(hour*ft**2*delta_degF)"}),
+    "thermal_resistance_per_length": ("m*K/W", {"si": "m*K/W", "us": "hour*ft*delta_degF/Btu_it"}),
     "time": ("s", {"si": "hour", "us": "hour"}),
     "percent": ("percent", {"si": "percent", "us": "percent"}),
     "mass_flow": ("kg/s", {"si": "kg/hour", "us": "lb/hour"}),

@@ -58,7 +58,7 @@ def buried_table(data: dict, units: str) -> Table:
                  + ("" if soil == "given" else f" ({data['soil_source']})")],
         ["ground surface temperature", fq(data["ground_temp_c"], "temperature", units)],
         ["shape factor per metre, 2π/acosh(2z/D)", f"{data['shape_factor_per_m']:.4f}"],
-        ["soil resistance", f"{data['soil_resistance_mk_w']:.4f} m·K/W"],
+        ["soil resistance", fq(data["soil_resistance_mk_w"], "thermal_resistance_per_length", units)],
         ["heat flow", fq(data["heat_flow_w_per_m"], "heat_flow_per_length", units)],
         ["casing surface temperature", fq(data["casing_temp_c"], "temperature", units)],
     ]
@@ -249,6 +249,6 @@ def twin_table(twin: dict, units: str) -> Table:
             [f"return at {fq(twin['return_temp_c'], 'temperature', units)}", twin["alone_heat_flow_w_per_m"][1],
              twin["return_heat_flow_w_per_m"]]]
     note = (f"centres {fq(twin['spacing_m'], 'length', units, digits=2)} apart; mutual soil resistance "
-            f"{twin['mutual_resistance_mk_w']:.4g} m·K/W; {twin['method']}; heat flow positive out of the fluid")
+            f"{fq(twin['mutual_resistance_mk_w'], 'thermal_resistance_per_length', units)}; {twin['method']}; heat flow positive out of the fluid")
     return Table("Two pipes in one trench", [Column("pipe"), Column("alone", "heat_flow_per_length"),
                                              Column("beside the other", "heat_flow_per_length")], rows, note=note)

@@ -30,7 +30,7 @@ def buried_tables(buried, units: str) -> list[Table]:
     items = Table("Buried lines", [
         Column("line"), Column("service"), Column("size"), Column("pair"), Column("depth", "length"),
         Column("casing outside diameter", "diameter"), Column("fluid", "temperature"), Column("thickness", "thickness"),
-        Column("soil resistance", digits=4, unit="m·K/W"), Column("heat flow alone", "heat_flow_per_length"),
+        Column("soil resistance", "thermal_resistance_per_length"), Column("heat flow alone", "heat_flow_per_length"),
         Column("heat flow", "heat_flow_per_length"), Column("heat flow, line", "power"),
         Column("bare heat flow", "heat_flow_per_length"), Column("casing surface", "temperature")], rows,
         note="Heat flow positive = lost by the fluid, negative = gained; a pair's two pipes apart, never netted "

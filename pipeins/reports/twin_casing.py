@@ -26,7 +26,7 @@ def twin_casing_table(data: dict, units: str) -> Table:
             f"{fq(data['soil_k_w_mk'], 'conductivity', units)}, σ = {data['sigma']:.3f}; casing factors h_s = "
             f"{data['h_symmetric']:.4f}, h_a = {data['h_antisymmetric']:.4f} (first-order closed forms "
             f"{data['h_symmetric_first_order']:.4f}, {data['h_antisymmetric_first_order']:.4f}); soil "
-            f"{data['soil_resistance_mk_w']:.4f} m·K/W; casing mean {fq(data['casing_temp_c'], 'temperature', units)}. "
+            f"{fq(data['soil_resistance_mk_w'], 'thermal_resistance_per_length', units)}; casing mean {fq(data['casing_temp_c'], 'temperature', units)}. "
             f"Method: {data['method']}. Heat flow positive out of the fluid; the two pipes' flows are given apart. "
             "Soil conductivity varies with moisture: use a site survey where the heat flow matters.")
     return Table("Twin pipes in one casing", [Column("pipe"), Column("fluid", "temperature"),

@@ -47,7 +47,7 @@ def sheet_names(report) -> list[str]:
     """Names of the workbook's sheets, in order (unique, at most 31 characters)."""
     names, seen = [], set()
     for title in [t.title for t in report.tables] + ["basis", "warnings", "cautions"]:
-        name = _BAD_SHEET_CHARS.sub(" ", title).strip()[:31] or "sheet"
+        name = " ".join(_BAD_SHEET_CHARS.sub(" ", title).split())[:31].strip() or "sheet"   # "a: b" -> "a b"
         base, k = name, 2
         while name.lower() in seen:
             suffix = f" ({k})"

@@ -217,6 +217,10 @@ _KINDS: dict[str, _Kind] = {
         {"si": ("W/(m·K)", 1.0),
          "us": ("Btu·in/(h·ft²·°F)",
                 _BTU_IT_J * _INCH_M / _HOUR_S / _FOOT_M**2 / _DEGF_DIFFERENCE_K)}),
+    "thermal_resistance_per_length": _Kind(
+        "thermal resistance per length", "a", "0.5m*K/W or 0.87h*ft*F/Btu",
+        _dim_mul(_dim_mul(_TEMP, _LENGTH), _POWER, -1),
+        {"si": ("m·K/W", 1.0), "us": ("h·ft·°F/Btu", _HOUR_S * _FOOT_M * _DEGF_DIFFERENCE_K / _BTU_IT_J)}),
     "area": _Kind(
         "area", "an", "12m2 or 130ft2", _dim_mul(_LENGTH, _LENGTH),
         {"si": ("m²", 1.0), "us": ("ft²", _FOOT_M**2)}),
@@ -269,6 +273,7 @@ RANGES: dict[str, tuple[float, float]] = {
     "heat_flux": (-1e8, 1e8),
     "heat_transfer_coefficient": (-1e9, 1e9),
     "conductivity": (-1e4, 1e4),
+    "thermal_resistance_per_length": (-1e6, 1e6),
     "time": (-1e10, 1e10),
     "area": (0.0, 1e7),
     "area_per_length": (0.0, 1e4),
@@ -308,6 +313,7 @@ _DEFAULT_DIGITS = {
     ("heat_flux", "si"): 1, ("heat_flux", "us"): 1,
     ("heat_transfer_coefficient", "si"): 2, ("heat_transfer_coefficient", "us"): 3,
     ("conductivity", "si"): 4, ("conductivity", "us"): 3,
+    ("thermal_resistance_per_length", "si"): 4, ("thermal_resistance_per_length", "us"): 4,
     ("time", "si"): 0, ("time", "us"): 0,
     ("area", "si"): 2, ("area", "us"): 1,
     ("area_per_length", "si"): 3, ("area_per_length", "us"): 2,

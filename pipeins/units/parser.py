@@ -377,7 +377,8 @@ def parse_quantity(text, kind: str, option: str = "", units: str = "si", *,
         [K], ``thickness``/``diameter``/``length`` [m], ``speed`` [m/s], ``pressure``
         [Pa, absolute], ``steam_pressure`` [Pa, absolute; the text must say gauge or
         absolute], ``heat_flow_per_length`` [W/m], ``heat_flux`` [W/m²],
-        ``heat_transfer_coefficient`` [W/(m²·K)], ``conductivity`` [W/(m·K)], ``time`` [s],
+        ``heat_transfer_coefficient`` [W/(m²·K)], ``conductivity`` [W/(m·K)],
+        ``thermal_resistance_per_length`` [m·K/W], ``time`` [s],
         ``percent`` [%], ``efficiency`` [fraction, 0..1], ``energy`` [J], ``power`` [W],
         ``mass_flow`` [kg/s], ``volume_flow`` [m³/s]; ``flow`` returns a :class:`Flow`
         (mass or volume).
