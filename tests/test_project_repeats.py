@@ -40,12 +40,12 @@ def _line(**keys) -> str:
     return f"\n[[lines]]\n{body}\n"
 
 
-def _read(text: str, shortcut: bool, monkeypatch):
+def _read(text: str, shortcut: bool, monkeypatch, base_dir="."):
     with monkeypatch.context() as m:
         if not shortcut:
             m.setattr(project, "_repeat_shape", lambda kind, table: None)
         try:
-            p = parse_project(text, "depot.toml", ".")
+            p = parse_project(text, "depot.toml", base_dir)
         except ProjectError as exc:
             return ("problems", str(exc))
         return ("project", repr((p.lines, sorted(p.services.items()), sorted(p.conditions.items()))))
@@ -114,14 +114,6 @@ def test_a_line_list_reads_as_the_full_reader(tmp_path, monkeypatch):
     text = HEAD.replace('name = "Fernhill depot (invented)"',
                         'name = "Fernhill depot (invented)"\nlines_file = "list.csv"')
 
-    def read(shortcut):
-        with monkeypatch.context() as m:
-            if not shortcut:
-                m.setattr(project, "_repeat_shape", lambda kind, table: None)
-            with pytest.raises(ProjectError) as exc:
-                parse_project(text, "depot.toml", tmp_path)
-            return str(exc.value)
-
-    full = read(False)
-    assert read(True) == full
-    assert "row 4" in full and "row 6" in full
+    full = _read(text, False, monkeypatch, tmp_path)
+    assert _read(text, True, monkeypatch, tmp_path) == full
+    assert full[0] == "problems" and "row 4" in full[1] and "row 6" in full[1]
